@@ -1,0 +1,78 @@
+// Command tripgrade checks the coordination of protective relays and fuses
+// described in a TOML study file.
+//
+// Usage:
+//
+//	tripgrade <command> [arguments]
+//
+// Run "tripgrade help" for the list of commands.
+package main
+
+import (
+	"fmt"
+	"io"
+	"os"
+	"sort"
+)
+
+// Exit codes shared by every subcommand.
+const (
+	exitOK    = 0 // the command ran and nothing failed
+	exitFail  = 1 // a check failed (only "check" and "demo" use it)
+	exitUsage = 2 // bad input: the study file or the command line is wrong
+)
+
+// command is one subcommand: a short summary for the help text and the
+// function that runs it with the arguments after its name.
+type command struct {
+	summary string
+	run     func(args []string, stdout, stderr io.Writer) int
+}
+
+func commands() map[string]command {
+	return map[string]command{
+		"curve": {"operating time of one characteristic at given currents", runCurve},
+	}
+}
+
+func main() {
+	os.Exit(run(os.Args[1:], os.Stdout, os.Stderr))
+}
+
+// run dispatches to a subcommand and returns the process exit code.
+func run(args []string, stdout, stderr io.Writer) int {
+	cmds := commands()
+	if len(args) == 0 {
+		usage(stderr, cmds)
+		return exitUsage
+	}
+	name := args[0]
+	switch name {
+	case "help", "-h", "--help":
+		usage(stdout, cmds)
+		return exitOK
+	}
+	c, ok := cmds[name]
+	if !ok {
+		fmt.Fprintf(stderr, "tripgrade: unknown command %q\n", name)
+		usage(stderr, cmds)
+		return exitUsage
+	}
+	return c.run(args[1:], stdout, stderr)
+}
+
+func usage(w io.Writer, cmds map[string]command) {
+	fmt.Fprintln(w, "usage: tripgrade <command> [arguments]")
+	fmt.Fprintln(w, "")
+	fmt.Fprintln(w, "commands:")
+	names := make([]string, 0, len(cmds))
+	for n := range cmds {
+		names = append(names, n)
+	}
+	sort.Strings(names)
+	for _, n := range names {
+		fmt.Fprintf(w, "  %-8s %s\n", n, cmds[n].summary)
+	}
+	fmt.Fprintln(w, "")
+	fmt.Fprintln(w, "Run \"tripgrade <command> --help\" for the arguments of one command.")
+}
