@@ -1,0 +1,247 @@
+package faults
+
+import (
+	"fmt"
+	"math/cmplx"
+)
+
+// Sequence indices.
+const (
+	zero = 0
+	pos  = 1
+	neg  = 2
+)
+
+// block is the 2×2 admittance of a branch in one sequence, symmetric: the
+// current into the branch at its From end is ff·V_from + ft·V_to, at its To
+// end ft·V_from + tt·V_to (per unit, each on its own bus's base).
+type block struct{ ff, ft, tt complex128 }
+
+// seriesBlock is a series admittance 1/z behind an ideal transformer of
+// real ratio tap:1 on the From side (tap 1 for a line).
+func seriesBlock(z complex128, tap float64) block {
+	y := 1 / z
+	t := complex(tap, 0)
+	return block{ff: y / (t * t), ft: -y / t, tt: y}
+}
+
+// seqData is one sequence network of one case in per unit, before
+// factorization: a shunt admittance per bus and a block per branch.
+type seqData struct {
+	shunt  []complex128
+	branch []block
+	series []complex128 // series impedance of each line (0 for transformers)
+}
+
+func newSeqData(nb, nbr int) *seqData {
+	return &seqData{
+		shunt:  make([]complex128, nb),
+		branch: make([]block, nbr),
+		series: make([]complex128, nbr),
+	}
+}
+
+// caseData holds the three sequence networks of one case.
+type caseData [3]*seqData
+
+// assemble builds the per-unit sequence networks of case cs.
+func assemble(n *Network, set Settings, cs Case) (caseData, error) {
+	nb, nbr := len(n.Buses), n.BranchCount()
+	var d caseData
+	for s := range d {
+		d[s] = newSeqData(nb, nbr)
+	}
+	base := n.baseMVA()
+	zb := func(bus int) float64 { kv := n.Buses[bus].KV; return kv * kv / base }
+
+	for _, s := range n.Sources {
+		st := s.Max
+		if cs == Min {
+			st = s.Min
+		}
+		kv := n.Buses[s.Bus].KV
+		z1 := st.Z1Ohm
+		if z1 == 0 {
+			if !(st.SCMVA > 0) {
+				return d, fmt.Errorf("source %q: no %s-case strength (short-circuit power or impedance)", s.Name, cs)
+			}
+			z1 = zFromPower(set.VoltageFactor(kv, cs), kv, st.SCMVA, st.XR)
+		}
+		z1pu := z1 / complex(zb(s.Bus), 0)
+		d[pos].shunt[s.Bus] += 1 / z1pu
+		d[neg].shunt[s.Bus] += 1 / z1pu
+		if s.Earthed {
+			z0 := st.Z0Ohm
+			if z0 == 0 {
+				xr0 := s.X0R0
+				if xr0 == 0 {
+					xr0 = xrOf(z1)
+				}
+				z0 = polarXR(s.Z0Z1*cmplx.Abs(z1), xr0)
+			}
+			if z0 == 0 {
+				return d, fmt.Errorf("source %q: earthed but has no zero-sequence impedance", s.Name)
+			}
+			d[zero].shunt[s.Bus] += complex(zb(s.Bus), 0) / z0
+		}
+	}
+
+	for _, g := range n.Generators {
+		if (cs == Max && !g.InMax) || (cs == Min && !g.InMin) {
+			continue
+		}
+		un := n.Buses[g.Bus].KV
+		zr := g.KV * g.KV / g.MVA // ohms per unit of the machine rating
+		k := 1.0
+		if cs == Max && g.PF > 0 {
+			k = GeneratorCorrection(un, g.KV, set.VoltageFactor(un, Max), g.XdPct, g.PF)
+		}
+		r := g.RPct
+		if r == 0 {
+			r = fictitiousGeneratorR(g)
+		}
+		x2 := g.X2Pct
+		if x2 == 0 {
+			x2 = g.XdPct
+		}
+		scale := complex(k*zr/100/zb(g.Bus), 0)
+		d[pos].shunt[g.Bus] += 1 / (complex(r, g.XdPct) * scale)
+		d[neg].shunt[g.Bus] += 1 / (complex(r, x2) * scale)
+		if !g.Earth.Isolated {
+			z0 := complex(r, g.X0Pct)*scale + 3*g.Earth.ZOhm/complex(zb(g.Bus), 0)
+			if z0 == 0 {
+				return d, fmt.Errorf("generator %q: earthed star point with zero zero-sequence impedance", g.Name)
+			}
+			d[zero].shunt[g.Bus] += 1 / z0
+		}
+	}
+
+	for b, l := range n.Lines {
+		zbase := complex(zb(l.From), 0)
+		z1, z0 := l.Z1Ohm, l.Z0Ohm
+		if cs == Min {
+			endC := l.EndTempC
+			if endC == 0 {
+				endC = set.EndTempC
+			}
+			h := heatFactor(endC)
+			z1 = complex(real(z1)*h, imag(z1))
+			z0 = complex(real(z0)*h, imag(z0))
+		}
+		z1, z0 = z1/zbase, z0/zbase
+		d[pos].branch[b] = seriesBlock(z1, 1)
+		d[neg].branch[b] = seriesBlock(z1, 1)
+		d[pos].series[b], d[neg].series[b] = z1, z1
+		if z0 != 0 {
+			d[zero].branch[b] = seriesBlock(z0, 1)
+			d[zero].series[b] = z0
+		}
+	}
+
+	for i := range n.Transformers {
+		t := &n.Transformers[i]
+		b := len(n.Lines) + i
+		blk, err := transformerBlocks(n, set, cs, t)
+		if err != nil {
+			return d, err
+		}
+		for s := range d {
+			d[s].branch[b] = blk[s]
+		}
+	}
+
+	for _, e := range n.Earthings {
+		z := e.Z0Ohm + 3*e.NeutralZ
+		if z == 0 {
+			return d, fmt.Errorf("earthing %q: zero-sequence impedance Z0 + 3Zn must not be zero", e.Name)
+		}
+		d[zero].shunt[e.Bus] += complex(zb(e.Bus), 0) / z
+	}
+	return d, nil
+}
+
+// xrOf returns X/R of an impedance (+Inf for a pure reactance).
+func xrOf(z complex128) float64 {
+	if real(z) == 0 {
+		return inf
+	}
+	return imag(z) / real(z)
+}
+
+// fictitiousGeneratorR returns the IEC 60909-0 fictitious stator resistance
+// in % (from memory of the standard's clause on generators): 0.05·x"d for
+// U_rG > 1 kV and S_rG ≥ 100 MVA, 0.07·x"d for U_rG > 1 kV and S_rG < 100
+// MVA, 0.15·x"d for U_rG ≤ 1 kV.
+func fictitiousGeneratorR(g Generator) float64 {
+	switch {
+	case g.KV <= lowVoltageKV:
+		return 0.15 * g.XdPct
+	case g.MVA >= 100:
+		return 0.05 * g.XdPct
+	}
+	return 0.07 * g.XdPct
+}
+
+// transformerBlocks returns the zero, positive and negative sequence
+// blocks of a transformer in case cs. The short-circuit impedance sits on
+// the To side, behind an ideal transformer of off-nominal ratio
+// tap = (kV_from/Un_from)/(kV_to/Un_to) on the From side.
+func transformerBlocks(n *Network, set Settings, cs Case, t *Transformer) ([3]block, error) {
+	var blk [3]block
+	base := n.baseMVA()
+	unF, unT := n.Buses[t.From].KV, n.Buses[t.To].KV
+	zbT := unT * unT / base
+	zbF := unF * unF / base
+	tap := (t.KVFrom / unF) / (t.KVTo / unT)
+	zr := t.KVTo * t.KVTo / t.MVA // ohms per unit of rating, To side
+
+	k := 1.0
+	if cs == Max && !t.NotCorrected {
+		k = TransformerCorrection(set.VoltageFactor(minf(unF, unT), Max), t.ZPct, t.XR)
+	}
+	z1 := polarXR(k*t.ZPct/100*zr/zbT, t.XR)
+	blk[pos] = seriesBlock(z1, tap)
+	blk[neg] = blk[pos]
+
+	z0pct, x0r0 := t.Z0Pct, t.X0R0
+	if z0pct == 0 {
+		z0pct = t.ZPct
+	}
+	if x0r0 == 0 {
+		x0r0 = t.XR
+	}
+	z0 := polarXR(k*z0pct/100*zr/zbT, x0r0)
+
+	wF, wT := t.Group.HV, t.Group.LV
+	if t.KVFrom < t.KVTo {
+		wF, wT = wT, wF
+	}
+	if wF == EarthedStar && t.NeutralFrom.Isolated {
+		wF = Star
+	}
+	if wT == EarthedStar && t.NeutralTo.Isolated {
+		wT = Star
+	}
+	// Neutral impedances appear as 3Zn in the zero-sequence path, each in
+	// per unit of its own side; the From side's is referred to the To side
+	// through the ideal transformer (divide by tap²).
+	znF := 3 * t.NeutralFrom.ZOhm / complex(zbF, 0)
+	znT := 3 * t.NeutralTo.ZOhm / complex(zbT, 0)
+	tap2 := complex(tap*tap, 0)
+	switch {
+	case wF == EarthedStar && wT == EarthedStar:
+		blk[zero] = seriesBlock(z0+znT+znF/tap2, tap)
+	case wF == EarthedStar && wT == Delta:
+		blk[zero] = block{ff: 1 / (znF + tap2*z0)}
+	case wF == Delta && wT == EarthedStar:
+		blk[zero] = block{tt: 1 / (z0 + znT)}
+	}
+	return blk, nil
+}
+
+func minf(a, b float64) float64 {
+	if a < b {
+		return a
+	}
+	return b
+}

@@ -1,0 +1,223 @@
+package faults
+
+import (
+	"fmt"
+	"math"
+	"math/cmplx"
+)
+
+// Network is the electrical model of a study in SI units. Elements refer to
+// buses by index into Buses. Branches (lines and transformers) share one
+// index space: branch b < len(Lines) is Lines[b], the rest are
+// Transformers[b-len(Lines)].
+type Network struct {
+	BaseMVA      float64 // per-unit base power; 100 when zero
+	Buses        []Bus
+	Sources      []Source
+	Generators   []Generator
+	Lines        []Line
+	Transformers []Transformer
+	Earthings    []Earthing
+}
+
+// Bus is a node of the network at one nominal voltage.
+type Bus struct {
+	Name string
+	KV   float64 // nominal line-to-line voltage Un
+}
+
+// Source is a grid equivalent (network feeder) at a bus. Its positive and
+// negative sequence impedance come either from the short-circuit power,
+// |Z| = c·Un²/S"k with the case's voltage factor c (IEC 60909-0, network
+// feeder), or from explicit ohms used as given.
+type Source struct {
+	Name string
+	Bus  int
+	Max  Strength // maximum case
+	Min  Strength // minimum case
+	// Earthed says whether the source offers a zero-sequence path.
+	Earthed bool
+	// Z0Z1 is |Z0|/|Z1|, used when a Strength carries no explicit Z0.
+	Z0Z1 float64
+	// X0R0 is the zero-sequence X/R; zero means the same as the positive X/R.
+	X0R0 float64
+}
+
+// Strength is one case's short-circuit strength of a Source.
+type Strength struct {
+	SCMVA float64    // initial symmetrical short-circuit power S"k; used when Z1Ohm is zero
+	XR    float64    // X/R of the positive-sequence impedance when SCMVA is used
+	Z1Ohm complex128 // explicit positive-sequence impedance (overrides SCMVA)
+	Z0Ohm complex128 // explicit zero-sequence impedance (overrides Z0Z1)
+}
+
+// Generator is a synchronous machine connected directly at a bus.
+type Generator struct {
+	Name  string
+	Bus   int
+	MVA   float64 // rated apparent power S_rG
+	KV    float64 // rated voltage U_rG
+	XdPct float64 // sub-transient reactance x"d in % on the rating
+	X2Pct float64 // negative-sequence reactance; zero means x"d
+	X0Pct float64 // zero-sequence reactance of the winding
+	RPct  float64 // stator resistance in % on the rating
+	PF    float64 // rated power factor cos φ_rG, for the IEC 60909-0 correction K_G
+	InMax bool    // in service in the maximum case
+	InMin bool    // in service in the minimum case
+	Earth Neutral // star-point earthing
+}
+
+// Neutral describes how a star point is connected to earth. The zero value
+// is a solidly earthed star point.
+type Neutral struct {
+	Isolated bool       // true: the star point is not connected to earth
+	ZOhm     complex128 // earthing impedance (zero: solid)
+}
+
+// Line is an overhead line or cable between two buses of the same voltage.
+type Line struct {
+	Name     string
+	From, To int
+	Z1Ohm    complex128 // positive (= negative) sequence series impedance at 20 °C
+	Z0Ohm    complex128 // zero-sequence series impedance at 20 °C
+	// EndTempC is the conductor temperature at the end of a fault, for the
+	// minimum case resistance (IEC 60909-0: R = [1 + 0.004/K·(θe − 20 °C)]·R20).
+	// Zero means the Settings' value.
+	EndTempC float64
+}
+
+// Transformer is a two-winding transformer. The winding letters of Group
+// apply to the higher-voltage side first, as in IEC 60076-1 notation; the
+// side with the larger rated kV is the HV side (From when they are equal).
+type Transformer struct {
+	Name         string
+	From, To     int
+	MVA          float64 // rated power
+	KVFrom, KVTo float64 // rated winding voltages
+	ZPct         float64 // short-circuit impedance u_k in % on the rating
+	XR           float64 // X/R of the short-circuit impedance
+	Z0Pct        float64 // zero-sequence impedance in %; zero means ZPct
+	X0R0         float64 // zero-sequence X/R; zero means XR
+	Group        VectorGroup
+	NeutralFrom  Neutral // earthing of a star winding on the From side
+	NeutralTo    Neutral // earthing of a star winding on the To side
+	NotCorrected bool    // true: do not apply the IEC 60909-0 K_T (e.g. a unit transformer)
+}
+
+// Earthing is a grounding transformer (zig-zag or star–delta) or another
+// zero-sequence-only shunt path at a bus: Z0 + 3Zn to earth, open in the
+// positive and negative sequence.
+type Earthing struct {
+	Name     string
+	Bus      int
+	Z0Ohm    complex128 // zero-sequence impedance per phase
+	NeutralZ complex128 // neutral earthing impedance Zn
+}
+
+// BranchCount returns the number of branches (lines then transformers).
+func (n *Network) BranchCount() int { return len(n.Lines) + len(n.Transformers) }
+
+// BranchName returns the name of branch b.
+func (n *Network) BranchName(b int) string {
+	if b < len(n.Lines) {
+		return n.Lines[b].Name
+	}
+	return n.Transformers[b-len(n.Lines)].Name
+}
+
+// BranchEnds returns the From and To buses of branch b.
+func (n *Network) BranchEnds(b int) (from, to int) {
+	if b < len(n.Lines) {
+		return n.Lines[b].From, n.Lines[b].To
+	}
+	t := n.Transformers[b-len(n.Lines)]
+	return t.From, t.To
+}
+
+// IsTransformer reports whether branch b is a transformer.
+func (n *Network) IsTransformer(b int) bool { return b >= len(n.Lines) }
+
+// Transformer returns the transformer of branch b, which must be one.
+func (n *Network) Transformer(b int) *Transformer { return &n.Transformers[b-len(n.Lines)] }
+
+func (n *Network) baseMVA() float64 {
+	if n.BaseMVA > 0 {
+		return n.BaseMVA
+	}
+	return 100
+}
+
+// zFromPower returns the impedance c·Un²/S with the given X/R, in ohms.
+func zFromPower(c, kv, mva, xr float64) complex128 {
+	mag := c * kv * kv / mva
+	return polarXR(mag, xr)
+}
+
+// polarXR returns a complex impedance of magnitude mag and ratio X/R = xr;
+// xr = +Inf gives a pure reactance.
+func polarXR(mag, xr float64) complex128 {
+	if math.IsInf(xr, 1) {
+		return complex(0, mag)
+	}
+	r := mag / math.Sqrt(1+xr*xr)
+	return complex(r, r*xr)
+}
+
+// check reports the first structural problem of the network: references out
+// of range or values the engine cannot use. The study loader gives the
+// user-facing messages; this guards callers that build a Network in code.
+func (n *Network) check() error {
+	nb := len(n.Buses)
+	if nb == 0 {
+		return fmt.Errorf("network has no buses")
+	}
+	for _, b := range n.Buses {
+		if !(b.KV > 0) || math.IsInf(b.KV, 0) {
+			return fmt.Errorf("bus %q: kv must be > 0 (got %g)", b.Name, b.KV)
+		}
+	}
+	bad := func(kind, name string, idx int) error {
+		return fmt.Errorf("%s %q: bus index %d out of range", kind, name, idx)
+	}
+	for _, s := range n.Sources {
+		if s.Bus < 0 || s.Bus >= nb {
+			return bad("source", s.Name, s.Bus)
+		}
+	}
+	for _, g := range n.Generators {
+		if g.Bus < 0 || g.Bus >= nb {
+			return bad("generator", g.Name, g.Bus)
+		}
+		if !(g.MVA > 0) || !(g.KV > 0) || !(g.XdPct > 0) {
+			return fmt.Errorf("generator %q: mva, kv and xd_pct must be > 0", g.Name)
+		}
+	}
+	for _, l := range n.Lines {
+		if l.From < 0 || l.From >= nb || l.To < 0 || l.To >= nb {
+			return fmt.Errorf("line %q: bus index out of range", l.Name)
+		}
+		if l.From == l.To {
+			return fmt.Errorf("line %q: both ends on the same bus", l.Name)
+		}
+		if l.Z1Ohm == 0 || cmplx.IsNaN(l.Z1Ohm) {
+			return fmt.Errorf("line %q: zero or undefined impedance", l.Name)
+		}
+	}
+	for _, t := range n.Transformers {
+		if t.From < 0 || t.From >= nb || t.To < 0 || t.To >= nb {
+			return fmt.Errorf("transformer %q: bus index out of range", t.Name)
+		}
+		if t.From == t.To {
+			return fmt.Errorf("transformer %q: both ends on the same bus", t.Name)
+		}
+		if !(t.MVA > 0) || !(t.KVFrom > 0) || !(t.KVTo > 0) || !(t.ZPct > 0) {
+			return fmt.Errorf("transformer %q: mva, kv and z_pct must be > 0", t.Name)
+		}
+	}
+	for _, e := range n.Earthings {
+		if e.Bus < 0 || e.Bus >= nb {
+			return bad("earthing", e.Name, e.Bus)
+		}
+	}
+	return nil
+}

@@ -1,0 +1,328 @@
+package faults
+
+import (
+	"fmt"
+	"math/cmplx"
+)
+
+// End names one end of a branch.
+type End uint8
+
+// Branch ends.
+const (
+	From End = iota
+	To
+)
+
+// String returns "from" or "to".
+func (e End) String() string {
+	if e == From {
+		return "from"
+	}
+	return "to"
+}
+
+// Point is a measuring point: the current transformer at one end of a
+// branch, measuring the current flowing from that end's bus into the
+// branch.
+type Point struct {
+	Branch int
+	End    End
+}
+
+// Place is where a fault is applied: at a bus, or on a branch at a
+// fraction of its length from the From end. Frac 0 and 1 on a branch are
+// the close-in positions just inside the branch at its From and To end
+// (beyond the current transformer there); a transformer branch has only
+// those two positions.
+type Place struct {
+	Branch int // −1 for a bus fault
+	Bus    int // the faulted bus when Branch is −1
+	Frac   float64
+}
+
+// AtBus returns the place of a fault at bus k.
+func AtBus(k int) Place { return Place{Branch: -1, Bus: k} }
+
+// OnBranch returns the place of a fault on branch b at fraction frac of
+// its length from the From end.
+func OnBranch(b int, frac float64) Place { return Place{Branch: b, Frac: frac} }
+
+// IsBus reports whether the place is a bus.
+func (p Place) IsBus() bool { return p.Branch < 0 }
+
+// Fault is one short circuit to solve.
+type Fault struct {
+	Place Place
+	Kind  Kind
+	Case  Case
+	// ZOhm is the fault impedance: per phase for LLL, between the two
+	// phases for LL, from the faulted phase(s) to earth for LG and LLG.
+	ZOhm complex128
+}
+
+// CaseFault returns the fault of kind k at place p in case cs with the
+// fault impedance the Settings give that case: bolted in the maximum case;
+// in the minimum case EarthFaultOhm (EarthFaultOhmLV up to 1 kV) for earth
+// faults and PhaseFaultOhm for the others.
+func (e *Engine) CaseFault(p Place, k Kind, cs Case) Fault {
+	f := Fault{Place: p, Kind: k, Case: cs}
+	if cs == Min {
+		switch {
+		case !k.Earth():
+			f.ZOhm = complex(e.set.PhaseFaultOhm, 0)
+		case e.net.Buses[e.PlaceBus(p)].KV <= lowVoltageKV:
+			f.ZOhm = complex(e.set.EarthFaultOhmLV, 0)
+		default:
+			f.ZOhm = complex(e.set.EarthFaultOhm, 0)
+		}
+	}
+	return f
+}
+
+// PlaceBus returns the bus whose voltage and phase frame a fault at p
+// uses: the bus itself, the branch end of a close-in fault, or the From bus
+// of a line.
+func (e *Engine) PlaceBus(p Place) int {
+	if p.IsBus() {
+		return p.Bus
+	}
+	from, to := e.net.BranchEnds(p.Branch)
+	if p.Frac == 1 {
+		return to
+	}
+	return from
+}
+
+// Solution is a solved fault. Its methods give the currents at any
+// measuring point; it is a small value, safe to copy and to use from
+// several goroutines.
+type Solution struct {
+	e     *Engine
+	fault Fault
+	i, j  int           // the fault node is (1−p)·i + p·j for transfer impedances
+	p     float64       // 0 for a bus or close-in fault
+	fbus  int           // bus whose zone and base the fault uses
+	zff   [3]complex128 // Thevenin impedance of the fault node per sequence
+	iseq  [3]complex128 // fault currents per sequence, per unit, fault frame
+	live  bool
+}
+
+// Solve computes the sequence currents of fault f.
+func (e *Engine) Solve(f Fault) (Solution, error) {
+	s := Solution{e: e, fault: f}
+	n := e.net
+	pl := f.Place
+	switch {
+	case pl.IsBus():
+		if pl.Bus < 0 || pl.Bus >= len(n.Buses) {
+			return s, fmt.Errorf("fault bus %d out of range", pl.Bus)
+		}
+		s.i, s.j, s.fbus = pl.Bus, pl.Bus, pl.Bus
+	case pl.Branch >= n.BranchCount():
+		return s, fmt.Errorf("fault branch %d out of range", pl.Branch)
+	case !(pl.Frac >= 0 && pl.Frac <= 1):
+		return s, fmt.Errorf("fault position %g on branch %q must lie in [0, 1]", pl.Frac, n.BranchName(pl.Branch))
+	default:
+		from, to := n.BranchEnds(pl.Branch)
+		switch {
+		case pl.Frac == 0:
+			s.i, s.j, s.fbus = from, from, from
+		case pl.Frac == 1:
+			s.i, s.j, s.fbus = to, to, to
+		case n.IsTransformer(pl.Branch):
+			return s, fmt.Errorf("transformer %q: faults only at its terminals (position 0 or 1)", n.BranchName(pl.Branch))
+		default:
+			s.i, s.j, s.p, s.fbus = from, to, pl.Frac, from
+		}
+	}
+	nets := &e.cases[f.Case]
+	if !e.Energised(f.Case, s.fbus) {
+		return s, nil
+	}
+	s.live = true
+	var open [3]bool
+	for q := range nets {
+		if nets[q].row[s.i] < 0 {
+			open[q] = true
+			continue
+		}
+		s.zff[q] = s.selfImpedance(q)
+	}
+	c := e.set.VoltageFactor(n.Buses[s.fbus].KV, f.Case)
+	zf := f.ZOhm / complex(e.zbase[s.fbus], 0)
+	s.iseq = sequenceCurrents(f.Kind, complex(c, 0), s.zff, open, zf)
+	return s, nil
+}
+
+// selfImpedance returns the Thevenin impedance of the fault node in
+// sequence q.
+func (s *Solution) selfImpedance(q int) complex128 {
+	sn := s.e.cases[s.fault.Case][q]
+	if s.p == 0 {
+		return sn.z(s.i, s.i)
+	}
+	p := complex(s.p, 0)
+	zl := sn.series[s.fault.Place.Branch]
+	return (1-p)*(1-p)*sn.z(s.i, s.i) + p*p*sn.z(s.j, s.j) + 2*p*(1-p)*sn.z(s.i, s.j) + p*(1-p)*zl
+}
+
+// transfer returns Z_xf, the transfer impedance from bus x to the fault
+// node, in sequence q.
+func (s *Solution) transfer(q, x int) complex128 {
+	sn := s.e.cases[s.fault.Case][q]
+	if s.p == 0 {
+		return sn.z(x, s.i)
+	}
+	p := complex(s.p, 0)
+	return (1-p)*sn.z(x, s.i) + p*sn.z(x, s.j)
+}
+
+// sequenceCurrents returns I0, I1, I2 at the fault for driving voltage e,
+// Thevenin impedances z (open[q]: no path in that sequence) and fault
+// impedance zf, all per unit.
+func sequenceCurrents(k Kind, e complex128, z [3]complex128, open [3]bool, zf complex128) [3]complex128 {
+	var i [3]complex128
+	if open[pos] || open[neg] {
+		return i
+	}
+	switch k {
+	case LLL:
+		i[pos] = e / (z[pos] + zf)
+	case LL:
+		i[pos] = e / (z[pos] + z[neg] + zf)
+		i[neg] = -i[pos]
+	case LG:
+		if open[zero] {
+			return i
+		}
+		i[pos] = e / (z[pos] + z[neg] + z[zero] + 3*zf)
+		i[neg], i[zero] = i[pos], i[pos]
+	case LLG:
+		if open[zero] {
+			i[pos] = e / (z[pos] + z[neg])
+			i[neg] = -i[pos]
+			return i
+		}
+		z0 := z[zero] + 3*zf
+		i[pos] = e / (z[pos] + z[neg]*z0/(z[neg]+z0))
+		i[neg] = -i[pos] * z0 / (z[neg] + z0)
+		i[zero] = -i[pos] * z[neg] / (z[neg] + z0)
+	}
+	return i
+}
+
+// Fault returns the fault that was solved.
+func (s Solution) Fault() Fault { return s.fault }
+
+// Energised reports whether the faulted place is fed in the fault's case;
+// when it is not, every current is zero.
+func (s Solution) Energised() bool { return s.live }
+
+// FaultBus returns the bus whose zone, voltage and phase labels the fault
+// uses (the faulted bus, or the branch end of a close-in fault, or the From
+// bus of a line).
+func (s Solution) FaultBus() int { return s.fbus }
+
+// FaultCurrents returns the currents flowing into the fault, in amperes at
+// the fault's voltage.
+func (s Solution) FaultCurrents() Currents {
+	var c Currents
+	ib := complex(s.e.ibase[s.fbus], 0)
+	for q := range c.Seq {
+		c.Seq[q] = s.iseq[q] * ib
+	}
+	return c
+}
+
+// At returns the currents at measuring point pt, positive from the point's
+// bus into its branch, in amperes at the point's voltage and in the
+// point's phase frame.
+func (s Solution) At(pt Point) Currents {
+	var c Currents
+	if !s.live {
+		return c
+	}
+	n := s.e.net
+	from, to := n.BranchEnds(pt.Branch)
+	bus := from
+	if pt.End == To {
+		bus = to
+	}
+	nets := &s.e.cases[s.fault.Case]
+	for q := range nets {
+		if s.iseq[q] == 0 {
+			continue
+		}
+		c.Seq[q] = s.branchCurrent(q, pt, from, to)
+	}
+	// Rotate from the fault's frame to the point's frame: positive
+	// sequence by the zone shift between them, negative by its opposite.
+	r := s.e.rot[bus] * cmplx.Conj(s.e.rot[s.fbus])
+	ib := complex(s.e.ibase[bus], 0)
+	c.Seq[zero] *= ib
+	c.Seq[pos] *= r * ib
+	c.Seq[neg] *= cmplx.Conj(r) * ib
+	return c
+}
+
+// branchCurrent returns the per-unit current of sequence q flowing from the
+// point's bus into branch pt.Branch, in the shift-free frame.
+func (s *Solution) branchCurrent(q int, pt Point, from, to int) complex128 {
+	sn := s.e.cases[s.fault.Case][q]
+	if sn.row[from] < 0 && sn.row[to] < 0 {
+		return 0
+	}
+	ifault := s.iseq[q]
+	dv := func(x int) complex128 {
+		if sn.row[x] < 0 {
+			return 0
+		}
+		return -s.transfer(q, x) * ifault
+	}
+	vf, vt := dv(from), dv(to)
+	blk := sn.branch[pt.Branch]
+	intoFrom := blk.ff*vf + blk.ft*vt
+	intoTo := blk.ft*vf + blk.tt*vt
+	pl := s.fault.Place
+	if pl.Branch != pt.Branch {
+		if pt.End == From {
+			return intoFrom
+		}
+		return intoTo
+	}
+	switch {
+	case pl.Frac == 0: // close-in at the From terminal: the fault node sits between the From CT and the branch
+		if pt.End == From {
+			return ifault + intoFrom
+		}
+		return intoTo
+	case pl.Frac == 1:
+		if pt.End == To {
+			return ifault + intoTo
+		}
+		return intoFrom
+	}
+	// Interior of a line: two sections i–f (p·z) and f–j ((1−p)·z). Take
+	// the longer section's current from its voltage drop and the shorter
+	// one's from Kirchhoff's current law at the fault node, so neither
+	// divides by a small impedance.
+	z := sn.series[pt.Branch]
+	if z == 0 {
+		return 0
+	}
+	vfault := -s.zff[q] * ifault
+	p := complex(pl.Frac, 0)
+	var fromSide, toSide complex128 // currents into the fault node from each end
+	if pl.Frac >= 0.5 {
+		fromSide = (vf - vfault) / (p * z)
+		toSide = ifault - fromSide
+	} else {
+		toSide = (vt - vfault) / ((1 - p) * z)
+		fromSide = ifault - toSide
+	}
+	if pt.End == From {
+		return fromSide
+	}
+	return toSide
+}

@@ -1,0 +1,196 @@
+package faults
+
+import (
+	"runtime"
+	"sync"
+	"sync/atomic"
+)
+
+// Extreme is the largest or smallest current found over a set of faults,
+// with the fault that produced it.
+type Extreme struct {
+	A     float64
+	Fault Fault
+	Found bool // false when no fault of the set drives any current
+}
+
+func (x *Extreme) offer(a float64, f Fault, larger bool) {
+	if !x.Found || (larger && a > x.A) || (!larger && a < x.A) {
+		*x = Extreme{A: a, Fault: f, Found: true}
+	}
+}
+
+// PointSummary gives the extreme currents at a measuring point over the
+// faults of its reach (see Engine.Reach).
+type PointSummary struct {
+	Point Point
+	// PhaseMax: the largest phase current, maximum case, any fault kind.
+	PhaseMax Extreme
+	// PhaseMin: the smallest phase current, minimum case, LLL and LL
+	// faults (the faults a phase element must detect).
+	PhaseMin Extreme
+	// ResidualMax: the largest residual current 3I0, maximum case, LG and
+	// LLG faults.
+	ResidualMax Extreme
+	// ResidualMin: the smallest non-zero residual current, minimum case
+	// (with the Settings' fault resistance), LG and LLG faults. Faults that
+	// drive no residual current through the point (an earth fault beyond a
+	// delta winding) are left out; Found is false when none drives any.
+	ResidualMin Extreme
+}
+
+// Reach returns the fault places a measuring point's figures are taken
+// over: close-in just beyond the point, the line positions of the
+// Settings along its own branch, and the bus at the far end (where the
+// next branches start, so a fault close-in on any of them gives the point
+// the same current).
+func (e *Engine) Reach(pt Point) []Place {
+	n := e.net
+	from, to := n.BranchEnds(pt.Branch)
+	near, far := 0.0, to
+	if pt.End == To {
+		near, far = 1, from
+	}
+	places := []Place{OnBranch(pt.Branch, near)}
+	if !n.IsTransformer(pt.Branch) {
+		fr := e.set.LineFractions
+		if fr == nil {
+			fr = []float64{0.5}
+		}
+		for _, f := range fr {
+			places = append(places, OnBranch(pt.Branch, f))
+		}
+	}
+	return append(places, AtBus(far))
+}
+
+// residualFloorPU is the per-unit residual current below which a fault is
+// taken to drive no residual current through a point. Residual currents
+// that a zero-sequence path cannot carry come out exactly zero; the floor
+// only guards against rounding residue.
+const residualFloorPU = 1e-9
+
+// SummarisePoint solves every fault of the point's reach in both cases.
+func (e *Engine) SummarisePoint(pt Point) (PointSummary, error) {
+	s := PointSummary{Point: pt}
+	from, to := e.net.BranchEnds(pt.Branch)
+	bus := from
+	if pt.End == To {
+		bus = to
+	}
+	floor := residualFloorPU * e.ibase[bus]
+	for _, pl := range e.Reach(pt) {
+		for _, cs := range Cases {
+			for _, k := range Kinds {
+				sol, err := e.Solve(e.CaseFault(pl, k, cs))
+				if err != nil {
+					return s, err
+				}
+				if !sol.Energised() {
+					continue
+				}
+				c := sol.At(pt)
+				f := sol.Fault()
+				switch {
+				case cs == Max:
+					s.PhaseMax.offer(c.PhaseMaxA(), f, true)
+					if k.Earth() {
+						s.ResidualMax.offer(c.ResidualA(), f, true)
+					}
+				case k.Earth():
+					if r := c.ResidualA(); r > floor {
+						s.ResidualMin.offer(r, f, false)
+					}
+				default:
+					s.PhaseMin.offer(c.PhaseMaxA(), f, false)
+				}
+			}
+		}
+	}
+	if s.ResidualMax.Found && s.ResidualMax.A <= floor {
+		s.ResidualMax.Found = false
+	}
+	return s, nil
+}
+
+// BusFault is the current into one bolted or resistive fault at a bus.
+type BusFault struct {
+	PhaseA float64 // largest phase current into the fault
+	EarthA float64 // current to earth, |3I0|
+}
+
+// BusSummary holds the four fault kinds at one bus in both cases, indexed
+// [case][kind].
+type BusSummary struct {
+	Bus    int
+	Faults [2][4]BusFault
+}
+
+// SummariseBus solves the four fault kinds at bus k in both cases.
+func (e *Engine) SummariseBus(k int) (BusSummary, error) {
+	s := BusSummary{Bus: k}
+	for _, cs := range Cases {
+		for _, kind := range Kinds {
+			sol, err := e.Solve(e.CaseFault(AtBus(k), kind, cs))
+			if err != nil {
+				return s, err
+			}
+			c := sol.FaultCurrents()
+			s.Faults[cs][kind] = BusFault{PhaseA: c.PhaseMaxA(), EarthA: c.ResidualA()}
+		}
+	}
+	return s, nil
+}
+
+// AllBuses summarises every bus, using every CPU. The result is in bus
+// order and does not depend on scheduling.
+func (e *Engine) AllBuses() ([]BusSummary, error) {
+	out := make([]BusSummary, len(e.net.Buses))
+	err := parallel(len(out), func(i int) (err error) {
+		out[i], err = e.SummariseBus(i)
+		return err
+	})
+	return out, err
+}
+
+// AllPoints summarises the given measuring points, using every CPU.
+func (e *Engine) AllPoints(pts []Point) ([]PointSummary, error) {
+	out := make([]PointSummary, len(pts))
+	err := parallel(len(out), func(i int) (err error) {
+		out[i], err = e.SummarisePoint(pts[i])
+		return err
+	})
+	return out, err
+}
+
+// parallel runs job(0..n−1) on GOMAXPROCS workers and returns the error of
+// the lowest-numbered failing job.
+func parallel(n int, job func(i int) error) error {
+	workers := runtime.GOMAXPROCS(0)
+	if workers > n {
+		workers = n
+	}
+	errs := make([]error, n)
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	for w := 0; w < workers; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for {
+				i := int(next.Add(1) - 1)
+				if i >= n {
+					return
+				}
+				errs[i] = job(i)
+			}
+		}()
+	}
+	wg.Wait()
+	for _, err := range errs {
+		if err != nil {
+			return err
+		}
+	}
+	return nil
+}

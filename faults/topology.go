@@ -1,0 +1,179 @@
+package faults
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+)
+
+// IslandError reports buses that no source can feed.
+type IslandError struct {
+	Buses []string // names of the buses of the island, sorted
+}
+
+func (e *IslandError) Error() string {
+	list := e.Buses
+	more := ""
+	if len(list) > 8 {
+		list, more = list[:8], fmt.Sprintf(" and %d more", len(e.Buses)-8)
+	}
+	return fmt.Sprintf("island with no source: bus %s%s is not connected to any source or generator",
+		strings.Join(quoteAll(list), ", "), more)
+}
+
+// ShiftLoopError reports transformers whose phase shifts disagree around a
+// loop (for example a Dyn11 in parallel with a Dyn1).
+type ShiftLoopError struct {
+	Branch   string  // the branch that closes the loop
+	Bus      string  // where the two routes meet
+	Mismatch float64 // degrees between the two routes' phase shifts
+}
+
+func (e *ShiftLoopError) Error() string {
+	return fmt.Sprintf("branch %q closes a loop whose transformer phase shifts disagree by %.0f° at bus %q; transformers in parallel must have the same clock number",
+		e.Branch, e.Mismatch, e.Bus)
+}
+
+func quoteAll(s []string) []string {
+	q := make([]string, len(s))
+	for i, v := range s {
+		q[i] = fmt.Sprintf("%q", v)
+	}
+	return q
+}
+
+// branchShiftDeg returns the positive-sequence angle added going from the
+// From bus to the To bus of transformer t.
+func branchShiftDeg(t *Transformer) float64 {
+	lvShift := t.Group.ShiftDeg()
+	if t.KVFrom >= t.KVTo {
+		return lvShift // From is the HV side
+	}
+	return -lvShift
+}
+
+// ZoneAngles assigns every bus the positive-sequence phase shift of its
+// zone in degrees, relative to the first bus of its connected part, and
+// returns a *ShiftLoopError when transformers around a loop disagree.
+func (n *Network) ZoneAngles() ([]float64, error) {
+	nb := len(n.Buses)
+	type edge struct {
+		to, branch int
+		deg        float64
+	}
+	adj := make([][]edge, nb)
+	for b := 0; b < n.BranchCount(); b++ {
+		f, t := n.BranchEnds(b)
+		d := 0.0
+		if n.IsTransformer(b) {
+			d = branchShiftDeg(n.Transformer(b))
+		}
+		adj[f] = append(adj[f], edge{t, b, d})
+		adj[t] = append(adj[t], edge{f, b, -d})
+	}
+	angle := make([]float64, nb)
+	seen := make([]bool, nb)
+	queue := make([]int, 0, nb)
+	for start := 0; start < nb; start++ {
+		if seen[start] {
+			continue
+		}
+		seen[start] = true
+		queue = append(queue[:0], start)
+		for len(queue) > 0 {
+			u := queue[0]
+			queue = queue[1:]
+			for _, e := range adj[u] {
+				want := angle[u] + e.deg
+				if !seen[e.to] {
+					seen[e.to] = true
+					angle[e.to] = normDeg(want)
+					queue = append(queue, e.to)
+					continue
+				}
+				if diff := math.Abs(normDeg(want - angle[e.to])); diff > 1e-6 {
+					return nil, &ShiftLoopError{Branch: n.BranchName(e.branch), Bus: n.Buses[e.to].Name, Mismatch: diff}
+				}
+			}
+		}
+	}
+	return angle, nil
+}
+
+// normDeg maps an angle to (−180°, 180°].
+func normDeg(d float64) float64 {
+	d = math.Mod(d, 360)
+	if d <= -180 {
+		d += 360
+	} else if d > 180 {
+		d -= 360
+	}
+	return d
+}
+
+// components labels the parts of a network connected through series
+// admittances: link[b] says whether branch b joins its two ends. It returns
+// a component label per bus.
+func components(n *Network, link func(b int) bool) []int {
+	parent := make([]int, len(n.Buses))
+	for i := range parent {
+		parent[i] = i
+	}
+	var find func(int) int
+	find = func(x int) int {
+		for parent[x] != x {
+			parent[x] = parent[parent[x]]
+			x = parent[x]
+		}
+		return x
+	}
+	for b := 0; b < n.BranchCount(); b++ {
+		if !link(b) {
+			continue
+		}
+		f, t := n.BranchEnds(b)
+		rf, rt := find(f), find(t)
+		if rf != rt {
+			if rf < rt {
+				parent[rt] = rf
+			} else {
+				parent[rf] = rt
+			}
+		}
+	}
+	label := make([]int, len(parent))
+	for i := range label {
+		label[i] = find(i)
+	}
+	return label
+}
+
+// Islands returns, for every connected part of the network (through all
+// branches) that has no source and no generator, the sorted names of its
+// buses. The parts are ordered by their first bus name.
+func (n *Network) Islands() [][]string {
+	label := components(n, func(int) bool { return true })
+	fed := make(map[int]bool)
+	for _, s := range n.Sources {
+		fed[label[s.Bus]] = true
+	}
+	for _, g := range n.Generators {
+		if g.InMax || g.InMin {
+			fed[label[g.Bus]] = true
+		}
+	}
+	unfed := make(map[int][]string)
+	for i, l := range label {
+		if !fed[l] {
+			unfed[l] = append(unfed[l], n.Buses[i].Name)
+		}
+	}
+	out := make([][]string, 0, len(unfed))
+	for _, names := range unfed {
+		sort.Strings(names)
+		out = append(out, names)
+	}
+	sort.Slice(out, func(i, j int) bool { return out[i][0] < out[j][0] })
+	return out
+}
