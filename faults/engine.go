@@ -29,6 +29,7 @@ type seqNet struct {
 	*seqData
 	row   []int32 // bus → matrix row; −1: no path to the reference in this sequence
 	fac   *sparse.Factor
+	diag  []complex128 // Z_kk by matrix row
 	paths []atomic.Pointer[sparse.Path]
 	ws    sync.Pool
 }
@@ -181,6 +182,8 @@ func factorSeq(n *Network, d *seqData) (*seqNet, error) {
 		return nil, err
 	}
 	sn.fac = fac
+	sn.diag = make([]complex128, m)
+	fac.Diagonal(sn.diag)
 	sn.ws.New = func() any { return fac.NewWorkspace() }
 	return sn, nil
 }
@@ -204,6 +207,12 @@ func (s *seqNet) path(k int) *sparse.Path {
 
 // z returns the bus impedance matrix entry Z_ab in per unit.
 func (s *seqNet) z(a, b int) complex128 {
+	if a == b {
+		if r := s.row[a]; r >= 0 {
+			return s.diag[r]
+		}
+		return 0
+	}
 	pa := s.path(a)
 	if pa == nil {
 		return 0

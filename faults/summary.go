@@ -20,8 +20,8 @@ func (x *Extreme) offer(a float64, f Fault, larger bool) {
 	}
 }
 
-// PointSummary gives the extreme currents at a measuring point over the
-// faults of its reach (see Engine.Reach).
+// PointSummary gives the extreme currents at a measuring point over a set
+// of fault places.
 type PointSummary struct {
 	Point Point
 	// PhaseMax: the largest phase current, maximum case, any fault kind.
@@ -70,8 +70,9 @@ func (e *Engine) Reach(pt Point) []Place {
 // only guards against rounding residue.
 const residualFloorPU = 1e-9
 
-// SummarisePoint solves every fault of the point's reach in both cases.
-func (e *Engine) SummarisePoint(pt Point) (PointSummary, error) {
+// SummarisePoint solves every fault kind at every place in both cases and
+// keeps the extremes seen at pt.
+func (e *Engine) SummarisePoint(pt Point, places []Place) (PointSummary, error) {
 	s := PointSummary{Point: pt}
 	from, to := e.net.BranchEnds(pt.Branch)
 	bus := from
@@ -79,7 +80,7 @@ func (e *Engine) SummarisePoint(pt Point) (PointSummary, error) {
 		bus = to
 	}
 	floor := residualFloorPU * e.ibase[bus]
-	for _, pl := range e.Reach(pt) {
+	for _, pl := range places {
 		for _, cs := range Cases {
 			for _, k := range Kinds {
 				sol, err := e.Solve(e.CaseFault(pl, k, cs))
@@ -153,11 +154,15 @@ func (e *Engine) AllBuses() ([]BusSummary, error) {
 	return out, err
 }
 
-// AllPoints summarises the given measuring points, using every CPU.
-func (e *Engine) AllPoints(pts []Point) ([]PointSummary, error) {
+// AllPoints summarises measuring points over the places that places(i)
+// gives for pts[i] (Engine.Reach when places is nil), using every CPU.
+func (e *Engine) AllPoints(pts []Point, places func(i int) []Place) ([]PointSummary, error) {
+	if places == nil {
+		places = func(i int) []Place { return e.Reach(pts[i]) }
+	}
 	out := make([]PointSummary, len(pts))
 	err := parallel(len(out), func(i int) (err error) {
-		out[i], err = e.SummarisePoint(pts[i])
+		out[i], err = e.SummarisePoint(pts[i], places(i))
 		return err
 	})
 	return out, err
