@@ -11,12 +11,13 @@ import (
 type Extreme struct {
 	A     float64
 	Fault Fault
-	Found bool // false when no fault of the set drives any current
+	At    Currents // the point's currents for that fault
+	Found bool     // false when no fault of the set drives any current
 }
 
-func (x *Extreme) offer(a float64, f Fault, larger bool) {
+func (x *Extreme) offer(a float64, f Fault, at Currents, larger bool) {
 	if !x.Found || (larger && a > x.A) || (!larger && a < x.A) {
-		*x = Extreme{A: a, Fault: f, Found: true}
+		*x = Extreme{A: a, Fault: f, At: at, Found: true}
 	}
 }
 
@@ -94,16 +95,16 @@ func (e *Engine) SummarisePoint(pt Point, places []Place) (PointSummary, error) 
 				f := sol.Fault()
 				switch {
 				case cs == Max:
-					s.PhaseMax.offer(c.PhaseMaxA(), f, true)
+					s.PhaseMax.offer(c.PhaseMaxA(), f, c, true)
 					if k.Earth() {
-						s.ResidualMax.offer(c.ResidualA(), f, true)
+						s.ResidualMax.offer(c.ResidualA(), f, c, true)
 					}
 				case k.Earth():
 					if r := c.ResidualA(); r > floor {
-						s.ResidualMin.offer(r, f, false)
+						s.ResidualMin.offer(r, f, c, false)
 					}
 				default:
-					s.PhaseMin.offer(c.PhaseMaxA(), f, false)
+					s.PhaseMin.offer(c.PhaseMaxA(), f, c, false)
 				}
 			}
 		}

@@ -31,7 +31,8 @@ type command struct {
 
 func commands() map[string]command {
 	return map[string]command{
-		"curve": {"operating time of one characteristic at given currents", runCurve},
+		"curve":  {"operating time of one characteristic at given currents", runCurve},
+		"faults": {"fault currents at every device and bus of a study", runFaults},
 	}
 }
 

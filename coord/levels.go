@@ -1,0 +1,77 @@
+package coord
+
+import (
+	"fmt"
+
+	"tripgrade/faults"
+)
+
+// Places returns every fault place of a zone: the close-in fault beyond
+// the device, each bus inside, both terminals and the Settings' interior
+// positions of each branch inside, and the far-end places, without
+// repeats and in a fixed order.
+func (t *Topology) Places(z Zone, n *faults.Network, set faults.Settings) []faults.Place {
+	seen := map[faults.Place]bool{}
+	var out []faults.Place
+	add := func(p faults.Place) {
+		if !seen[p] {
+			seen[p] = true
+			out = append(out, p)
+		}
+	}
+	add(z.Start)
+	fr := set.LineFractions
+	if fr == nil {
+		fr = []float64{0.5}
+	}
+	for _, b := range z.Branches {
+		up := otherEnd(t.Downstream[b])
+		add(closeIn(b, up))
+		if !n.IsTransformer(b) {
+			for _, f := range fr {
+				if up == faults.To {
+					f = 1 - f
+				}
+				add(faults.OnBranch(b, f))
+			}
+		}
+		add(closeIn(b, t.Downstream[b]))
+	}
+	for _, bus := range z.Buses {
+		add(faults.AtBus(bus))
+	}
+	for _, p := range z.FarEnd {
+		add(p)
+	}
+	return out
+}
+
+// FaultLevels summarises the currents every device sees over the faults of
+// its own zone, both cases, every fault kind.
+func FaultLevels(s *Study, eng *faults.Engine, t *Topology) ([]faults.PointSummary, error) {
+	pts := make([]faults.Point, len(s.Devices))
+	for i, d := range s.Devices {
+		pts[i] = d.Point
+	}
+	return eng.AllPoints(pts, func(i int) []faults.Place {
+		return t.Places(t.Zones[i], s.Network, s.Faults)
+	})
+}
+
+// PlaceName describes a fault place for reports: a bus name, "F1-OHL 50 %"
+// for a point along a line (measured from its From end), "T1, KP-11 end"
+// for a fault just inside a branch at one of its terminals.
+func PlaceName(n *faults.Network, p faults.Place) string {
+	if p.IsBus() {
+		return n.Buses[p.Bus].Name
+	}
+	name := n.BranchName(p.Branch)
+	from, to := n.BranchEnds(p.Branch)
+	switch p.Frac {
+	case 0:
+		return name + ", " + n.Buses[from].Name + " end"
+	case 1:
+		return name + ", " + n.Buses[to].Name + " end"
+	}
+	return fmt.Sprintf("%s %.0f %%", name, p.Frac*100)
+}

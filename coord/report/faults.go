@@ -1,0 +1,301 @@
+package report
+
+import (
+	"encoding/csv"
+	"encoding/json"
+	"fmt"
+	"io"
+	"math"
+	"math/cmplx"
+	"strings"
+	"text/tabwriter"
+
+	"tripgrade/coord"
+	"tripgrade/faults"
+)
+
+// FaultTables is the fault study of a network: what each device sees over
+// its own zone, and the four fault kinds at each bus.
+type FaultTables struct {
+	Study  string
+	Cases  []string // one line per case, saying what it assumes
+	Points []PointRow
+	Buses  []BusRow
+}
+
+// PointRow is one device's currents.
+type PointRow struct {
+	Device, Kind, Branch, At string
+	KV                       float64
+	PhaseMax, PhaseMin       Figure
+	GroundMax, GroundMin     Figure
+}
+
+// Figure is a current with the fault behind it.
+type Figure struct {
+	A     float64
+	Found bool
+	Fault string // fault kind
+	Case  string
+	Place string
+	// At are the device's sequence currents for that fault.
+	At faults.Currents
+}
+
+// BusRow is the fault currents at one bus: [case][kind], phase current
+// into the fault and earth current.
+type BusRow struct {
+	Bus    string
+	KV     float64
+	Faults [2][4]faults.BusFault
+}
+
+// NewFaultTables gathers the figures of a study's fault calculation.
+func NewFaultTables(s *coord.Study, levels []faults.PointSummary, buses []faults.BusSummary) *FaultTables {
+	n := s.Network
+	t := &FaultTables{Study: s.Name, Cases: CaseLines(s)}
+	fig := func(x faults.Extreme) Figure {
+		if !x.Found {
+			return Figure{}
+		}
+		return Figure{A: x.A, Found: true, Fault: x.Fault.Kind.String(), Case: x.Fault.Case.String(),
+			Place: coord.PlaceName(n, x.Fault.Place), At: x.At}
+	}
+	for i, d := range s.Devices {
+		lv := levels[i]
+		bus := coord.DeviceBus(n, d)
+		t.Points = append(t.Points, PointRow{
+			Device: d.Name, Kind: d.Kind.String(), Branch: n.BranchName(d.Point.Branch), At: n.Buses[bus].Name,
+			KV:       n.Buses[bus].KV,
+			PhaseMax: fig(lv.PhaseMax), PhaseMin: fig(lv.PhaseMin),
+			GroundMax: fig(lv.ResidualMax), GroundMin: fig(lv.ResidualMin),
+		})
+	}
+	for _, b := range buses {
+		t.Buses = append(t.Buses, BusRow{Bus: n.Buses[b.Bus].Name, KV: n.Buses[b.Bus].KV, Faults: b.Faults})
+	}
+	return t
+}
+
+// CaseLines describes the two cases of a study in words.
+func CaseLines(s *coord.Study) []string {
+	f := s.Faults
+	lv := "1.05"
+	lvMin := "0.95"
+	if f.LVTolerance10 {
+		lv, lvMin = "1.10", "0.90"
+	}
+	heat := "conductors at 20 °C"
+	if f.EndTempC > 0 {
+		heat = fmt.Sprintf("line resistance at %g °C", f.EndTempC)
+	}
+	return []string{
+		fmt.Sprintf("maximum case: c_max 1.10 above 1 kV, %s up to 1 kV (IEC 60909-0 Table 1); maximum source strength; generators in service; K_T and K_G corrections; bolted faults", lv),
+		fmt.Sprintf("minimum case: c_min 1.00 above 1 kV, %s up to 1 kV; minimum source strength; only generators marked always_running; %s; earth-fault resistance %g Ω above 1 kV, %g Ω up to 1 kV; phase-fault resistance %g Ω",
+			lvMin, heat, f.EarthFaultOhm, f.EarthFaultOhmLV, f.PhaseFaultOhm),
+	}
+}
+
+// amps formats a current for a table: whole amperes from 100 A up, one
+// decimal below.
+func amps(a float64) string {
+	if a >= 100 {
+		return fmt.Sprintf("%.0f", a)
+	}
+	return fmt.Sprintf("%.1f", a)
+}
+
+func (f Figure) text(none string) (string, string) {
+	if !f.Found {
+		return "-", none
+	}
+	return amps(f.A), f.Fault + " @ " + f.Place
+}
+
+// WriteText writes the tables aligned for a terminal.
+func (t *FaultTables) WriteText(w io.Writer) error {
+	ew := &errWriter{w: w}
+	fmt.Fprintf(ew, "tripgrade fault study: %s\n", t.Study)
+	for _, c := range t.Cases {
+		fmt.Fprintf(ew, "  %s\n", c)
+	}
+	fmt.Fprintf(ew, "\nCurrents each device sees for faults in its own zone (primary A; ground = residual 3I0)\n")
+	tw := tabwriter.NewWriter(ew, 0, 0, 2, ' ', 0)
+	fmt.Fprintln(tw, "device\tbranch\tat\tkV\tphase max\tfault\tphase min\tfault\tground max\tfault\tground min\tfault")
+	for _, p := range t.Points {
+		pmax, pmaxF := p.PhaseMax.text("no fault current")
+		pmin, pminF := p.PhaseMin.text("no fault current")
+		gmax, gmaxF := p.GroundMax.text("no earth-fault current")
+		gmin, gminF := p.GroundMin.text("no earth-fault current")
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%g\t%s\t%s\t%s\t%s\t%s\t%s\t%s\t%s\n",
+			p.Device, p.Branch, p.At, p.KV, pmax, pmaxF, pmin, pminF, gmax, gmaxF, gmin, gminF)
+	}
+	tw.Flush()
+	fmt.Fprintf(ew, "\nFault currents at each bus (A into the fault; LLG: earth current 3I0)\n")
+	tw = tabwriter.NewWriter(ew, 0, 0, 2, ' ', tabwriter.AlignRight)
+	fmt.Fprintln(tw, "bus\tkV\tLLL max\tLL max\tLG max\tLLG max\tLLL min\tLL min\tLG min\tLLG min\t")
+	for _, b := range t.Buses {
+		fmt.Fprintf(tw, "%s\t%g\t", b.Bus, b.KV)
+		for _, cs := range faults.Cases {
+			for _, k := range faults.Kinds {
+				fmt.Fprintf(tw, "%s\t", amps(busFigure(b.Faults[cs][k], k)))
+			}
+		}
+		fmt.Fprintln(tw)
+	}
+	tw.Flush()
+	fmt.Fprintf(ew, "\n%s\n", Caution)
+	return ew.err
+}
+
+// busFigure is the figure a bus table shows for a fault kind: the phase
+// current, or for LLG the earth current.
+func busFigure(f faults.BusFault, k faults.Kind) float64 {
+	if k == faults.LLG {
+		return f.EarthA
+	}
+	return f.PhaseA
+}
+
+// WriteCSV writes the tables as one long CSV table, a row per figure:
+// table, name, kv, quantity, case, current_a, fault_kind, fault_place.
+func (t *FaultTables) WriteCSV(w io.Writer) error {
+	cw := csv.NewWriter(w)
+	cw.Write([]string{"table", "name", "kv", "quantity", "case", "current_a", "fault_kind", "fault_place"})
+	for _, p := range t.Points {
+		for _, q := range []struct {
+			name string
+			f    Figure
+		}{{"phase_max", p.PhaseMax}, {"phase_min", p.PhaseMin}, {"ground_max", p.GroundMax}, {"ground_min", p.GroundMin}} {
+			val := ""
+			if q.f.Found {
+				val = fmt.Sprintf("%.3f", q.f.A)
+			}
+			cw.Write([]string{"device", p.Device, fmt.Sprint(p.KV), q.name, q.f.Case, val, q.f.Fault, q.f.Place})
+		}
+	}
+	for _, b := range t.Buses {
+		for _, cs := range faults.Cases {
+			for _, k := range faults.Kinds {
+				f := b.Faults[cs][k]
+				cw.Write([]string{"bus", b.Bus, fmt.Sprint(b.KV), strings.ToLower(k.String()) + "_phase", cs.String(), fmt.Sprintf("%.3f", f.PhaseA), k.String(), b.Bus})
+				if k.Earth() {
+					cw.Write([]string{"bus", b.Bus, fmt.Sprint(b.KV), strings.ToLower(k.String()) + "_earth", cs.String(), fmt.Sprintf("%.3f", f.EarthA), k.String(), b.Bus})
+				}
+			}
+		}
+	}
+	cw.Flush()
+	return cw.Error()
+}
+
+type jsonFigure struct {
+	CurrentA  *float64     `json:"current_a"`
+	FaultKind string       `json:"fault_kind,omitempty"`
+	Case      string       `json:"case,omitempty"`
+	Place     string       `json:"place,omitempty"`
+	Phases    *jsonPhasors `json:"phases,omitempty"`
+}
+
+// jsonPhasors are a device's currents for one fault, magnitude and angle.
+type jsonPhasors struct {
+	IaA, IaDeg, IbA, IbDeg, IcA, IcDeg, ResidualA, ResidualDeg float64
+}
+
+func (p jsonPhasors) MarshalJSON() ([]byte, error) {
+	return json.Marshal(struct {
+		IaA         float64 `json:"ia_a"`
+		IaDeg       float64 `json:"ia_deg"`
+		IbA         float64 `json:"ib_a"`
+		IbDeg       float64 `json:"ib_deg"`
+		IcA         float64 `json:"ic_a"`
+		IcDeg       float64 `json:"ic_deg"`
+		ResidualA   float64 `json:"residual_a"`
+		ResidualDeg float64 `json:"residual_deg"`
+	}(p))
+}
+
+func (f Figure) json() jsonFigure {
+	if !f.Found {
+		return jsonFigure{}
+	}
+	a := f.A
+	ph := f.At.Phases()
+	polar := func(c complex128) (float64, float64) {
+		if cmplx.Abs(c) == 0 {
+			return 0, 0
+		}
+		return cmplx.Abs(c), cmplx.Phase(c) * 180 / math.Pi
+	}
+	var p jsonPhasors
+	p.IaA, p.IaDeg = polar(ph[0])
+	p.IbA, p.IbDeg = polar(ph[1])
+	p.IcA, p.IcDeg = polar(ph[2])
+	p.ResidualA, p.ResidualDeg = polar(f.At.Residual())
+	return jsonFigure{CurrentA: &a, FaultKind: f.Fault, Case: f.Case, Place: f.Place, Phases: &p}
+}
+
+type jsonBusCase struct {
+	LLLA      float64 `json:"lll_a"`
+	LLA       float64 `json:"ll_a"`
+	LGA       float64 `json:"lg_a"`
+	LLGPhaseA float64 `json:"llg_phase_a"`
+	LLGEarthA float64 `json:"llg_earth_a"`
+}
+
+// WriteJSON writes the tables as one JSON document.
+func (t *FaultTables) WriteJSON(w io.Writer) error {
+	type point struct {
+		Device    string     `json:"device"`
+		Kind      string     `json:"kind"`
+		Branch    string     `json:"branch"`
+		At        string     `json:"at"`
+		KV        float64    `json:"kv"`
+		PhaseMax  jsonFigure `json:"phase_max"`
+		PhaseMin  jsonFigure `json:"phase_min"`
+		GroundMax jsonFigure `json:"ground_max"`
+		GroundMin jsonFigure `json:"ground_min"`
+	}
+	type bus struct {
+		Bus string      `json:"bus"`
+		KV  float64     `json:"kv"`
+		Max jsonBusCase `json:"max"`
+		Min jsonBusCase `json:"min"`
+	}
+	doc := struct {
+		Study   string   `json:"study"`
+		Caution string   `json:"caution"`
+		Cases   []string `json:"cases"`
+		Devices []point  `json:"devices"`
+		Buses   []bus    `json:"buses"`
+	}{Study: t.Study, Caution: Caution, Cases: t.Cases, Devices: []point{}, Buses: []bus{}}
+	for _, p := range t.Points {
+		doc.Devices = append(doc.Devices, point{p.Device, p.Kind, p.Branch, p.At, p.KV,
+			p.PhaseMax.json(), p.PhaseMin.json(), p.GroundMax.json(), p.GroundMin.json()})
+	}
+	bc := func(f [4]faults.BusFault) jsonBusCase {
+		return jsonBusCase{f[faults.LLL].PhaseA, f[faults.LL].PhaseA, f[faults.LG].PhaseA, f[faults.LLG].PhaseA, f[faults.LLG].EarthA}
+	}
+	for _, b := range t.Buses {
+		doc.Buses = append(doc.Buses, bus{b.Bus, b.KV, bc(b.Faults[faults.Max]), bc(b.Faults[faults.Min])})
+	}
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	return enc.Encode(doc)
+}
+
+// errWriter remembers the first write error so that a table can be
+// written with plain Fprintf calls.
+type errWriter struct {
+	w   io.Writer
+	err error
+}
+
+func (e *errWriter) Write(p []byte) (int, error) {
+	if e.err != nil {
+		return 0, e.err
+	}
+	n, err := e.w.Write(p)
+	e.err = err
+	return n, err
+}

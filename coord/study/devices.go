@@ -1,0 +1,278 @@
+package study
+
+import (
+	"fmt"
+	"math"
+	"strconv"
+	"strings"
+
+	"tripgrade/coord"
+	"tripgrade/curves"
+	"tripgrade/faults"
+)
+
+// point resolves a device's branch and the end where it sits.
+func (b *builder) point(w where, branch, at string) (faults.Point, bool) {
+	if branch == "" {
+		b.fail(w, "branch", "branch is missing (the line or transformer the device looks into)")
+		return faults.Point{}, false
+	}
+	k, ok := b.branch[branch]
+	if !ok {
+		b.fail(w, "branch", "branch = %q: no line or transformer of that name%s", branch, b.closest(branch, b.branch))
+		return faults.Point{}, false
+	}
+	from, to := b.net.BranchEnds(k)
+	fromName, toName := b.net.Buses[from].Name, b.net.Buses[to].Name
+	switch at {
+	case "":
+		b.fail(w, "at", "at is missing: the bus at the device's end of %q (%q or %q)", branch, fromName, toName)
+	case fromName:
+		return faults.Point{Branch: k, End: faults.From}, true
+	case toName:
+		return faults.Point{Branch: k, End: faults.To}, true
+	default:
+		b.fail(w, "at", "at = %q is not an end of %q (its ends are %q and %q)", at, branch, fromName, toName)
+	}
+	return faults.Point{}, false
+}
+
+func (b *builder) buildRelays() {
+	for i, r := range b.raw.Relays {
+		path := fmt.Sprintf("relay[%d]", i)
+		w := where{path: path, element: fmt.Sprintf("relay %q", r.Name)}
+		b.named(w, r.Name, b.deviceSeen, "relay or fuse")
+		d := coord.Device{Name: r.Name, Kind: coord.Relay}
+		d.Point, _ = b.point(w, r.Branch, r.At)
+		d.CT = b.ct(w, r)
+		d.BreakerS = b.optional(w, "breaker_s", r.BreakerS, 0, 0, 1, false)
+		if r.AccuracyPct != nil || r.AccuracyMinS != nil {
+			d.Accuracy = curves.Accuracy{
+				ClassPct:  b.optional(w, "accuracy_class_pct", r.AccuracyPct, 0, 0, 50, true),
+				MinErrorS: b.optional(w, "accuracy_min_s", r.AccuracyMinS, 0, 0, 1, false),
+			}
+			if r.AccuracyPct == nil {
+				b.fail(w, "accuracy_min_s", "accuracy_min_s needs accuracy_class_pct too")
+			}
+		}
+		d.MaxLoadA = b.optional(w, "max_load_a", r.MaxLoadA, 0, 0, math.Inf(1), true)
+		for j, rs := range r.Stages {
+			sw := where{path: fmt.Sprintf("%s.stage[%d]", path, j), element: fmt.Sprintf("relay %q stage %d", r.Name, j+1)}
+			if st, ok := b.stage(sw, rs, d.CT); ok {
+				d.Stages = append(d.Stages, st)
+			}
+		}
+		b.st.Devices = append(b.st.Devices, d)
+		b.relayRaw = append(b.relayRaw, relayOrigin{device: len(b.st.Devices) - 1, where: w, tomlStages: len(r.Stages)})
+	}
+}
+
+// relayOrigin remembers where a relay came from, for the settings table
+// and the final "has no stages" check.
+type relayOrigin struct {
+	device     int
+	where      where
+	tomlStages int
+	csvStages  int
+}
+
+func (b *builder) ct(w where, r rawRelay) coord.CT {
+	ct := coord.CT{
+		PrimaryA:      b.positive(w, "ct_primary_a", r.CTPrimaryA),
+		SecondaryA:    b.positive(w, "ct_secondary_a", r.CTSecondaryA),
+		ThermalFactor: b.optional(w, "ct_thermal_factor", r.CTThermalFactor, 1, 1, 4, false),
+	}
+	if r.CTClass != "" {
+		v, err := parseCClass(r.CTClass)
+		if err != nil {
+			b.fail(w, "ct_class", "%v", err)
+		}
+		ct.CClassV = v
+		ct.BurdenOhm = b.positive(w, "ct_burden_ohm", r.CTBurdenOhm)
+	} else if r.CTBurdenOhm != nil {
+		b.fail(w, "ct_burden_ohm", "ct_burden_ohm needs ct_class (e.g. \"C200\") to be useful")
+	}
+	return ct
+}
+
+// parseCClass reads an IEEE C57.13 relaying accuracy class such as C200.
+func parseCClass(s string) (float64, error) {
+	t := strings.ToUpper(strings.TrimSpace(s))
+	if len(t) < 2 || (t[0] != 'C' && t[0] != 'K' && t[0] != 'T') {
+		return 0, fmt.Errorf("ct_class = %q: want an IEEE C57.13 class such as C100, C200, C400 or C800", s)
+	}
+	v, err := strconv.ParseFloat(t[1:], 64)
+	if err != nil || !(v > 0) {
+		return 0, fmt.Errorf("ct_class = %q: want an IEEE C57.13 class such as C100, C200, C400 or C800", s)
+	}
+	return v, nil
+}
+
+// stage converts one stage's settings.
+func (b *builder) stage(w where, r rawStage, ct coord.CT) (coord.Stage, bool) {
+	before := len(b.errs)
+	st := coord.Stage{Label: r.Label}
+	switch r.Measures {
+	case "phase":
+		st.Measures = coord.Phase
+	case "ground":
+		st.Measures = coord.Residual
+	case "":
+		b.fail(w, "measures", "measures is missing (phase or ground)")
+	default:
+		b.fail(w, "measures", "measures = %q: want phase or ground (ground measures the residual current 3I0)", r.Measures)
+	}
+	shape, err := curves.ParseShape(r.Curve)
+	if r.Curve == "" {
+		b.fail(w, "curve", "curve is missing")
+	} else if err != nil {
+		b.fail(w, "curve", "%v", err)
+	}
+	st.Shape = shape
+	ratio := ct.PrimaryA / ct.SecondaryA
+	switch {
+	case r.PickupA != nil && r.PickupSecondaryA != nil:
+		b.fail(w, "pickup_a", "give pickup_a (primary) or pickup_secondary_a, not both")
+	case r.PickupA != nil:
+		st.PickupA = b.positive(w, "pickup_a", r.PickupA)
+	case r.PickupSecondaryA != nil:
+		st.PickupA = b.positive(w, "pickup_secondary_a", r.PickupSecondaryA) * ratio
+	default:
+		b.fail(w, "pickup_a", "pickup is missing: give pickup_a (primary amperes) or pickup_secondary_a")
+	}
+	st.PickupRange = b.rangeOf(w, "pickup_range_a", r.PickupRangeA, 1)
+	if r.PickupRangeSecA != nil {
+		if r.PickupRangeA != nil {
+			b.fail(w, "pickup_range_secondary_a", "give pickup_range_a or pickup_range_secondary_a, not both")
+		}
+		st.PickupRange = b.rangeOf(w, "pickup_range_secondary_a", r.PickupRangeSecA, ratio)
+	}
+	st.MultiplierRange = b.rangeOf(w, "multiplier_range", r.MultiplierRange, 1)
+	if len(b.errs) > before || shape == 0 {
+		return st, false
+	}
+	st.Curve, st.Multiplier, st.DelayS = b.characteristic(w, r, shape, st.PickupA)
+	if st.Label == "" {
+		st.Label = defaultLabel(st)
+	}
+	return st, len(b.errs) == before
+}
+
+// characteristic checks which keys the shape takes, then builds the
+// stage's curve from them.
+func (b *builder) characteristic(w where, r rawStage, shape curves.Shape, pickupA float64) (curves.Characteristic, float64, float64) {
+	set := curves.StageSettings{Shape: shape, PickupA: pickupA}
+	before := len(b.errs)
+	if !shape.Dependent() {
+		b.notFor(w, shape, map[string]bool{"tms": r.TMS != nil, "td": r.TD != nil, "max_multiple": r.MaxMultiple != nil, "min_time_s": r.MinTimeS != nil})
+		b.noConstants(w, r, shape)
+		if shape == curves.ShapeDefinite && r.DelayS == nil {
+			b.fail(w, "delay_s", "a definite-time stage needs delay_s")
+		}
+		set.DelayS = b.optional(w, "delay_s", r.DelayS, 0, 0, 100, false)
+	} else {
+		if r.DelayS != nil {
+			b.fail(w, "delay_s", "delay_s is for definite and instantaneous stages; an inverse stage takes tms or td")
+		}
+		if shape.UserDefined() {
+			set.Law = b.userLaw(w, r, shape)
+		} else {
+			b.noConstants(w, r, shape)
+		}
+		switch {
+		case r.TMS != nil && r.TD != nil:
+			b.fail(w, "tms", "give tms or td, not both")
+		case r.TMS != nil:
+			set.Multiplier = b.positive(w, "tms", r.TMS)
+		case r.TD != nil:
+			set.Multiplier = b.positive(w, "td", r.TD)
+		default:
+			b.fail(w, "tms", "an inverse-time stage needs its time multiplier: tms (IEC) or td (IEEE)")
+		}
+		set.MaxMultiple = b.optional(w, "max_multiple", r.MaxMultiple, 0, 1, 1000, true)
+		set.MinTimeS = b.optional(w, "min_time_s", r.MinTimeS, 0, 0, 100, false)
+	}
+	if len(b.errs) > before {
+		return nil, 0, 0
+	}
+	c, err := curves.NewStage(set)
+	if err != nil {
+		b.fail(w, "curve", "%v", err)
+		return nil, 0, 0
+	}
+	return c, set.Multiplier, set.DelayS
+}
+
+// userLaw reads the constants of a user-defined inverse shape.
+func (b *builder) userLaw(w where, r rawStage, shape curves.Shape) curves.Law {
+	var law curves.Law
+	var err error
+	if shape == curves.ShapeIECUser {
+		if r.A != nil || r.B != nil || r.P != nil || r.TR != nil {
+			b.fail(w, "a", "%s takes the IEC constants k, alpha and c (a, b, p and tr are for ieee-user)", shape)
+		}
+		law, err = curves.IECLaw("iec-user", b.positive(w, "k", r.K), b.positive(w, "alpha", r.Alpha),
+			b.optional(w, "c", r.C, 0, 0, 100, false))
+	} else {
+		if r.K != nil || r.Alpha != nil || r.C != nil {
+			b.fail(w, "k", "%s takes the IEEE constants a, b, p and tr (k, alpha and c are for iec-user)", shape)
+		}
+		law, err = curves.IEEELaw("ieee-user", b.positive(w, "a", r.A), b.optional(w, "b", r.B, 0, 0, 100, false),
+			b.positive(w, "p", r.P), b.optional(w, "tr", r.TR, 0, 0, 1000, false))
+	}
+	if err != nil {
+		b.fail(w, "k", "%v", err)
+	}
+	return law
+}
+
+func (b *builder) noConstants(w where, r rawStage, shape curves.Shape) {
+	b.notFor(w, shape, map[string]bool{"k": r.K != nil, "alpha": r.Alpha != nil, "c": r.C != nil,
+		"a": r.A != nil, "b": r.B != nil, "p": r.P != nil, "tr": r.TR != nil})
+}
+
+// notFor reports keys given that the shape does not use.
+func (b *builder) notFor(w where, shape curves.Shape, given map[string]bool) {
+	for _, k := range []string{"tms", "td", "max_multiple", "min_time_s", "k", "alpha", "c", "a", "b", "p", "tr"} {
+		if given[k] {
+			b.fail(w, k, "%s does not apply to a %s stage", k, shape)
+		}
+	}
+}
+
+// rangeOf reads [min, max, step] (step optional), scaled by k.
+func (b *builder) rangeOf(w where, key string, v []float64, k float64) coord.Range {
+	if v == nil {
+		return coord.Range{}
+	}
+	if len(v) < 2 || len(v) > 3 {
+		b.fail(w, key, "%s must be [min, max] or [min, max, step]", key)
+		return coord.Range{}
+	}
+	r := coord.Range{Min: v[0] * k, Max: v[1] * k}
+	if len(v) == 3 {
+		r.Step = v[2] * k
+	}
+	if !(r.Min > 0) || r.Max < r.Min || r.Step < 0 {
+		b.fail(w, key, "%s = %v: want 0 < min ≤ max and step ≥ 0", key, v)
+		return coord.Range{}
+	}
+	return r
+}
+
+// defaultLabel gives a stage its IEEE C37.2 device number: 51 for an
+// inverse-time overcurrent stage, 51DT for a definite-time one, 50 for an
+// instantaneous stage, with N for a residual (ground) stage (51NDT).
+func defaultLabel(s coord.Stage) string {
+	l, suffix := "51", ""
+	switch s.Shape {
+	case curves.ShapeInstantaneous:
+		l = "50"
+	case curves.ShapeDefinite:
+		suffix = "DT"
+	}
+	if s.Measures == coord.Residual {
+		l += "N"
+	}
+	return l + suffix
+}

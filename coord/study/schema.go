@@ -1,0 +1,205 @@
+package study
+
+// The raw schema: what a study file may contain, field by field, before
+// any checking. Optional numbers are pointers so that "not given" and 0
+// differ. The `key` tags are the file's key names; README.md documents
+// them.
+
+type rawFile struct {
+	Study       rawStudy         `key:"study"`
+	Criteria    rawCriteria      `key:"criteria"`
+	Buses       []rawBus         `key:"bus"`
+	Sources     []rawSource      `key:"source"`
+	Generators  []rawGenerator   `key:"generator"`
+	Lines       []rawLine        `key:"line"`
+	Transformer []rawTransformer `key:"transformer"`
+	Earthings   []rawEarthing    `key:"earthing"`
+	Loads       []rawLoad        `key:"load"`
+	Relays      []rawRelay       `key:"relay"`
+	Fuses       []rawFuse        `key:"fuse"`
+	Pairs       []rawPair        `key:"pair"`
+}
+
+type rawStudy struct {
+	Name           string    `key:"name"`
+	FrequencyHz    *float64  `key:"frequency_hz"`
+	BaseMVA        *float64  `key:"base_mva"`
+	LVTolerancePct *float64  `key:"lv_tolerance_pct"`
+	EndTempC       *float64  `key:"conductor_end_temp_c"`
+	LinePositions  []float64 `key:"line_fault_positions"`
+	SettingsCSV    string    `key:"settings_csv"`
+}
+
+type rawCriteria struct {
+	MarginS             *float64 `key:"margin_s"`
+	MarginFuseS         *float64 `key:"margin_fuse_s"`
+	FuseMeltRatio       *float64 `key:"fuse_melt_ratio"`
+	OvertravelS         *float64 `key:"overtravel_s"`
+	SafetyS             *float64 `key:"safety_s"`
+	CTErrorPct          *float64 `key:"ct_error_pct"`
+	WorstCaseTimes      *bool    `key:"worst_case_times"`
+	SensitivityPrimary  *float64 `key:"sensitivity_primary"`
+	SensitivityBackup   *float64 `key:"sensitivity_backup"`
+	LoadFactor          *float64 `key:"load_factor"`
+	InstantaneousFactor *float64 `key:"instantaneous_factor"`
+	ShortDelayS         *float64 `key:"short_delay_s"`
+	FaultResistanceOhm  *float64 `key:"fault_resistance_ohm"`
+	LVFaultResistance   *float64 `key:"lv_fault_resistance_ohm"`
+	PhaseFaultOhm       *float64 `key:"phase_fault_resistance_ohm"`
+	InrushMultiple      *float64 `key:"inrush_multiple"`
+	InrushTimeS         *float64 `key:"inrush_time_s"`
+}
+
+type rawBus struct {
+	Name string   `key:"name"`
+	KV   *float64 `key:"kv"`
+}
+
+type rawSource struct {
+	Name     string   `key:"name"`
+	Bus      string   `key:"bus"`
+	SCMVAMax *float64 `key:"sc_mva_max"`
+	SCMVAMin *float64 `key:"sc_mva_min"`
+	XR       *float64 `key:"x_r"`
+	XRMin    *float64 `key:"x_r_min"`
+	R1OhmMax *float64 `key:"r1_ohm_max"`
+	X1OhmMax *float64 `key:"x1_ohm_max"`
+	R1OhmMin *float64 `key:"r1_ohm_min"`
+	X1OhmMin *float64 `key:"x1_ohm_min"`
+	Z0Z1     *float64 `key:"z0_z1"`
+	X0R0     *float64 `key:"x0_r0"`
+	R0OhmMax *float64 `key:"r0_ohm_max"`
+	X0OhmMax *float64 `key:"x0_ohm_max"`
+	R0OhmMin *float64 `key:"r0_ohm_min"`
+	X0OhmMin *float64 `key:"x0_ohm_min"`
+	Earthed  *bool    `key:"earthed"`
+}
+
+type rawGenerator struct {
+	Name          string   `key:"name"`
+	Bus           string   `key:"bus"`
+	MVA           *float64 `key:"mva"`
+	KV            *float64 `key:"kv"`
+	XdPct         *float64 `key:"xd_pct"`
+	X2Pct         *float64 `key:"x2_pct"`
+	X0Pct         *float64 `key:"x0_pct"`
+	RPct          *float64 `key:"r_pct"`
+	PF            *float64 `key:"pf"`
+	Earthed       *bool    `key:"earthed"`
+	NeutralOhm    *float64 `key:"neutral_ohm"`
+	NeutralXOhm   *float64 `key:"neutral_x_ohm"`
+	InMax         *bool    `key:"in_max_case"`
+	AlwaysRunning *bool    `key:"always_running"`
+}
+
+type rawLine struct {
+	Name       string   `key:"name"`
+	From       string   `key:"from"`
+	To         string   `key:"to"`
+	Type       string   `key:"type"`
+	LengthKM   *float64 `key:"length_km"`
+	R1OhmPerKM *float64 `key:"r1_ohm_per_km"`
+	X1OhmPerKM *float64 `key:"x1_ohm_per_km"`
+	R0OhmPerKM *float64 `key:"r0_ohm_per_km"`
+	X0OhmPerKM *float64 `key:"x0_ohm_per_km"`
+	R1Ohm      *float64 `key:"r1_ohm"`
+	X1Ohm      *float64 `key:"x1_ohm"`
+	R0Ohm      *float64 `key:"r0_ohm"`
+	X0Ohm      *float64 `key:"x0_ohm"`
+	EndTempC   *float64 `key:"end_temp_c"`
+	Conductor  string   `key:"conductor"`
+	Insulation string   `key:"insulation"`
+	SizeMM2    *float64 `key:"size_mm2"`
+}
+
+type rawTransformer struct {
+	Name           string   `key:"name"`
+	From           string   `key:"from"`
+	To             string   `key:"to"`
+	MVA            *float64 `key:"mva"`
+	KVFrom         *float64 `key:"kv_from"`
+	KVTo           *float64 `key:"kv_to"`
+	ZPct           *float64 `key:"z_pct"`
+	XR             *float64 `key:"x_r"`
+	Z0Pct          *float64 `key:"z0_pct"`
+	X0R0           *float64 `key:"x0_r0"`
+	VectorGroup    string   `key:"vector_group"`
+	NeutralOhmFrom *float64 `key:"neutral_ohm_from"`
+	NeutralXFrom   *float64 `key:"neutral_x_ohm_from"`
+	NeutralOhmTo   *float64 `key:"neutral_ohm_to"`
+	NeutralXTo     *float64 `key:"neutral_x_ohm_to"`
+	NoCorrection   *bool    `key:"no_kt_correction"`
+	Category       *float64 `key:"damage_category"`
+	FrequentFaults *bool    `key:"frequent_faults"`
+}
+
+type rawEarthing struct {
+	Name       string   `key:"name"`
+	Bus        string   `key:"bus"`
+	Kind       string   `key:"kind"`
+	R0Ohm      *float64 `key:"r0_ohm"`
+	X0Ohm      *float64 `key:"x0_ohm"`
+	NeutralOhm *float64 `key:"neutral_ohm"`
+	NeutralX   *float64 `key:"neutral_x_ohm"`
+}
+
+type rawLoad struct {
+	Name     string   `key:"name"`
+	Bus      string   `key:"bus"`
+	MVA      *float64 `key:"mva"`
+	CurrentA *float64 `key:"current_a"`
+}
+
+type rawRelay struct {
+	Name            string     `key:"name"`
+	Branch          string     `key:"branch"`
+	At              string     `key:"at"`
+	CTPrimaryA      *float64   `key:"ct_primary_a"`
+	CTSecondaryA    *float64   `key:"ct_secondary_a"`
+	CTThermalFactor *float64   `key:"ct_thermal_factor"`
+	CTClass         string     `key:"ct_class"`
+	CTBurdenOhm     *float64   `key:"ct_burden_ohm"`
+	BreakerS        *float64   `key:"breaker_s"`
+	AccuracyPct     *float64   `key:"accuracy_class_pct"`
+	AccuracyMinS    *float64   `key:"accuracy_min_s"`
+	MaxLoadA        *float64   `key:"max_load_a"`
+	Stages          []rawStage `key:"stage"`
+}
+
+type rawStage struct {
+	Label            string    `key:"label"`
+	Measures         string    `key:"measures"`
+	Curve            string    `key:"curve"`
+	PickupA          *float64  `key:"pickup_a"`
+	PickupSecondaryA *float64  `key:"pickup_secondary_a"`
+	TMS              *float64  `key:"tms"`
+	TD               *float64  `key:"td"`
+	DelayS           *float64  `key:"delay_s"`
+	MaxMultiple      *float64  `key:"max_multiple"`
+	MinTimeS         *float64  `key:"min_time_s"`
+	K                *float64  `key:"k"`
+	Alpha            *float64  `key:"alpha"`
+	C                *float64  `key:"c"`
+	A                *float64  `key:"a"`
+	B                *float64  `key:"b"`
+	P                *float64  `key:"p"`
+	TR               *float64  `key:"tr"`
+	PickupRangeA     []float64 `key:"pickup_range_a"`
+	PickupRangeSecA  []float64 `key:"pickup_range_secondary_a"`
+	MultiplierRange  []float64 `key:"multiplier_range"`
+}
+
+type rawFuse struct {
+	Name    string       `key:"name"`
+	Branch  string       `key:"branch"`
+	At      string       `key:"at"`
+	RatingA *float64     `key:"rating_a"`
+	Melt    [][2]float64 `key:"melt"`
+	Clear   [][2]float64 `key:"clear"`
+}
+
+type rawPair struct {
+	Upstream   string `key:"upstream"`
+	Downstream string `key:"downstream"`
+	Exclude    *bool  `key:"exclude"`
+}

@@ -1,0 +1,168 @@
+package study
+
+import (
+	"errors"
+	"fmt"
+	"io/fs"
+	"math"
+	"os"
+	"path/filepath"
+
+	"github.com/BurntSushi/toml"
+
+	"tripgrade/coord"
+	"tripgrade/faults"
+)
+
+// Load reads and checks the study file at path. Files it refers to (a
+// settings table) are read from the same folder. The error, when not nil,
+// is an ErrorList with every problem found, or the error of reading the
+// file.
+func Load(path string) (*coord.Study, error) {
+	src, err := os.ReadFile(path)
+	if err != nil {
+		return nil, err
+	}
+	return Parse(path, src, os.DirFS(filepath.Dir(path)))
+}
+
+// Parse checks a study given as text; name is used in messages and dir
+// resolves the files the study refers to (nil: it may refer to none).
+func Parse(name string, src []byte, dir fs.FS) (*coord.Study, error) {
+	var tree map[string]any
+	if _, err := toml.Decode(string(src), &tree); err != nil {
+		var pe toml.ParseError
+		if errors.As(err, &pe) {
+			return nil, ErrorList{{File: name, Line: pe.Position.Line, Msg: "not valid TOML: " + pe.Message}}
+		}
+		return nil, ErrorList{{File: name, Msg: "not valid TOML: " + err.Error()}}
+	}
+	d := &decoder{file: name, lines: indexLines(string(src))}
+	var raw rawFile
+	d.table(tree, "", "", &raw)
+	b := &builder{
+		decoder:    d,
+		raw:        &raw,
+		net:        &faults.Network{},
+		st:         &coord.Study{},
+		bus:        map[string]int{},
+		branch:     map[string]int{},
+		deviceSeen: map[string]int{},
+	}
+	b.st.Network = b.net
+	b.build(dir)
+	if len(b.errs) > 0 {
+		return nil, b.errs.sorted(name)
+	}
+	return b.st, nil
+}
+
+func (b *builder) build(dir fs.FS) {
+	b.buildStudy()
+	b.buildCriteria()
+	b.buildBuses()
+	b.buildSources()
+	b.buildGenerators()
+	b.buildLines()
+	b.buildTransformers()
+	b.buildEarthings()
+	b.buildLoads()
+	if len(b.raw.Sources) == 0 && len(b.raw.Generators) == 0 {
+		b.errorf(0, "", "the study has no [[source]] and no [[generator]]: nothing drives fault current")
+	} else if !b.badRef {
+		b.checkTopology()
+	}
+	b.buildRelays()
+	b.buildFuses()
+	if name := b.raw.Study.SettingsCSV; name != "" {
+		b.readSettingsCSV(dir, name, b.lines.key("study", "settings_csv"))
+	}
+	for _, o := range b.relayRaw {
+		d := &b.st.Devices[o.device]
+		if len(d.Stages) == 0 && o.tomlStages == 0 && o.csvStages == 0 {
+			b.fail(o.where, "name", "the relay has no stages: add [[relay.stage]] tables or rows in the settings table")
+		}
+		uniqueLabels(d)
+	}
+	b.buildPairs()
+}
+
+// uniqueLabels numbers stages that would otherwise share a label (two
+// definite-time phase stages become 51DT-1 and 51DT-2).
+func uniqueLabels(d *coord.Device) {
+	count := map[string]int{}
+	for _, s := range d.Stages {
+		count[s.Label]++
+	}
+	seen := map[string]int{}
+	for i := range d.Stages {
+		l := d.Stages[i].Label
+		if count[l] > 1 {
+			seen[l]++
+			d.Stages[i].Label = fmt.Sprintf("%s-%d", l, seen[l])
+		}
+	}
+}
+
+func (b *builder) buildStudy() {
+	r := b.raw.Study
+	w := where{path: "study", element: "[study]"}
+	b.st.Name = r.Name
+	if r.Name == "" {
+		b.fail(w, "name", "name is missing (a title for the reports)")
+	}
+	if r.FrequencyHz != nil && *r.FrequencyHz != 50 && *r.FrequencyHz != 60 {
+		b.fail(w, "frequency_hz", "frequency_hz must be 50 or 60 (got %g)", *r.FrequencyHz)
+	}
+	b.net.BaseMVA = b.optional(w, "base_mva", r.BaseMVA, 100, 0, 1e6, true)
+	if r.LVTolerancePct != nil {
+		switch *r.LVTolerancePct {
+		case 6:
+		case 10:
+			b.st.Faults.LVTolerance10 = true
+		default:
+			b.fail(w, "lv_tolerance_pct", "lv_tolerance_pct must be 6 or 10 (the IEC 60909-0 Table 1 low-voltage tolerances; got %g)", *r.LVTolerancePct)
+		}
+	}
+	b.st.Faults.EndTempC = b.optional(w, "conductor_end_temp_c", r.EndTempC, 0, 20, 400, false)
+	for _, f := range r.LinePositions {
+		if !(f > 0 && f < 1) {
+			b.fail(w, "line_fault_positions", "line_fault_positions must lie strictly between 0 and 1 (got %g)", f)
+		}
+	}
+	if r.LinePositions != nil {
+		b.st.Faults.LineFractions = append([]float64{}, r.LinePositions...)
+	}
+}
+
+func (b *builder) buildCriteria() {
+	r := b.raw.Criteria
+	w := where{path: "criteria", element: "[criteria]"}
+	c := coord.DefaultCriteria()
+	inf := math.Inf(1)
+	c.MarginS = b.optional(w, "margin_s", r.MarginS, c.MarginS, 0, 5, true)
+	c.MarginFuseS = b.optional(w, "margin_fuse_s", r.MarginFuseS, c.MarginFuseS, 0, 5, true)
+	c.FuseMeltRatio = b.optional(w, "fuse_melt_ratio", r.FuseMeltRatio, c.FuseMeltRatio, 0, 1, true)
+	if r.OvertravelS != nil || r.SafetyS != nil || r.CTErrorPct != nil {
+		if r.MarginS != nil {
+			b.fail(w, "margin_s", "give margin_s or its components (overtravel_s, safety_s, ct_error_pct), not both")
+		}
+		c.Components = &coord.MarginComponents{
+			OvertravelS: b.optional(w, "overtravel_s", r.OvertravelS, 0, 0, 1, false),
+			SafetyS:     b.optional(w, "safety_s", r.SafetyS, 0, 0, 2, false),
+			CTErrorPct:  b.optional(w, "ct_error_pct", r.CTErrorPct, 0, 0, 50, false),
+		}
+	}
+	c.WorstCaseTimes = boolOr(r.WorstCaseTimes, false)
+	c.SensitivityPrimary = b.optional(w, "sensitivity_primary", r.SensitivityPrimary, c.SensitivityPrimary, 1, 100, false)
+	c.SensitivityBackup = b.optional(w, "sensitivity_backup", r.SensitivityBackup, c.SensitivityBackup, 1, 100, false)
+	c.LoadFactor = b.optional(w, "load_factor", r.LoadFactor, c.LoadFactor, 1, 100, false)
+	c.InstantaneousFactor = b.optional(w, "instantaneous_factor", r.InstantaneousFactor, c.InstantaneousFactor, 1, 100, false)
+	c.ShortDelayS = b.optional(w, "short_delay_s", r.ShortDelayS, c.ShortDelayS, 0, 10, false)
+	c.InrushMultiple = b.optional(w, "inrush_multiple", r.InrushMultiple, c.InrushMultiple, 1, 100, false)
+	c.InrushTimeS = b.optional(w, "inrush_time_s", r.InrushTimeS, c.InrushTimeS, 0, 10, true)
+	b.st.Criteria = c
+	b.st.Faults.EarthFaultOhm = b.optional(w, "fault_resistance_ohm", r.FaultResistanceOhm, 0, 0, inf, false)
+	b.st.Faults.EarthFaultOhmLV = b.optional(w, "lv_fault_resistance_ohm", r.LVFaultResistance, 0, 0, inf, false)
+	b.st.Faults.PhaseFaultOhm = b.optional(w, "phase_fault_resistance_ohm", r.PhaseFaultOhm, 0, 0, inf, false)
+}
