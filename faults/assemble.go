@@ -132,10 +132,8 @@ func assemble(n *Network, set Settings, cs Case) (caseData, error) {
 		d[pos].branch[b] = seriesBlock(z1, 1)
 		d[neg].branch[b] = seriesBlock(z1, 1)
 		d[pos].series[b], d[neg].series[b] = z1, z1
-		if z0 != 0 {
-			d[zero].branch[b] = seriesBlock(z0, 1)
-			d[zero].series[b] = z0
-		}
+		d[zero].branch[b] = seriesBlock(z0, 1)
+		d[zero].series[b] = z0
 	}
 
 	for i := range n.Transformers {

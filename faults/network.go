@@ -199,8 +199,11 @@ func (n *Network) check() error {
 		if l.From == l.To {
 			return fmt.Errorf("line %q: both ends on the same bus", l.Name)
 		}
-		if l.Z1Ohm == 0 || cmplx.IsNaN(l.Z1Ohm) {
-			return fmt.Errorf("line %q: zero or undefined impedance", l.Name)
+		if l.Z1Ohm == 0 || cmplx.IsNaN(l.Z1Ohm) || l.Z0Ohm == 0 || cmplx.IsNaN(l.Z0Ohm) {
+			return fmt.Errorf("line %q: zero or undefined positive- or zero-sequence impedance", l.Name)
+		}
+		if n.Buses[l.From].KV != n.Buses[l.To].KV {
+			return fmt.Errorf("line %q: joins buses of different nominal voltage", l.Name)
 		}
 	}
 	for _, t := range n.Transformers {
