@@ -23,8 +23,9 @@ type Zone struct {
 	// Next are the devices at the zone's far end, which the device backs up.
 	Next []int
 	// FarEnd are the fault places at the far end: where the next devices
-	// sit, and the open ends of the network.
-	FarEnd []faults.Place
+	// sit (Boundary), and the open ends of the network.
+	FarEnd   []faults.Place
+	Boundary []faults.Place
 }
 
 // Topology holds each branch's downstream end and each device's zone.
@@ -62,7 +63,7 @@ func NewTopology(s *Study, eng *faults.Engine) (*Topology, error) {
 	t.Zones = make([]Zone, len(s.Devices))
 	t.beyond = make([][]int, len(s.Devices))
 	for i, d := range s.Devices {
-		t.Zones[i] = w.zone(i, d, s.Devices)
+		t.Zones[i] = w.zone(i, d)
 		t.beyond[i] = w.beyond(d)
 	}
 	return t, nil
@@ -115,7 +116,7 @@ func (w *walker) incomers(b int, e faults.End) []int {
 	return out
 }
 
-func (w *walker) zone(i int, d Device, all []Device) Zone {
+func (w *walker) zone(i int, d Device) Zone {
 	z := Zone{Device: i}
 	seenBus := map[int]bool{}
 	seenNext := map[int]bool{}
@@ -127,6 +128,7 @@ func (w *walker) zone(i int, d Device, all []Device) Zone {
 			}
 		}
 		z.FarEnd = append(z.FarEnd, place)
+		z.Boundary = append(z.Boundary, place)
 	}
 	var queue []int
 	enterBus := func(bus int) {
@@ -181,7 +183,6 @@ func (w *walker) zone(i int, d Device, all []Device) Zone {
 		}
 	}
 	sort.Ints(z.Next)
-	_ = all
 	return z
 }
 

@@ -212,6 +212,20 @@ func sequenceCurrents(k Kind, e complex128, z [3]complex128, open [3]bool, zf co
 	return i
 }
 
+// XR returns X/R of the positive-sequence Thevenin impedance at the fault
+// (+Inf for a purely reactive network, 0 when the place is not fed): the
+// ratio that sets the DC offset a current transformer must carry.
+func (s Solution) XR() float64 {
+	z := s.zff[pos]
+	if !s.live || z == 0 {
+		return 0
+	}
+	if real(z) == 0 {
+		return inf
+	}
+	return imag(z) / real(z)
+}
+
 // Fault returns the fault that was solved.
 func (s Solution) Fault() Fault { return s.fault }
 

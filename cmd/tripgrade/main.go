@@ -31,7 +31,9 @@ type command struct {
 
 func commands() map[string]command {
 	return map[string]command{
+		"check":  {"the coordination check of a study: every pair, every criterion", runCheck},
 		"curve":  {"operating time of one characteristic at given currents", runCurve},
+		"demo":   {"the check on an example study built into the program", runDemo},
 		"faults": {"fault currents at every device and bus of a study", runFaults},
 	}
 }

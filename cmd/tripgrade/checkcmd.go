@@ -1,0 +1,139 @@
+package main
+
+import (
+	"bytes"
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+	"strings"
+
+	"github.com/spf13/pflag"
+
+	"tripgrade/coord"
+	"tripgrade/coord/report"
+)
+
+// findingWriters are the formats of the findings table and the file
+// extension each is written under in --out.
+var findingWriters = map[string]struct {
+	ext   string
+	write func(*report.Findings, io.Writer) error
+}{
+	"text": {"txt", (*report.Findings).WriteText},
+	"md":   {"md", (*report.Findings).WriteMarkdown},
+	"csv":  {"csv", (*report.Findings).WriteCSV},
+	"json": {"json", (*report.Findings).WriteJSON},
+}
+
+// checkOptions are the parsed flags of check and demo.
+type checkOptions struct {
+	formats []string
+	outDir  string
+	strict  bool
+}
+
+func checkFlags(name string) (*pflag.FlagSet, *checkOptions, *string, *bool) {
+	fs := pflag.NewFlagSet(name, pflag.ContinueOnError)
+	fs.SetOutput(io.Discard)
+	o := &checkOptions{}
+	format := fs.String("format", "text", "table `formats`, comma-separated: text, md, csv, json (the first is printed)")
+	fs.StringVar(&o.outDir, "out", "", "also write the table in every format, and the plots, to `DIR`")
+	fs.BoolVar(&o.strict, "strict", false, "exit 1 on warnings too (checks that could not be made, CT and damage warnings)")
+	help := fs.BoolP("help", "h", false, "show this help")
+	return fs, o, format, help
+}
+
+func parseFormats(s string) ([]string, error) {
+	var out []string
+	for _, f := range strings.Split(s, ",") {
+		f = strings.TrimSpace(f)
+		if _, ok := findingWriters[f]; !ok {
+			return nil, fmt.Errorf("--format %q: want text, md, csv or json", f)
+		}
+		out = append(out, f)
+	}
+	return out, nil
+}
+
+// runCheck is "tripgrade check STUDY.toml": the whole audit.
+func runCheck(args []string, stdout, stderr io.Writer) int {
+	fs, o, format, help := checkFlags("check")
+	usage := func(w io.Writer) {
+		fmt.Fprintln(w, "usage: tripgrade check STUDY.toml [--format text|md|csv|json[,...]] [--out DIR] [--strict]")
+		fmt.Fprintln(w, "")
+		fmt.Fprintln(w, "Checks grading margins of every backup pair over the whole fault range, primary and")
+		fmt.Fprintln(w, "backup sensitivity, load margin, instantaneous reach, inrush, equipment damage and")
+		fmt.Fprintln(w, "the settings against their ranges and CTs. Exit 0: nothing fails; 1: a check fails;")
+		fmt.Fprintln(w, "2: the study or the command line is wrong.")
+		fmt.Fprintln(w, "")
+		fmt.Fprint(w, fs.FlagUsages())
+	}
+	if err := fs.Parse(args); err != nil {
+		fmt.Fprintf(stderr, "tripgrade check: %v\n", err)
+		usage(stderr)
+		return exitUsage
+	}
+	if *help {
+		usage(stdout)
+		return exitOK
+	}
+	if fs.NArg() != 1 {
+		fmt.Fprintln(stderr, "tripgrade check: give exactly one study file")
+		usage(stderr)
+		return exitUsage
+	}
+	var err error
+	if o.formats, err = parseFormats(*format); err != nil {
+		fmt.Fprintf(stderr, "tripgrade check: %v\n", err)
+		return exitUsage
+	}
+	l, ok := loadStudy(fs.Arg(0), stderr)
+	if !ok {
+		return exitUsage
+	}
+	return checkLoaded(l, o, stdout, stderr)
+}
+
+// checkLoaded runs the checks on a prepared study and writes the results.
+func checkLoaded(l loaded, o *checkOptions, stdout, stderr io.Writer) int {
+	res, err := coord.Check(l.study, l.engine, l.topo)
+	if err != nil {
+		fmt.Fprintf(stderr, "tripgrade check: %v\n", err)
+		return exitUsage
+	}
+	tab := report.NewFindings(l.study, res)
+	if err := findingWriters[o.formats[0]].write(tab, stdout); err != nil {
+		fmt.Fprintf(stderr, "tripgrade check: %v\n", err)
+		return exitUsage
+	}
+	if o.outDir != "" {
+		if err := writeOutputs(l, res, tab, o, stderr); err != nil {
+			fmt.Fprintf(stderr, "tripgrade check: %v\n", err)
+			return exitUsage
+		}
+	}
+	switch {
+	case res.Failed():
+		return exitFail
+	case o.strict && tab.Warn > 0:
+		return exitFail
+	}
+	return exitOK
+}
+
+// writeOutputs writes the table in every chosen format to the output
+// folder.
+func writeOutputs(l loaded, res *coord.Result, tab *report.Findings, o *checkOptions, stderr io.Writer) error {
+	if err := os.MkdirAll(o.outDir, 0o755); err != nil {
+		return err
+	}
+	for _, f := range o.formats {
+		w := findingWriters[f]
+		path := filepath.Join(o.outDir, "findings."+w.ext)
+		if err := writeTo(path, func(b *bytes.Buffer) error { return w.write(tab, b) }); err != nil {
+			return err
+		}
+	}
+	return nil
+}

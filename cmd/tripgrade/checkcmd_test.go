@@ -1,0 +1,132 @@
+package main
+
+import (
+	"encoding/csv"
+	"encoding/json"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// TestCheckExamplesGolden pins the findings tables of both bundled
+// examples (text and Markdown) and their exit codes: the passing study
+// exits 0, the one with mistakes 1.
+func TestCheckExamplesGolden(t *testing.T) {
+	cases := []struct {
+		study string
+		code  int
+	}{
+		{"kestrel-park", exitOK},
+		{"fenwick-quay", exitFail},
+	}
+	for _, c := range cases {
+		for _, f := range []struct{ format, ext string }{{"text", "txt"}, {"md", "md"}} {
+			code, out, errOut := runArgs("check", "../../examples/"+c.study+".toml", "--format", f.format)
+			if code != c.code || errOut != "" {
+				t.Fatalf("%s %s: exit %d (want %d), stderr %q", c.study, f.format, code, c.code, errOut)
+			}
+			golden(t, c.study+".check."+f.ext, out)
+		}
+	}
+}
+
+// TestCheckFindsTheExampleMistakes: the study with mistakes fails exactly
+// the checks its comments announce.
+func TestCheckFindsTheExampleMistakes(t *testing.T) {
+	_, out, _ := runArgs("check", "../../examples/fenwick-quay.toml", "--format", "csv")
+	rows, err := csv.NewReader(strings.NewReader(out)).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	got := map[string]bool{}
+	for _, r := range rows[1:] {
+		if r[1] == "FAIL" || r[1] == "WARN" {
+			got[r[1]+" "+r[0]+" "+r[2]+" "+r[4]] = true
+		}
+	}
+	want := []string{
+		"FAIL grading INC ",               // the incomer and T1-HV graded too closely for LL faults
+		"FAIL grading MA-R ",              // FM's instantaneous trips first in MA-R's zone
+		"FAIL load FC phase",              // pickup too close to the load
+		"FAIL instantaneous_reach FM 50",  // FM's instantaneous overreaches
+		"FAIL settings FB 51",             // off the relay's setting steps
+		"WARN settings INC CT saturation", // C100 with 1.8 Ω cannot carry the maximum fault
+	}
+	for _, w := range want {
+		if !got[w] {
+			t.Errorf("missing finding %q", w)
+		}
+		delete(got, w)
+	}
+	for g := range got {
+		t.Errorf("unexpected finding %q", g)
+	}
+}
+
+func TestCheckOutDir(t *testing.T) {
+	dir := filepath.Join(t.TempDir(), "out")
+	code, out, errOut := runArgs("check", "../../examples/kestrel-park.toml", "--format", "text,md,csv,json", "--out", dir)
+	if code != exitOK || errOut != "" {
+		t.Fatalf("exit %d, stderr %q", code, errOut)
+	}
+	for _, name := range []string{"findings.txt", "findings.md", "findings.csv", "findings.json"} {
+		data, err := os.ReadFile(filepath.Join(dir, name))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if name == "findings.txt" && string(data) != out {
+			t.Errorf("findings.txt differs from the printed table")
+		}
+		if name == "findings.json" {
+			var doc struct {
+				Summary struct{ Fail int } `json:"summary"`
+				Caution string             `json:"caution"`
+			}
+			if err := json.Unmarshal(data, &doc); err != nil || doc.Caution == "" {
+				t.Errorf("findings.json: %v, caution %q", err, doc.Caution)
+			}
+		}
+	}
+	entries, _ := os.ReadDir(dir)
+	for _, e := range entries {
+		if strings.HasPrefix(e.Name(), ".") {
+			t.Errorf("temporary file %s left behind", e.Name())
+		}
+	}
+}
+
+func TestCheckExitCodes(t *testing.T) {
+	cases := []struct {
+		name string
+		args []string
+		code int
+		want string
+	}{
+		{"passing", []string{"check", "../../examples/kestrel-park.toml"}, exitOK, ""},
+		{"strict with no warning", []string{"check", "../../examples/kestrel-park.toml", "--strict"}, exitOK, ""},
+		{"failing", []string{"check", "../../testdata/checks/grading.toml"}, exitFail, ""},
+		{"bad study", []string{"check", "../../testdata/errors/references.toml"}, exitUsage, "no bus of that name"},
+		{"bad format", []string{"check", "../../examples/kestrel-park.toml", "--format", "pdf"}, exitUsage, "want text, md, csv or json"},
+		{"two files", []string{"check", "a.toml", "b.toml"}, exitUsage, "exactly one study file"},
+		{"demo", []string{"demo"}, exitFail, ""},
+		{"demo passing example", []string{"demo", "--example", "kestrel-park"}, exitOK, ""},
+		{"demo unknown example", []string{"demo", "--example", "atlantis"}, exitUsage, "no example"},
+	}
+	for _, c := range cases {
+		code, _, errOut := runArgs(c.args...)
+		if code != c.code || !strings.Contains(errOut, c.want) {
+			t.Errorf("%s: exit %d, stderr %q; want exit %d and %q", c.name, code, errOut, c.code, c.want)
+		}
+	}
+}
+
+// TestDemoMatchesCheck: the embedded example gives the same table as
+// checking the file on disk.
+func TestDemoMatchesCheck(t *testing.T) {
+	_, demo, _ := runArgs("demo")
+	_, check, _ := runArgs("check", "../../examples/fenwick-quay.toml")
+	if demo != check {
+		t.Errorf("demo and check of the same study differ:\n%s", firstDiff(demo, check))
+	}
+}

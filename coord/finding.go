@@ -1,0 +1,146 @@
+package coord
+
+import "tripgrade/faults"
+
+// Verdict is the outcome of one finding.
+type Verdict uint8
+
+// Verdicts. Warn covers both a figure worth a look that the criteria do not
+// fail, and a check that could not be made (the note says which).
+const (
+	Pass Verdict = iota
+	Warn
+	Fail
+)
+
+// String returns "PASS", "WARN" or "FAIL".
+func (v Verdict) String() string { return [...]string{"PASS", "WARN", "FAIL"}[v] }
+
+// CheckKind names a check.
+type CheckKind uint8
+
+// The checks, in report order.
+const (
+	Grading CheckKind = iota
+	PrimarySensitivity
+	BackupSensitivity
+	LoadMargin
+	InstantaneousReach
+	Inrush
+	Damage
+	SettingsAudit
+)
+
+// CheckKinds lists the checks in report order.
+var CheckKinds = [...]CheckKind{Grading, PrimarySensitivity, BackupSensitivity, LoadMargin, InstantaneousReach, Inrush, Damage, SettingsAudit}
+
+// String returns the check's name as reports print it.
+func (c CheckKind) String() string {
+	return [...]string{"grading margin", "primary sensitivity", "backup sensitivity", "load margin",
+		"instantaneous reach", "inrush", "damage", "settings audit"}[c]
+}
+
+// Slug returns the check's name for machine-readable output.
+func (c CheckKind) Slug() string {
+	return [...]string{"grading", "primary_sensitivity", "backup_sensitivity", "load", "instantaneous_reach",
+		"inrush", "damage", "settings"}[c]
+}
+
+// Finding is one line of the verdict: a check on a device (or a pair),
+// what was measured, what was required, and the fault behind the figure.
+type Finding struct {
+	Check   CheckKind
+	Device  string // the device checked (the downstream device of a pair)
+	Other   string // the upstream device of a pair, or the equipment protected
+	Stage   string // stage label or stage group ("phase", "ground"), when it matters
+	Verdict Verdict
+	// Measured and Required are in Unit; Relation says how they must
+	// compare ("≥" or "≤"). Margin is how far Measured lies on the safe
+	// side of Required, in Unit (negative when the check fails). Valid is
+	// false when no figure could be computed.
+	Measured, Required, Margin float64
+	Unit                       string
+	Relation                   string
+	Valid                      bool
+	// Fault is the fault behind the figure, when there is one.
+	Fault *FaultRef
+	Note  string
+}
+
+// FaultRef describes the fault behind a figure.
+type FaultRef struct {
+	Kind  faults.Kind
+	Case  faults.Case
+	Place string
+	// Interpolated is true for a point of the dense sweep between solved
+	// faults, whose currents are scaled from the nearest solved one.
+	Interpolated bool
+	// Currents and times of the device checked and of the other device (0
+	// when not part of the check); a time is NaN when the device does not
+	// operate.
+	DeviceA, OtherA float64
+	DeviceS, OtherS float64
+	// DeviceQty and OtherQty say which current each figure is: the phase
+	// current or the residual current (when a ground stage set the time).
+	DeviceQty, OtherQty Quantity
+}
+
+// Pair is a backup pair: Upstream backs up Downstream.
+type Pair struct {
+	Upstream, Downstream int
+	// Manual is true for a pair added by a [[pair]] entry.
+	Manual bool
+}
+
+// Result is the outcome of checking a study.
+type Result struct {
+	Pairs    []Pair
+	Excluded []Pair // derived pairs the study excluded
+	Findings []Finding
+}
+
+// Counts returns the number of findings of each verdict.
+func (r *Result) Counts() (pass, warn, fail int) {
+	for _, f := range r.Findings {
+		switch f.Verdict {
+		case Pass:
+			pass++
+		case Warn:
+			warn++
+		case Fail:
+			fail++
+		}
+	}
+	return pass, warn, fail
+}
+
+// Failed reports whether any finding fails.
+func (r *Result) Failed() bool {
+	_, _, f := r.Counts()
+	return f > 0
+}
+
+// atLeast builds a finding for "measured ≥ required".
+func atLeast(c CheckKind, measured, required float64, unit string) Finding {
+	f := Finding{Check: c, Measured: measured, Required: required, Margin: measured - required,
+		Unit: unit, Relation: "≥", Valid: true}
+	if f.Margin < 0 {
+		f.Verdict = Fail
+	}
+	return f
+}
+
+// atMost builds a finding for "measured ≤ required".
+func atMost(c CheckKind, measured, required float64, unit string) Finding {
+	f := Finding{Check: c, Measured: measured, Required: required, Margin: required - measured,
+		Unit: unit, Relation: "≤", Valid: true}
+	if f.Margin < 0 {
+		f.Verdict = Fail
+	}
+	return f
+}
+
+// unchecked builds a finding for a check that could not be made.
+func unchecked(c CheckKind, note string) Finding {
+	return Finding{Check: c, Verdict: Warn, Note: "not checked: " + note}
+}

@@ -1,0 +1,186 @@
+package report
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"tripgrade/coord"
+)
+
+// Findings is the verdict of a coordination check, ready to render.
+type Findings struct {
+	Study    string
+	Cases    []string
+	Criteria []string
+	Pairs    []PairRow
+	Excluded []PairRow
+	Rows     []Row
+	Pass     int
+	Warn     int
+	Fail     int
+}
+
+// PairRow is one backup pair by name.
+type PairRow struct {
+	Upstream, Downstream string
+	Manual               bool
+}
+
+// Row is one finding with its figures formatted.
+type Row struct {
+	Finding coord.Finding
+	// Text forms of the figures, for the text and Markdown tables.
+	Measured, Required, Margin, Fault, Detail string
+}
+
+// NewFindings formats a check's result.
+func NewFindings(s *coord.Study, r *coord.Result) *Findings {
+	f := &Findings{Study: s.Name, Cases: CaseLines(s), Criteria: criteriaLines(s.Criteria)}
+	name := func(i int) string { return s.Devices[i].Name }
+	for _, p := range r.Pairs {
+		f.Pairs = append(f.Pairs, PairRow{name(p.Upstream), name(p.Downstream), p.Manual})
+	}
+	for _, p := range r.Excluded {
+		f.Excluded = append(f.Excluded, PairRow{name(p.Upstream), name(p.Downstream), false})
+	}
+	for _, x := range r.Findings {
+		f.Rows = append(f.Rows, newRow(x))
+	}
+	f.Pass, f.Warn, f.Fail = r.Counts()
+	return f
+}
+
+func newRow(x coord.Finding) Row {
+	r := Row{Finding: x, Measured: "-", Required: "-", Margin: "-"}
+	if x.Valid {
+		r.Measured, r.Required = quantity(x.Measured, x.Unit), x.Relation+" "+quantity(x.Required, x.Unit)
+		r.Margin = signed(x.Margin, x.Unit)
+	}
+	if ft := x.Fault; ft != nil {
+		r.Fault = fmt.Sprintf("%s %s @ %s", ft.Kind, ft.Case, ft.Place)
+		if ft.Interpolated {
+			r.Fault += " (sweep)"
+		}
+		r.Detail = detail(x)
+	}
+	return r
+}
+
+// detail gives the currents and times behind a figure.
+func detail(x coord.Finding) string {
+	ft := x.Fault
+	cur := func(a float64, q coord.Quantity) string {
+		if q == coord.Residual {
+			return amps(a) + " A 3I0"
+		}
+		return amps(a) + " A"
+	}
+	switch x.Check {
+	case coord.Grading:
+		return fmt.Sprintf("%s: %s, %s; %s: %s, %s", x.Device, cur(ft.DeviceA, ft.DeviceQty), seconds(ft.DeviceS), x.Other, cur(ft.OtherA, ft.OtherQty), seconds(ft.OtherS))
+	case coord.Damage:
+		return fmt.Sprintf("%s clears %s in %s; %s carries %s A for %s", x.Device, cur(ft.DeviceA, ft.DeviceQty), seconds(ft.DeviceS), x.Other, amps(ft.OtherA), seconds(ft.OtherS))
+	}
+	return fmt.Sprintf("%s at %s", cur(ft.DeviceA, ft.DeviceQty), x.Device)
+}
+
+func seconds(s float64) string {
+	if math.IsInf(s, 1) || math.IsNaN(s) {
+		return "does not operate"
+	}
+	return fmt.Sprintf("%.3f s", s)
+}
+
+// quantity formats a figure with its unit.
+func quantity(v float64, unit string) string {
+	switch unit {
+	case "s":
+		return fmt.Sprintf("%.3f s", v)
+	case "A":
+		return amps(v) + " A"
+	}
+	return fmt.Sprintf("%.2f", v)
+}
+
+func signed(v float64, unit string) string {
+	q := quantity(math.Abs(v), unit)
+	if v < 0 {
+		return "−" + q
+	}
+	return "+" + q
+}
+
+// criteriaLines describes the criteria in words.
+func criteriaLines(c coord.Criteria) []string {
+	margin := fmt.Sprintf("grading margin %.2f s relay over relay", c.MarginS)
+	if k := c.Components; k != nil {
+		margin = fmt.Sprintf("grading margin (2·E_R + %g %%)·t_D + breaker + %.2f s overtravel + %.2f s safety", k.CTErrorPct, k.OvertravelS, k.SafetyS)
+	}
+	times := "nominal operating times"
+	if c.WorstCaseTimes && c.Components == nil {
+		times = "worst-case times within declared accuracy (upstream earliest, downstream latest)"
+	}
+	return []string{
+		fmt.Sprintf("%s, %.2f s relay over fuse, downstream clearing ≤ %g × upstream fuse melting; %s", margin, c.MarginFuseS, c.FuseMeltRatio, times),
+		fmt.Sprintf("sensitivity ≥ %g × pickup in the own zone, ≥ %g × at the end of the next zone; pickup ≥ %g × maximum load; instantaneous pickup ≥ %g × maximum through-fault (stages up to %g s)",
+			c.SensitivityPrimary, c.SensitivityBackup, c.LoadFactor, c.InstantaneousFactor, c.ShortDelayS),
+		fmt.Sprintf("inrush %g × transformer full-load current for %g s; damage: clear before the IEEE C57.109 or adiabatic withstand", c.InrushMultiple, c.InrushTimeS),
+	}
+}
+
+// Verdict is the overall verdict line.
+func (f *Findings) Verdict() string {
+	overall := "PASS"
+	switch {
+	case f.Fail > 0:
+		overall = "FAIL"
+	case f.Warn > 0:
+		overall = "PASS with warnings"
+	}
+	return fmt.Sprintf("%d PASS, %d WARN, %d FAIL: %s", f.Pass, f.Warn, f.Fail, overall)
+}
+
+// groups returns the rows of each check in report order.
+func (f *Findings) groups() [][]Row {
+	var out [][]Row
+	for _, c := range coord.CheckKinds {
+		var g []Row
+		for _, r := range f.Rows {
+			if r.Finding.Check == c {
+				g = append(g, r)
+			}
+		}
+		if len(g) > 0 {
+			out = append(out, g)
+		}
+	}
+	return out
+}
+
+// withHeading names the "other" column for a check.
+func withHeading(c coord.CheckKind) string {
+	switch c {
+	case coord.Grading, coord.BackupSensitivity:
+		return "upstream"
+	case coord.Damage:
+		return "equipment"
+	}
+	return ""
+}
+
+func pairText(p PairRow) string {
+	s := p.Upstream + " → " + p.Downstream
+	if p.Manual {
+		s += " (added by [[pair]])"
+	}
+	return s
+}
+
+func joinPairs(ps []PairRow) string {
+	parts := make([]string, len(ps))
+	for i, p := range ps {
+		parts[i] = pairText(p)
+	}
+	return strings.Join(parts, ", ")
+}

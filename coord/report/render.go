@@ -1,0 +1,224 @@
+package report
+
+import (
+	"encoding/csv"
+	"encoding/json"
+	"fmt"
+	"io"
+	"math"
+	"strings"
+	"text/tabwriter"
+)
+
+// WriteText writes the findings aligned for a terminal: the pairs, then a
+// table per check, then the summary line and the caution.
+func (f *Findings) WriteText(w io.Writer) error {
+	ew := &errWriter{w: w}
+	fmt.Fprintf(ew, "tripgrade coordination check: %s\n", f.Study)
+	for _, c := range f.Cases {
+		fmt.Fprintf(ew, "  %s\n", c)
+	}
+	for _, c := range f.Criteria {
+		fmt.Fprintf(ew, "  %s\n", c)
+	}
+	fmt.Fprintf(ew, "\nBackup pairs (upstream → downstream, from the topology and the fault-current direction):\n")
+	for _, p := range f.Pairs {
+		fmt.Fprintf(ew, "  %s\n", pairText(p))
+	}
+	if len(f.Pairs) == 0 {
+		fmt.Fprintln(ew, "  none")
+	}
+	if len(f.Excluded) > 0 {
+		fmt.Fprintf(ew, "  excluded by [[pair]]: %s\n", joinPairs(f.Excluded))
+	}
+	for _, g := range f.groups() {
+		c := g[0].Finding.Check
+		fmt.Fprintf(ew, "\n%s\n", strings.ToUpper(c.String()))
+		tw := tabwriter.NewWriter(ew, 0, 0, 2, ' ', 0)
+		with := withHeading(c)
+		head := "verdict\tdevice\t"
+		if with != "" {
+			head += with + "\t"
+		}
+		fmt.Fprintln(tw, head+"stage\tmeasured\trequired\tmargin\tfault\tdetail\tnote")
+		for _, r := range g {
+			x := r.Finding
+			line := x.Verdict.String() + "\t" + x.Device + "\t"
+			if with != "" {
+				line += x.Other + "\t"
+			}
+			fmt.Fprintf(tw, "%s%s\t%s\t%s\t%s\t%s\t%s\t%s\n", line, dash(x.Stage), r.Measured, r.Required, r.Margin, dash(r.Fault), dash(r.Detail), x.Note)
+		}
+		tw.Flush()
+	}
+	fmt.Fprintf(ew, "\n%s\n%s\n", f.Verdict(), Caution)
+	return ew.err
+}
+
+func dash(s string) string {
+	if s == "" {
+		return "-"
+	}
+	return s
+}
+
+// WriteMarkdown writes the findings as Markdown: a table per check.
+func (f *Findings) WriteMarkdown(w io.Writer) error {
+	ew := &errWriter{w: w}
+	fmt.Fprintf(ew, "# Coordination check: %s\n\n> %s\n\n", md(f.Study), Caution)
+	for _, c := range append(append([]string{}, f.Cases...), f.Criteria...) {
+		fmt.Fprintf(ew, "- %s\n", md(c))
+	}
+	fmt.Fprintf(ew, "\n**%s**\n\n## Backup pairs\n\n", f.Verdict())
+	for _, p := range f.Pairs {
+		fmt.Fprintf(ew, "- %s\n", md(pairText(p)))
+	}
+	if len(f.Excluded) > 0 {
+		fmt.Fprintf(ew, "- excluded by `[[pair]]`: %s\n", md(joinPairs(f.Excluded)))
+	}
+	for _, g := range f.groups() {
+		c := g[0].Finding.Check
+		with := withHeading(c)
+		fmt.Fprintf(ew, "\n## %s\n\n", strings.ToUpper(c.String()[:1])+c.String()[1:])
+		head, rule := "| verdict | device |", "| --- | --- |"
+		if with != "" {
+			head, rule = head+" "+with+" |", rule+" --- |"
+		}
+		fmt.Fprintf(ew, "%s stage | measured | required | margin | fault | detail | note |\n%s --- | ---: | ---: | ---: | --- | --- | --- |\n", head, rule)
+		for _, r := range g {
+			x := r.Finding
+			v := x.Verdict.String()
+			if x.Verdict != 0 {
+				v = "**" + v + "**"
+			}
+			line := "| " + v + " | " + md(x.Device) + " |"
+			if with != "" {
+				line += " " + md(x.Other) + " |"
+			}
+			fmt.Fprintf(ew, "%s %s | %s | %s | %s | %s | %s | %s |\n", line, md(x.Stage), md(r.Measured), md(r.Required), md(r.Margin), md(r.Fault), md(r.Detail), md(x.Note))
+		}
+	}
+	return ew.err
+}
+
+// md escapes text for a Markdown table cell.
+func md(s string) string {
+	r := strings.NewReplacer("|", `\|`, "\n", " ", "*", `\*`, "_", `\_`, "`", "\\`", "<", "&lt;", ">", "&gt;", "[", `\[`, "]", `\]`)
+	return r.Replace(s)
+}
+
+// csvHeader is the column list of WriteCSV.
+var csvHeader = []string{"check", "verdict", "device", "other", "stage", "measured", "required", "margin", "unit", "relation",
+	"fault_kind", "fault_case", "fault_place", "interpolated", "device_current_a", "other_current_a", "device_time_s", "other_time_s", "note"}
+
+// WriteCSV writes one row per finding.
+func (f *Findings) WriteCSV(w io.Writer) error {
+	cw := csv.NewWriter(w)
+	cw.Write(csvHeader)
+	num := func(v float64, ok bool) string {
+		if !ok || math.IsNaN(v) || math.IsInf(v, 0) {
+			return ""
+		}
+		return fmt.Sprintf("%.6g", v)
+	}
+	for _, r := range f.Rows {
+		x := r.Finding
+		rec := []string{x.Check.Slug(), x.Verdict.String(), x.Device, x.Other, x.Stage,
+			num(x.Measured, x.Valid), num(x.Required, x.Valid), num(x.Margin, x.Valid), x.Unit, x.Relation}
+		if ft := x.Fault; ft != nil {
+			rec = append(rec, ft.Kind.String(), ft.Case.String(), ft.Place, fmt.Sprint(ft.Interpolated),
+				num(ft.DeviceA, true), num(ft.OtherA, ft.OtherA != 0), num(ft.DeviceS, ft.DeviceS != 0), num(ft.OtherS, ft.OtherS != 0))
+		} else {
+			rec = append(rec, "", "", "", "", "", "", "", "")
+		}
+		cw.Write(append(rec, x.Note))
+	}
+	cw.Flush()
+	return cw.Error()
+}
+
+// WriteJSON writes the findings as one JSON document.
+func (f *Findings) WriteJSON(w io.Writer) error {
+	type fault struct {
+		Kind         string   `json:"kind"`
+		Case         string   `json:"case"`
+		Place        string   `json:"place"`
+		Interpolated bool     `json:"interpolated"`
+		DeviceA      *float64 `json:"device_current_a,omitempty"`
+		OtherA       *float64 `json:"other_current_a,omitempty"`
+		DeviceS      *float64 `json:"device_time_s,omitempty"`
+		OtherS       *float64 `json:"other_time_s,omitempty"`
+	}
+	type finding struct {
+		Check    string   `json:"check"`
+		Verdict  string   `json:"verdict"`
+		Device   string   `json:"device"`
+		Other    string   `json:"other,omitempty"`
+		Stage    string   `json:"stage,omitempty"`
+		Measured *float64 `json:"measured,omitempty"`
+		Required *float64 `json:"required,omitempty"`
+		Margin   *float64 `json:"margin,omitempty"`
+		Unit     string   `json:"unit,omitempty"`
+		Relation string   `json:"relation,omitempty"`
+		Fault    *fault   `json:"fault,omitempty"`
+		Note     string   `json:"note,omitempty"`
+	}
+	type pair struct {
+		Upstream   string `json:"upstream"`
+		Downstream string `json:"downstream"`
+		Manual     bool   `json:"added_by_study"`
+	}
+	ptr := func(v float64) *float64 {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return nil
+		}
+		return &v
+	}
+	doc := struct {
+		Study    string    `json:"study"`
+		Caution  string    `json:"caution"`
+		Cases    []string  `json:"cases"`
+		Criteria []string  `json:"criteria"`
+		Pairs    []pair    `json:"pairs"`
+		Excluded []pair    `json:"excluded_pairs"`
+		Findings []finding `json:"findings"`
+		Summary  struct {
+			Pass int    `json:"pass"`
+			Warn int    `json:"warn"`
+			Fail int    `json:"fail"`
+			Text string `json:"text"`
+		} `json:"summary"`
+	}{Study: f.Study, Caution: Caution, Cases: f.Cases, Criteria: f.Criteria, Pairs: []pair{}, Excluded: []pair{}, Findings: []finding{}}
+	for _, p := range f.Pairs {
+		doc.Pairs = append(doc.Pairs, pair{p.Upstream, p.Downstream, p.Manual})
+	}
+	for _, p := range f.Excluded {
+		doc.Excluded = append(doc.Excluded, pair{p.Upstream, p.Downstream, false})
+	}
+	for _, r := range f.Rows {
+		x := r.Finding
+		j := finding{Check: x.Check.Slug(), Verdict: x.Verdict.String(), Device: x.Device, Other: x.Other, Stage: x.Stage,
+			Unit: x.Unit, Relation: x.Relation, Note: x.Note}
+		if x.Valid {
+			j.Measured, j.Required, j.Margin = ptr(x.Measured), ptr(x.Required), ptr(x.Margin)
+		}
+		if ft := x.Fault; ft != nil {
+			jf := &fault{Kind: ft.Kind.String(), Case: ft.Case.String(), Place: ft.Place, Interpolated: ft.Interpolated, DeviceA: ptr(ft.DeviceA)}
+			if ft.OtherA != 0 {
+				jf.OtherA = ptr(ft.OtherA)
+			}
+			if ft.DeviceS != 0 {
+				jf.DeviceS = ptr(ft.DeviceS)
+			}
+			if ft.OtherS != 0 {
+				jf.OtherS = ptr(ft.OtherS)
+			}
+			j.Fault = jf
+		}
+		doc.Findings = append(doc.Findings, j)
+	}
+	doc.Summary.Pass, doc.Summary.Warn, doc.Summary.Fail, doc.Summary.Text = f.Pass, f.Warn, f.Fail, f.Verdict()
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	return enc.Encode(doc)
+}

@@ -1,0 +1,147 @@
+package coord
+
+import (
+	"math"
+
+	"tripgrade/curves"
+	"tripgrade/faults"
+)
+
+// Band selects a device's nominal time or an edge of its tolerance band.
+type Band uint8
+
+// Bands.
+const (
+	Nominal Band = iota
+	Early        // earliest operating time within the declared accuracy
+	Late         // latest operating time within the declared accuracy
+)
+
+// Timer answers how long one device takes at the currents of a fault. A
+// relay operates at the fastest of its stages, phase stages on the largest
+// phase current and ground stages on the residual current; a fuse melts
+// and clears on its phase current.
+type Timer struct {
+	Dev *Device
+	// Phase and Ground are the fastest of the relay's phase and ground
+	// stages (nil when it has none), per Band.
+	Phase, Ground [3]curves.Characteristic
+}
+
+// NewTimer prepares a device's characteristics.
+func NewTimer(d *Device) *Timer {
+	t := &Timer{Dev: d}
+	if d.Kind == Fuse {
+		return t
+	}
+	var ph, gr curves.Fastest
+	for _, s := range d.Stages {
+		if s.Measures == Phase {
+			ph = append(ph, s.Curve)
+		} else {
+			gr = append(gr, s.Curve)
+		}
+	}
+	set := func(dst *[3]curves.Characteristic, f curves.Fastest) {
+		if len(f) == 0 {
+			return
+		}
+		dst[Nominal], dst[Early], dst[Late] = f, f, f
+		if d.Accuracy.ClassPct > 0 {
+			var early, late curves.Fastest
+			for _, c := range f {
+				e, l := curves.Banded(c, d.Accuracy)
+				early, late = append(early, e), append(late, l)
+			}
+			dst[Early], dst[Late] = early, late
+		}
+	}
+	set(&t.Phase, ph)
+	set(&t.Ground, gr)
+	return t
+}
+
+// Measured returns the current each quantity of the device sees.
+func Measured(c faults.Currents) (phaseA, residualA float64) { return c.PhaseMaxA(), c.ResidualA() }
+
+// Operate returns the relay's operating time (without the breaker) in a
+// band, or for a fuse its total clearing time, at the given currents.
+func (t *Timer) Operate(phaseA, residualA float64, b Band) (float64, curves.Status) {
+	if t.Dev.Kind == Fuse {
+		return t.Dev.Clear.Time(phaseA)
+	}
+	return fastest(t.Phase[b], phaseA, t.Ground[b], residualA)
+}
+
+// Melt returns a fuse's minimum melting time (for a relay, its operating
+// time in the band).
+func (t *Timer) Melt(phaseA, residualA float64, b Band) (float64, curves.Status) {
+	if t.Dev.Kind == Fuse {
+		return t.Dev.Melt.Time(phaseA)
+	}
+	return t.Operate(phaseA, residualA, b)
+}
+
+// Clearing returns the time to clear: a relay's operating time plus its
+// breaker's interrupting time, a fuse's total clearing time.
+func (t *Timer) Clearing(phaseA, residualA float64, b Band) (float64, curves.Status) {
+	s, st := t.Operate(phaseA, residualA, b)
+	if t.Dev.Kind == Relay && st == curves.Operates {
+		s += t.Dev.BreakerS
+	}
+	return s, st
+}
+
+// fastest combines the phase and ground answers as curves.Fastest does:
+// the earlier of those that operate; otherwise NoTrip if either says so;
+// otherwise Undefined.
+func fastest(ph curves.Characteristic, phaseA float64, gr curves.Characteristic, residualA float64) (float64, curves.Status) {
+	best, status := math.Inf(1), curves.Undefined
+	anyNoTrip, any := false, false
+	for _, q := range [2]struct {
+		c curves.Characteristic
+		a float64
+	}{{ph, phaseA}, {gr, residualA}} {
+		if q.c == nil {
+			continue
+		}
+		any = true
+		s, st := q.c.Time(q.a)
+		switch st {
+		case curves.Operates:
+			if s < best {
+				best = s
+			}
+			status = curves.Operates
+		case curves.NoTrip:
+			anyNoTrip = true
+		}
+	}
+	switch {
+	case status == curves.Operates:
+		return best, curves.Operates
+	case anyNoTrip || !any:
+		return math.Inf(1), curves.NoTrip
+	}
+	return math.NaN(), curves.Undefined
+}
+
+// Pickup returns the lowest pickup of the device's stages measuring q (for
+// a fuse and q = Phase, the current of the first point of its melting
+// curve, where melting starts to be defined), or 0 when none.
+func (d *Device) Pickup(q Quantity) float64 {
+	if d.Kind == Fuse {
+		if q != Phase || d.Melt == nil {
+			return 0
+		}
+		lo, _ := d.Melt.Span()
+		return lo
+	}
+	p := 0.0
+	for _, s := range d.Stages {
+		if s.Measures == q && (p == 0 || s.PickupA < p) {
+			p = s.PickupA
+		}
+	}
+	return p
+}
