@@ -2,6 +2,8 @@ package coord_test
 
 import (
 	"math"
+	"os"
+	"strings"
 	"testing"
 
 	"tripgrade/coord"
@@ -208,5 +210,84 @@ func TestSettingsAudit(t *testing.T) {
 	f := onlyFailure(t, checkFile(t, "../testdata/checks/settings.toml"), coord.SettingsAudit, "R2")
 	if f.Stage != "51" || f.Note != "multiplier 0.1 not on a step of 0.02 from 0.05" {
 		t.Errorf("got stage %q, note %q", f.Stage, f.Note)
+	}
+}
+
+// parseVariant checks testdata/checks/pass.toml with some text replaced.
+func parseVariant(t *testing.T, replace ...string) *coord.Result {
+	t.Helper()
+	src, err := os.ReadFile("../testdata/checks/pass.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	text := string(src)
+	for i := 0; i+1 < len(replace); i += 2 {
+		if !strings.Contains(text, replace[i]) {
+			t.Fatalf("pass.toml has no %q", replace[i])
+		}
+		text = strings.Replace(text, replace[i], replace[i+1], 1)
+	}
+	s, err := study.Parse("variant.toml", []byte(text), nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	eng, err := faults.New(s.Network, s.Faults)
+	if err != nil {
+		t.Fatal(err)
+	}
+	topo, err := coord.NewTopology(s, eng)
+	if err != nil {
+		t.Fatal(err)
+	}
+	r, err := coord.Check(s, eng, topo)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return r
+}
+
+func grading(t *testing.T, r *coord.Result) coord.Finding {
+	t.Helper()
+	for _, f := range r.Findings {
+		if f.Check == coord.Grading {
+			return f
+		}
+	}
+	t.Fatal("no grading finding")
+	return coord.Finding{}
+}
+
+// TestComponentsMargin: with margin components the required interval is
+// the Network Protection & Automation Guide ch. 9 form (from memory)
+// (2·E_R + E_CT)/100·t_D + t_CB + t_o + t_s. R2 declares a 5 % class and a
+// 0.06 s breaker, the criteria 0.05 s overtravel and 0.1 s safety; at the
+// worst fault t_D = 0.1·0.14/(23.286^0.02 − 1) = 0.21543 s (IEC 60255-151),
+// so the requirement is 0.10·0.21543 + 0.06 + 0.05 + 0.1 = 0.23154 s,
+// against a margin of 0.3·0.14/(17.465^0.02 − 1) − 0.21543 = 0.49798 s.
+func TestComponentsMargin(t *testing.T) {
+	r := parseVariant(t, "margin_s = 0.3", "overtravel_s = 0.05\nsafety_s = 0.1",
+		"breaker_s = 0.06\n", "breaker_s = 0.06\naccuracy_class_pct = 5\naccuracy_min_s = 0.04\n")
+	f := grading(t, r)
+	tD := tSI(iB3max, 150, 0.1)
+	want := 0.10*tD + 0.06 + 0.05 + 0.1
+	if !near(f.Required, want, handTol) || !near(f.Measured, tSI(iB3max, 200, 0.3)-tD, handTol) {
+		t.Errorf("got %g s ≥ %g s, want %g s ≥ %g s", f.Measured, f.Required, tSI(iB3max, 200, 0.3)-tD, want)
+	}
+}
+
+// TestWorstCaseTimes: grading on the tolerance band takes R1's earliest and
+// R2's latest time. Both declare 5 % or 0.04 s, whichever is greater
+// (IEC 60255-151 cl. 5.2; above 10× setting the limiting error is the class
+// itself): at the worst fault R1's 0.71343 s less max(0.0357, 0.04) s, and
+// R2's 0.21543 s plus max(0.0108, 0.04) s, a margin of 0.41798 s.
+func TestWorstCaseTimes(t *testing.T) {
+	acc := "accuracy_class_pct = 5\naccuracy_min_s = 0.04\n"
+	r := parseVariant(t, "margin_s = 0.3", "margin_s = 0.3\nworst_case_times = true",
+		"ct_secondary_a = 1\n  [[relay.stage]]", "ct_secondary_a = 1\n"+acc+"  [[relay.stage]]",
+		"breaker_s = 0.06\n", "breaker_s = 0.06\n"+acc)
+	f := grading(t, r)
+	want := (tSI(iB3max, 200, 0.3) - 0.04) - (tSI(iB3max, 150, 0.1) + 0.04)
+	if !near(f.Measured, want, handTol) {
+		t.Errorf("worst-case margin %g s, want %g s", f.Measured, want)
 	}
 }

@@ -92,15 +92,19 @@ func seconds(s float64) string {
 	return fmt.Sprintf("%.3f s", s)
 }
 
-// quantity formats a figure with its unit.
+// quantity formats a figure with its unit, with a typographic minus like
+// the margins.
 func quantity(v float64, unit string) string {
+	var s string
 	switch unit {
 	case "s":
-		return fmt.Sprintf("%.3f s", v)
+		s = fmt.Sprintf("%.3f s", v)
 	case "A":
-		return amps(v) + " A"
+		s = amps(v) + " A"
+	default:
+		s = fmt.Sprintf("%.2f", v)
 	}
-	return fmt.Sprintf("%.2f", v)
+	return strings.Replace(s, "-", "−", 1)
 }
 
 func signed(v float64, unit string) string {
