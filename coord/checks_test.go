@@ -39,6 +39,12 @@ func checkFile(t *testing.T, path string) *coord.Result {
 	if err != nil {
 		t.Fatal(err)
 	}
+	return checkStudy(t, s)
+}
+
+// checkStudy runs every check on a loaded study.
+func checkStudy(t *testing.T, s *coord.Study) *coord.Result {
+	t.Helper()
 	eng, err := faults.New(s.Network, s.Faults)
 	if err != nil {
 		t.Fatal(err)
@@ -231,19 +237,7 @@ func parseVariant(t *testing.T, replace ...string) *coord.Result {
 	if err != nil {
 		t.Fatal(err)
 	}
-	eng, err := faults.New(s.Network, s.Faults)
-	if err != nil {
-		t.Fatal(err)
-	}
-	topo, err := coord.NewTopology(s, eng)
-	if err != nil {
-		t.Fatal(err)
-	}
-	r, err := coord.Check(s, eng, topo)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return r
+	return checkStudy(t, s)
 }
 
 func grading(t *testing.T, r *coord.Result) coord.Finding {

@@ -8,8 +8,6 @@ import (
 	"path/filepath"
 	"strings"
 
-	"github.com/spf13/pflag"
-
 	"tripgrade/coord"
 	"tripgrade/coord/report"
 )
@@ -31,64 +29,47 @@ type checkOptions struct {
 	formats []string
 	outDir  string
 	strict  bool
+	format  *string
 }
 
-func checkFlags(name string) (*pflag.FlagSet, *checkOptions, *string, *bool) {
-	fs := pflag.NewFlagSet(name, pflag.ContinueOnError)
-	fs.SetOutput(io.Discard)
+// addCheckFlags adds the flags check and demo share.
+func addCheckFlags(c *cmdLine) *checkOptions {
 	o := &checkOptions{}
-	format := fs.String("format", "text", "table `formats`, comma-separated: text, md, csv, json (the first is printed)")
-	fs.StringVar(&o.outDir, "out", "", "also write the table in every format, and the plots, to `DIR`")
-	fs.BoolVar(&o.strict, "strict", false, "exit 1 on warnings too (checks that could not be made, CT and damage warnings)")
-	help := fs.BoolP("help", "h", false, "show this help")
-	return fs, o, format, help
+	o.format = c.fs.String("format", "text", "table `formats`, comma-separated: text, md, csv, json (the first is printed)")
+	c.fs.StringVar(&o.outDir, "out", "", "also write the table in every format, and the plots, to `DIR`")
+	c.fs.BoolVar(&o.strict, "strict", false, "exit 1 on warnings too (checks that could not be made, CT and damage warnings)")
+	return o
 }
 
-func parseFormats(s string) ([]string, error) {
-	var out []string
-	for _, f := range strings.Split(s, ",") {
+// parseFormats reads the --format list.
+func (o *checkOptions) parseFormats() error {
+	o.formats = nil
+	for _, f := range strings.Split(*o.format, ",") {
 		f = strings.TrimSpace(f)
 		if _, ok := findingWriters[f]; !ok {
-			return nil, fmt.Errorf("--format %q: want text, md, csv or json", f)
+			return fmt.Errorf("--format %q: want text, md, csv or json", f)
 		}
-		out = append(out, f)
+		o.formats = append(o.formats, f)
 	}
-	return out, nil
+	return nil
 }
 
 // runCheck is "tripgrade check STUDY.toml": the whole audit.
 func runCheck(args []string, stdout, stderr io.Writer) int {
-	fs, o, format, help := checkFlags("check")
-	usage := func(w io.Writer) {
-		fmt.Fprintln(w, "usage: tripgrade check STUDY.toml [--format text|md|csv|json[,...]] [--out DIR] [--strict]")
-		fmt.Fprintln(w, "")
-		fmt.Fprintln(w, "Checks grading margins of every backup pair over the whole fault range, primary and")
-		fmt.Fprintln(w, "backup sensitivity, load margin, instantaneous reach, inrush, equipment damage and")
-		fmt.Fprintln(w, "the settings against their ranges and CTs. Exit 0: nothing fails; 1: a check fails;")
-		fmt.Fprintln(w, "2: the study or the command line is wrong.")
-		fmt.Fprintln(w, "")
-		fmt.Fprint(w, fs.FlagUsages())
+	c := newCmdLine("check", `usage: tripgrade check STUDY.toml [--format text|md|csv|json[,...]] [--out DIR] [--strict]
+
+Checks grading margins of every backup pair over the whole fault range, primary and
+backup sensitivity, load margin, instantaneous reach, inrush, equipment damage and
+the settings against their ranges and CTs. Exit 0: nothing fails; 1: a check fails;
+2: the study or the command line is wrong.`)
+	o := addCheckFlags(c)
+	if code, done := c.parse(args, 1, "exactly one study file", stdout, stderr); done {
+		return code
 	}
-	if err := fs.Parse(args); err != nil {
-		fmt.Fprintf(stderr, "tripgrade check: %v\n", err)
-		usage(stderr)
-		return exitUsage
+	if err := o.parseFormats(); err != nil {
+		return c.fail(stderr, exitUsage, "%v", err)
 	}
-	if *help {
-		usage(stdout)
-		return exitOK
-	}
-	if fs.NArg() != 1 {
-		fmt.Fprintln(stderr, "tripgrade check: give exactly one study file")
-		usage(stderr)
-		return exitUsage
-	}
-	var err error
-	if o.formats, err = parseFormats(*format); err != nil {
-		fmt.Fprintf(stderr, "tripgrade check: %v\n", err)
-		return exitUsage
-	}
-	l, ok := loadStudy(fs.Arg(0), stderr)
+	l, ok := loadStudy(c.fs.Arg(0), stderr)
 	if !ok {
 		return exitUsage
 	}

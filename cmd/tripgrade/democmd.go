@@ -16,30 +16,19 @@ import (
 // runDemo is "tripgrade demo": the whole check on an example study
 // embedded in the binary.
 func runDemo(args []string, stdout, stderr io.Writer) int {
-	fs0, o, format, help := checkFlags("demo")
-	name := fs0.String("example", examples.Demo, "which embedded example `study` to check")
-	list := fs0.Bool("list", false, "list the embedded examples and exit")
-	usage := func(w io.Writer) {
-		fmt.Fprintln(w, "usage: tripgrade demo [--example NAME] [--format ...] [--out DIR] [--strict]")
-		fmt.Fprintln(w, "")
-		fmt.Fprintln(w, "Runs \"tripgrade check\" on an invented example study built into the program. The")
-		fmt.Fprintf(w, "default, %s, has deliberate setting mistakes, so it exits 1.\n", examples.Demo)
-		fmt.Fprintln(w, "")
-		fmt.Fprint(w, fs0.FlagUsages())
-	}
-	if err := fs0.Parse(args); err != nil {
-		fmt.Fprintf(stderr, "tripgrade demo: %v\n", err)
-		usage(stderr)
-		return exitUsage
-	}
-	if *help {
-		usage(stdout)
-		return exitOK
+	c := newCmdLine("demo", fmt.Sprintf(`usage: tripgrade demo [--example NAME] [--format ...] [--out DIR] [--strict]
+
+Runs "tripgrade check" on an invented example study built into the program. The
+default, %s, has deliberate setting mistakes, so it exits 1.`, examples.Demo))
+	o := addCheckFlags(c)
+	name := c.fs.String("example", strings.TrimSuffix(examples.Demo, ".toml"), "which embedded example `study` to check")
+	list := c.fs.Bool("list", false, "list the embedded examples and exit")
+	if code, done := c.parse(args, 0, "no study file (use tripgrade check STUDY.toml for a file)", stdout, stderr); done {
+		return code
 	}
 	names, err := exampleNames()
 	if err != nil {
-		fmt.Fprintf(stderr, "tripgrade demo: %v\n", err)
-		return exitUsage
+		return c.fail(stderr, exitUsage, "%v", err)
 	}
 	if *list {
 		for _, n := range names {
@@ -47,36 +36,27 @@ func runDemo(args []string, stdout, stderr io.Writer) int {
 		}
 		return exitOK
 	}
-	if fs0.NArg() != 0 {
-		fmt.Fprintln(stderr, "tripgrade demo: takes no study file (use tripgrade check STUDY.toml)")
-		return exitUsage
+	if err := o.parseFormats(); err != nil {
+		return c.fail(stderr, exitUsage, "%v", err)
 	}
-	if o.formats, err = parseFormats(*format); err != nil {
-		fmt.Fprintf(stderr, "tripgrade demo: %v\n", err)
-		return exitUsage
-	}
-	file := *name
-	if !strings.HasSuffix(file, ".toml") {
-		file += ".toml"
-	}
+	file := strings.TrimSuffix(*name, ".toml") + ".toml"
 	src, err := fs.ReadFile(examples.FS, file)
 	if err != nil {
-		fmt.Fprintf(stderr, "tripgrade demo: no example %q (the examples are: %s)\n", *name, strings.Join(names, ", "))
-		return exitUsage
+		return c.fail(stderr, exitUsage, "no example %q (the examples are: %s)", *name, strings.Join(names, ", "))
 	}
-	s, err := study.Parse(path.Join("examples", file), src, examples.FS)
+	shown := path.Join("examples", file)
+	s, err := study.Parse(shown, src, examples.FS)
 	if err != nil {
 		var el study.ErrorList
 		if errors.As(err, &el) {
 			for _, e := range el {
 				fmt.Fprintln(stderr, e)
 			}
-		} else {
-			fmt.Fprintln(stderr, err)
+			return exitUsage
 		}
-		return exitUsage
+		return c.fail(stderr, exitUsage, "%v", err)
 	}
-	l, ok := prepare(path.Join("examples", file), s, stderr)
+	l, ok := prepare(shown, s, stderr)
 	if !ok {
 		return exitUsage
 	}

@@ -91,8 +91,9 @@ func join(a, b string) string {
 	return a + "." + b
 }
 
-// stripComment removes a # comment that is not inside a string.
-func stripComment(s string) string {
+// scan walks s outside quoted strings, calling at for each byte there
+// with its index; at returns false to stop.
+func scan(s string, at func(i int, c byte) bool) {
 	var quote byte
 	for i := 0; i < len(s); i++ {
 		c := s[i]
@@ -105,34 +106,39 @@ func stripComment(s string) string {
 			}
 		case c == '"' || c == '\'':
 			quote = c
-		case c == '#':
-			return s[:i]
+		default:
+			if !at(i, c) {
+				return
+			}
 		}
 	}
-	return s
+}
+
+// stripComment removes a # comment that is not inside a string.
+func stripComment(s string) string {
+	end := len(s)
+	scan(s, func(i int, c byte) bool {
+		if c == '#' {
+			end = i
+			return false
+		}
+		return true
+	})
+	return s[:end]
 }
 
 // bracketBalance counts [ and { minus ] and } outside strings.
 func bracketBalance(s string) int {
 	d := 0
-	var quote byte
-	for i := 0; i < len(s); i++ {
-		c := s[i]
-		switch {
-		case quote != 0:
-			if c == '\\' && quote == '"' {
-				i++
-			} else if c == quote {
-				quote = 0
-			}
-		case c == '"' || c == '\'':
-			quote = c
-		case c == '[' || c == '{':
+	scan(s, func(_ int, c byte) bool {
+		switch c {
+		case '[', '{':
 			d++
-		case c == ']' || c == '}':
+		case ']', '}':
 			d--
 		}
-	}
+		return true
+	})
 	return d
 }
 
