@@ -7,17 +7,21 @@ import (
 	"tripgrade/faults"
 )
 
-// owner returns the first device (in study order) whose zone contains
-// branch b, or −1.
-func (c *checker) owner(b int) int {
+// owners returns, per branch, the first device (in study order) whose
+// zone contains it, or −1.
+func (c *checker) owners() []int {
+	own := make([]int, c.s.Network.BranchCount())
+	for b := range own {
+		own[b] = -1
+	}
 	for i, z := range c.topo.Zones {
-		for _, zb := range z.Branches {
-			if zb == b {
-				return i
+		for _, b := range z.Branches {
+			if own[b] < 0 {
+				own[b] = i
 			}
 		}
 	}
-	return -1
+	return own
 }
 
 // damage: for every transformer and cable with withstand data, the device
@@ -28,12 +32,13 @@ func (c *checker) owner(b int) int {
 func (c *checker) damage() ([]Finding, error) {
 	n := c.s.Network
 	var out []Finding
+	own := c.owners()
 	for b, eq := range c.s.Equipment {
 		if eq == nil || (eq.Damage[0] == nil && eq.Cable == nil) {
 			continue
 		}
 		name := n.BranchName(b)
-		dev := c.owner(b)
+		dev := own[b]
 		if dev < 0 {
 			f := unchecked(Damage, "no device's zone holds it: it is unprotected in this study")
 			f.Device, f.Other = "-", name

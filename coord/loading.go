@@ -80,7 +80,7 @@ func TransformersEnergised(s *Study, t *Topology, i int) []int {
 	for len(queue) > 0 {
 		x := queue[0]
 		queue = queue[1:]
-		for b := 0; b < n.BranchCount(); b++ {
+		for _, b := range t.BranchesAt(x) {
 			if b == d.Point.Branch {
 				continue
 			}

@@ -35,6 +35,8 @@ type Topology struct {
 	// beyond lists, per device, every bus forward of it whatever devices
 	// lie between (for the load through it).
 	beyond [][]int
+	// adj lists the branches at each bus.
+	adj [][]int
 }
 
 // NewTopology finds the downstream end of every branch from the fault
@@ -59,6 +61,7 @@ func NewTopology(s *Study, eng *faults.Engine) (*Topology, error) {
 		adj[f] = append(adj[f], b)
 		adj[to] = append(adj[to], b)
 	}
+	t.adj = adj
 	w := walker{n: n, t: t, at: at, adj: adj}
 	t.Zones = make([]Zone, len(s.Devices))
 	t.beyond = make([][]int, len(s.Devices))
@@ -222,3 +225,6 @@ func (w *walker) beyond(d Device) []int {
 // Beyond returns every bus forward of device i, whatever devices lie
 // between: the buses whose loads flow through it.
 func (t *Topology) Beyond(i int) []int { return t.beyond[i] }
+
+// BranchesAt returns the branches that end at bus k.
+func (t *Topology) BranchesAt(k int) []int { return t.adj[k] }

@@ -1,0 +1,74 @@
+package coord_test
+
+import (
+	"fmt"
+	"testing"
+
+	"tripgrade/coord"
+	"tripgrade/curves"
+	"tripgrade/faults"
+)
+
+// radialStudy builds a 33/11 kV substation with feeders × sections of
+// cable, a standard-inverse relay with a ground stage at the start of
+// every section and a load at every section end: a study with
+// feeders·sections relays, for timing the checker.
+func radialStudy(b *testing.B, feeders, sections int) *coord.Study {
+	b.Helper()
+	dyn11, _ := faults.ParseVectorGroup("Dyn11")
+	n := &faults.Network{
+		Buses:   []faults.Bus{{Name: "HV", KV: 33}, {Name: "BB", KV: 11}},
+		Sources: []faults.Source{{Name: "grid", Bus: 0, Earthed: true, Z0Z1: 1, Max: faults.Strength{SCMVA: 1000, XR: 12}, Min: faults.Strength{SCMVA: 500, XR: 10}}},
+		Transformers: []faults.Transformer{{Name: "T", From: 0, To: 1, MVA: 60, KVFrom: 33, KVTo: 11, ZPct: 12, XR: 25, Group: dyn11,
+			NeutralTo: faults.Neutral{ZOhm: 6}}},
+	}
+	s := &coord.Study{Name: "bench", Network: n, Criteria: coord.DefaultCriteria()}
+	stage := func(q coord.Quantity, pickupA, tms float64) coord.Stage {
+		law, _ := curves.ShapeIECSI.Law()
+		c, err := curves.NewInverseTime(law, pickupA, tms)
+		if err != nil {
+			b.Fatal(err)
+		}
+		return coord.Stage{Label: "51", Measures: q, Shape: curves.ShapeIECSI, PickupA: pickupA, Multiplier: tms, Curve: c}
+	}
+	for f := 0; f < feeders; f++ {
+		prev := 1
+		for k := 0; k < sections; k++ {
+			bus := len(n.Buses)
+			n.Buses = append(n.Buses, faults.Bus{Name: fmt.Sprintf("F%d-%d", f, k), KV: 11})
+			n.Lines = append(n.Lines, faults.Line{Name: fmt.Sprintf("L%d-%d", f, k), From: prev, To: bus,
+				Z1Ohm: complex(0.25, 0.2), Z0Ohm: complex(1, 0.6)})
+			tms := 0.05 + 0.1*float64(sections-k)
+			s.Devices = append(s.Devices, coord.Device{Name: fmt.Sprintf("R%d-%d", f, k), Kind: coord.Relay,
+				Point:  faults.Point{Branch: len(n.Lines) - 1, End: faults.From},
+				CT:     coord.CT{PrimaryA: 400, SecondaryA: 1, ThermalFactor: 1},
+				Stages: []coord.Stage{stage(coord.Phase, 100+20*float64(sections-k), tms), stage(coord.Residual, 40, tms)}})
+			s.Loads = append(s.Loads, coord.Load{Bus: bus, CurrentA: 5})
+			prev = bus
+		}
+	}
+	// The transformer branch index follows the lines.
+	return s
+}
+
+func benchmarkCheck(b *testing.B, feeders, sections int) {
+	s := radialStudy(b, feeders, sections)
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		eng, err := faults.New(s.Network, s.Faults)
+		if err != nil {
+			b.Fatal(err)
+		}
+		topo, err := coord.NewTopology(s, eng)
+		if err != nil {
+			b.Fatal(err)
+		}
+		if _, err := coord.Check(s, eng, topo); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric(float64(len(s.Devices)), "devices")
+}
+
+func BenchmarkCheck100Devices(b *testing.B)  { benchmarkCheck(b, 20, 5) }
+func BenchmarkCheck1000Devices(b *testing.B) { benchmarkCheck(b, 100, 10) }
