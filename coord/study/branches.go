@@ -34,6 +34,9 @@ func (b *builder) buildLines() {
 		default:
 			b.fail(w, "type", "type = %q: want overhead or cable", r.Type)
 		}
+		if !okF || !okT || from == to {
+			b.branchBad[len(b.net.Lines)] = true
+		}
 		l.Z1Ohm, l.Z0Ohm = b.lineImpedance(w, r)
 		l.EndTempC = b.optional(w, "end_temp_c", r.EndTempC, 0, 20, 400, false)
 		eq := &coord.Equipment{Cable: b.cableWithstand(w, r, cable)}
@@ -86,6 +89,9 @@ func (b *builder) buildTransformers() {
 		if okF && okT && from == to {
 			b.fail(w, "to", "from and to are the same bus %q", r.From)
 			b.badRef = true
+		}
+		if !okF || !okT || from == to {
+			b.branchBad[len(b.raw.Lines)+i] = true
 		}
 		t.MVA = b.positive(w, "mva", r.MVA)
 		t.KVFrom = b.positive(w, "kv_from", r.KVFrom)

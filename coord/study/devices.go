@@ -22,6 +22,9 @@ func (b *builder) point(w where, branch, at string) (faults.Point, bool) {
 		b.fail(w, "branch", "branch = %q: no line or transformer of that name%s", branch, b.closest(branch, b.branch))
 		return faults.Point{}, false
 	}
+	if b.branchBad[k] {
+		return faults.Point{}, false // its ends are reported with the branch
+	}
 	from, to := b.net.BranchEnds(k)
 	fromName, toName := b.net.Buses[from].Name, b.net.Buses[to].Name
 	switch at {

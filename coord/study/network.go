@@ -23,7 +23,8 @@ type builder struct {
 	branchSeen map[string]int // branch names → line, for duplicates
 	deviceSeen map[string]int // relay and fuse names → line
 	relayRaw   []relayOrigin
-	badRef     bool // some element refers to a bus that does not exist
+	badRef     bool         // some element refers to a bus that does not exist
+	branchBad  map[int]bool // branches whose ends are already reported wrong
 }
 
 // where locates an element for messages: the indexed table path in the

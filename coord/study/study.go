@@ -48,6 +48,7 @@ func Parse(name string, src []byte, dir fs.FS) (*coord.Study, error) {
 		bus:        map[string]int{},
 		branch:     map[string]int{},
 		deviceSeen: map[string]int{},
+		branchBad:  map[int]bool{},
 	}
 	b.st.Network = b.net
 	b.build(dir)

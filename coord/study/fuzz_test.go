@@ -1,0 +1,35 @@
+package study
+
+import (
+	"os"
+	"path/filepath"
+	"testing"
+
+	"tripgrade/faults"
+)
+
+// FuzzParse feeds the loader mangled study files: whatever the input, it
+// returns a study or errors, never panics, and a study it accepts builds a
+// fault engine without panicking either.
+func FuzzParse(f *testing.F) {
+	seeds, _ := filepath.Glob("../../testdata/*/*.toml")
+	examples, _ := filepath.Glob("../../examples/*.toml")
+	for _, p := range append(seeds, examples...) {
+		if b, err := os.ReadFile(p); err == nil {
+			f.Add(b)
+		}
+	}
+	f.Add([]byte(tiny))
+	f.Fuzz(func(t *testing.T, src []byte) {
+		s, err := Parse("fuzz.toml", src, nil)
+		if err != nil {
+			if _, ok := err.(ErrorList); !ok {
+				t.Fatalf("error of type %T, want ErrorList: %v", err, err)
+			}
+			return
+		}
+		if _, err := faults.New(s.Network, s.Faults); err != nil {
+			t.Logf("accepted study does not build an engine: %v", err)
+		}
+	})
+}
