@@ -5,12 +5,13 @@ import (
 	"path/filepath"
 	"testing"
 
+	"tripgrade/coord"
 	"tripgrade/faults"
 )
 
 // FuzzParse feeds the loader mangled study files: whatever the input, it
-// returns a study or errors, never panics, and a study it accepts builds a
-// fault engine without panicking either.
+// returns a study or errors, never panics, and a study it accepts goes
+// through the fault engine and every check without panicking either.
 func FuzzParse(f *testing.F) {
 	seeds, _ := filepath.Glob("../../testdata/*/*.toml")
 	examples, _ := filepath.Glob("../../examples/*.toml")
@@ -28,8 +29,17 @@ func FuzzParse(f *testing.F) {
 			}
 			return
 		}
-		if _, err := faults.New(s.Network, s.Faults); err != nil {
+		eng, err := faults.New(s.Network, s.Faults)
+		if err != nil {
 			t.Logf("accepted study does not build an engine: %v", err)
+			return
+		}
+		topo, err := coord.NewTopology(s, eng)
+		if err != nil {
+			return
+		}
+		if _, err := coord.Check(s, eng, topo); err != nil {
+			t.Logf("check: %v", err)
 		}
 	})
 }
