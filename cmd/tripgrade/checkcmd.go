@@ -103,8 +103,8 @@ func checkLoaded(l loaded, o *checkOptions, stdout, stderr io.Writer) int {
 	return exitOK
 }
 
-// writeOutputs writes the table in every chosen format to the output
-// folder.
+// writeOutputs writes the table in every chosen format and the
+// time-current plots to the output folder.
 func writeOutputs(l loaded, res *coord.Result, tab *report.Findings, o *checkOptions, stderr io.Writer) error {
 	if err := os.MkdirAll(o.outDir, 0o755); err != nil {
 		return err
@@ -116,5 +116,5 @@ func writeOutputs(l loaded, res *coord.Result, tab *report.Findings, o *checkOpt
 			return err
 		}
 	}
-	return nil
+	return writePlots(l, res, o.outDir)
 }

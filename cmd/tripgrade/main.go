@@ -35,6 +35,7 @@ func commands() map[string]command {
 		"curve":  {"operating time of one characteristic at given currents", runCurve},
 		"demo":   {"the check on an example study built into the program", runDemo},
 		"faults": {"fault currents at every device and bus of a study", runFaults},
+		"plot":   {"time-current charts of the coordination paths through one device", runPlot},
 	}
 }
 

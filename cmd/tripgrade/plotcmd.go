@@ -1,0 +1,152 @@
+package main
+
+import (
+	"bytes"
+	"fmt"
+	"io"
+	"path/filepath"
+	"strings"
+
+	"tripgrade/coord"
+	"tripgrade/coord/tcc"
+)
+
+// runPlot is "tripgrade plot STUDY.toml --device NAME": the time–current
+// charts of the coordination paths through one device.
+func runPlot(args []string, stdout, stderr io.Writer) int {
+	c := newCmdLine("plot", `usage: tripgrade plot STUDY.toml --device NAME [--out FILE] [--format png|svg]
+
+Draws the time-current chart of the coordination path through a device: the
+curves of every device from the most downstream one back to the source, the
+fault levels, damage curves, inrush and load, and each pair's grading margin
+at its worst fault, with currents referred to the voltage of the most
+downstream device. A device on several paths (behind parallel incomers, say)
+gets one chart per path, written to FILE-1, FILE-2, ... (before the
+extension); the files written are listed on standard output. Without --out
+the file is the device's name, made safe, with the format's extension, in the
+current folder. Exit 0 when written; 2 when the study, the device or the
+command line is wrong.`)
+	device := c.fs.String("device", "", "draw the paths through the device `NAME` (required)")
+	out := c.fs.String("out", "", "write to `FILE` (default: the device name and the format's extension)")
+	format := c.fs.String("format", "", "image format, png or svg (default: from the extension of --out, else png)")
+	if code, done := c.parse(args, 1, "exactly one study file", stdout, stderr); done {
+		return code
+	}
+	if *device == "" {
+		return c.usageError(stderr, "--device NAME is required")
+	}
+	f, err := plotFormat(*format, *out)
+	if err != nil {
+		return c.usageError(stderr, "%v", err)
+	}
+	path := c.fs.Arg(0)
+	l, ok := loadStudy(path, stderr)
+	if !ok {
+		return exitUsage
+	}
+	res, err := coord.Check(l.study, l.engine, l.topo)
+	if err != nil {
+		return c.fail(stderr, exitUsage, "%v", err)
+	}
+	a, err := newAtlas(l, res)
+	if err != nil {
+		return c.fail(stderr, exitUsage, "%v", err)
+	}
+	i := a.Device(*device)
+	if i < 0 {
+		msg := fmt.Sprintf("study %q (%s) has no device %q", l.study.Name, path, *device)
+		if near := closestName(*device, deviceNames(l.study)); near != "" {
+			msg += fmt.Sprintf("; did you mean %q?", near)
+		}
+		return c.fail(stderr, exitUsage, "%s", msg)
+	}
+	charts := a.PathCharts(i)
+	files := plotFiles(*out, *device, f, len(charts))
+	for k, ch := range charts {
+		if err := writeTo(files[k], func(b *bytes.Buffer) error { return ch.Render(b, f, tcc.Settings{}) }); err != nil {
+			return c.fail(stderr, exitUsage, "%v", err)
+		}
+		fmt.Fprintln(stdout, files[k])
+	}
+	return exitOK
+}
+
+// plotFormat takes --format, or else the extension of --out, or else PNG.
+func plotFormat(format, out string) (tcc.Format, error) {
+	if format != "" {
+		return tcc.ParseFormat(format)
+	}
+	switch strings.ToLower(filepath.Ext(out)) {
+	case ".svg":
+		return tcc.SVG, nil
+	}
+	return tcc.PNG, nil
+}
+
+// plotFiles names the n files of the charts: out (or the sanitised device
+// name with the format's extension) for one chart, with "-1", "-2", ...
+// before the extension for several.
+func plotFiles(out, device string, f tcc.Format, n int) []string {
+	if out == "" {
+		out = tcc.Sanitise(device) + "." + f.Ext()
+	}
+	if n == 1 {
+		return []string{out}
+	}
+	ext := filepath.Ext(out)
+	stem := strings.TrimSuffix(out, ext)
+	files := make([]string, n)
+	for k := range files {
+		files[k] = fmt.Sprintf("%s-%d%s", stem, k+1, ext)
+	}
+	return files
+}
+
+func deviceNames(s *coord.Study) []string {
+	out := make([]string, len(s.Devices))
+	for i, d := range s.Devices {
+		out[i] = d.Name
+	}
+	return out
+}
+
+// closestName returns the name nearest to want (ignoring case) when it is
+// close enough to be a slip: within a third of its length in edits, and
+// at least one edit for short names. Ties go to the earlier name.
+func closestName(want string, names []string) string {
+	best, bestD := "", -1
+	w := strings.ToLower(want)
+	for _, n := range names {
+		d := editDistance(w, strings.ToLower(n))
+		if bestD < 0 || d < bestD {
+			best, bestD = n, d
+		}
+	}
+	limit := max(1, len([]rune(want))/3)
+	if bestD < 0 || bestD > limit {
+		return ""
+	}
+	return best
+}
+
+// editDistance is the Levenshtein distance between a and b, in runes.
+func editDistance(a, b string) int {
+	ra, rb := []rune(a), []rune(b)
+	prev := make([]int, len(rb)+1)
+	cur := make([]int, len(rb)+1)
+	for j := range prev {
+		prev[j] = j
+	}
+	for i := 1; i <= len(ra); i++ {
+		cur[0] = i
+		for j := 1; j <= len(rb); j++ {
+			cost := 1
+			if ra[i-1] == rb[j-1] {
+				cost = 0
+			}
+			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
+		}
+		prev, cur = cur, prev
+	}
+	return prev[len(rb)]
+}

@@ -1,0 +1,199 @@
+package main
+
+import (
+	"bytes"
+	"image/png"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+const (
+	kestrel    = "../../examples/kestrel-park.toml"
+	twoVoltage = "../../coord/tcc/testdata/two-voltage.toml"
+)
+
+// studyCopy writes the two-voltage test study, edited, to a temporary
+// folder and returns its path.
+func studyCopy(t *testing.T, edit func(string) string) string {
+	t.Helper()
+	src, err := os.ReadFile(twoVoltage)
+	if err != nil {
+		t.Fatal(err)
+	}
+	path := filepath.Join(t.TempDir(), "study.toml")
+	if err := os.WriteFile(path, []byte(edit(string(src))), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return path
+}
+
+// checkPNG fails unless path holds a PNG of the default chart size.
+func checkPNG(t *testing.T, path string) {
+	t.Helper()
+	data, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	img, err := png.Decode(bytes.NewReader(data))
+	if err != nil {
+		t.Fatalf("%s: %v", path, err)
+	}
+	if b := img.Bounds(); b.Dx() != 1600 || b.Dy() != 1200 {
+		t.Errorf("%s: %d × %d px, want 1600 × 1200", path, b.Dx(), b.Dy())
+	}
+}
+
+func TestPlotPathsThroughADevice(t *testing.T) {
+	dir := t.TempDir()
+	out := filepath.Join(dir, "f1.png")
+	code, stdout, stderr := runArgs("plot", kestrel, "--device", "F1", "--out", out)
+	if code != exitOK || stderr != "" {
+		t.Fatalf("exit %d, stderr %q", code, stderr)
+	}
+	files := strings.Fields(stdout)
+	if len(files) == 0 {
+		t.Fatalf("no file listed on stdout")
+	}
+	for k, f := range files {
+		want := out
+		if len(files) > 1 {
+			want = filepath.Join(dir, "f1-"+string(rune('1'+k))+".png")
+		}
+		if f != want {
+			t.Errorf("file %d: %s, want %s", k, f, want)
+		}
+		checkPNG(t, f)
+	}
+}
+
+func TestPlotOneChart(t *testing.T) {
+	path := studyCopy(t, func(s string) string { return s })
+	out := filepath.Join(t.TempDir(), "r33.png")
+	code, stdout, stderr := runArgs("plot", path, "--device", "R33", "--out", out)
+	if code != exitOK || stderr != "" || strings.TrimSpace(stdout) != out {
+		t.Fatalf("exit %d, stdout %q, stderr %q; want %s listed", code, stdout, stderr, out)
+	}
+	checkPNG(t, out)
+}
+
+func TestPlotDefaultOutIsTheSafeDeviceName(t *testing.T) {
+	path := studyCopy(t, func(s string) string { return strings.ReplaceAll(s, `"R11"`, `"../R 11/feeder"`) })
+	t.Chdir(t.TempDir())
+	code, stdout, stderr := runArgs("plot", path, "--device", "../R 11/feeder", "--format", "svg")
+	if code != exitOK || stderr != "" {
+		t.Fatalf("exit %d, stderr %q", code, stderr)
+	}
+	const want = "__R_11_feeder.svg"
+	if strings.TrimSpace(stdout) != want {
+		t.Errorf("stdout %q, want %s", stdout, want)
+	}
+	data, err := os.ReadFile(want)
+	if err != nil || !bytes.Contains(data, []byte("<svg")) {
+		t.Errorf("%s: %v, want an SVG", want, err)
+	}
+	// The format follows the extension of --out when --format is not given.
+	code, _, stderr = runArgs("plot", path, "--device", "R33", "--out", "chart.SVG")
+	if data, _ := os.ReadFile("chart.SVG"); code != exitOK || !bytes.Contains(data, []byte("<svg")) {
+		t.Errorf("--out chart.SVG: exit %d, stderr %q, want an SVG", code, stderr)
+	}
+}
+
+func TestPlotErrors(t *testing.T) {
+	cases := []struct {
+		name string
+		args []string
+		code int
+		want []string // in stderr
+		not  string
+	}{
+		{"no study", []string{"plot", "--device", "F1"}, exitUsage, []string{"give exactly one study file"}, ""},
+		{"two studies", []string{"plot", kestrel, kestrel, "--device", "F1"}, exitUsage, []string{"exactly one study file"}, ""},
+		{"no device", []string{"plot", kestrel}, exitUsage, []string{"--device NAME is required"}, ""},
+		{"bad format", []string{"plot", kestrel, "--device", "F1", "--format", "gif"}, exitUsage, []string{`format "gif": want png or svg`}, ""},
+		{"unknown flag", []string{"plot", kestrel, "--devcie", "F1"}, exitUsage, []string{"unknown flag"}, ""},
+		{"missing file", []string{"plot", "no-such-study.toml", "--device", "F1"}, exitUsage, []string{"no such file"}, ""},
+		{"near miss", []string{"plot", kestrel, "--device", "F11"}, exitUsage,
+			[]string{`study "Kestrel Park`, kestrel, `no device "F11"`, `did you mean "F1"?`}, ""},
+		{"wrong case", []string{"plot", kestrel, "--device", "ml-r"}, exitUsage, []string{`did you mean "ML-R"?`}, ""},
+		{"far off", []string{"plot", kestrel, "--device", "XYZZY-42"}, exitUsage, []string{`no device "XYZZY-42"`}, "did you mean"},
+	}
+	for _, tc := range cases {
+		t.Run(tc.name, func(t *testing.T) {
+			code, stdout, stderr := runArgs(tc.args...)
+			if code != tc.code {
+				t.Errorf("exit %d, want %d (stderr %q)", code, tc.code, stderr)
+			}
+			if stdout != "" {
+				t.Errorf("stdout %q, want nothing", stdout)
+			}
+			for _, w := range tc.want {
+				if !strings.Contains(stderr, w) {
+					t.Errorf("stderr %q lacks %q", stderr, w)
+				}
+			}
+			if tc.not != "" && strings.Contains(stderr, tc.not) {
+				t.Errorf("stderr %q holds %q", stderr, tc.not)
+			}
+		})
+	}
+}
+
+func TestPlotHelp(t *testing.T) {
+	code, stdout, _ := runArgs("plot", "--help")
+	if code != exitOK || !strings.Contains(stdout, "FILE-1, FILE-2") || !strings.Contains(stdout, "--device") {
+		t.Errorf("exit %d, help %q", code, stdout)
+	}
+	if code, stdout, _ := runArgs("help"); code != exitOK || !strings.Contains(stdout, "plot") {
+		t.Errorf("the command list lacks plot: %q", stdout)
+	}
+}
+
+func TestCheckOutWritesPlots(t *testing.T) {
+	cases := []struct {
+		name  string
+		tms   string
+		code  int
+		files []string
+	}{
+		{"passing pair: the path only", "tms = 0.5", exitOK, []string{"path-R11--R33.png"}},
+		{"failing pair: its own chart too", "tms = 0.05", exitFail, []string{"path-R11--R33.png", "pair-R11-under-R33.png"}},
+	}
+	for _, tc := range cases {
+		t.Run(tc.name, func(t *testing.T) {
+			path := studyCopy(t, func(s string) string { return strings.Replace(s, "tms = 0.5", tc.tms, 1) })
+			dir := filepath.Join(t.TempDir(), "out")
+			code, _, stderr := runArgs("check", path, "--out", dir)
+			if code != tc.code || stderr != "" {
+				t.Fatalf("exit %d, stderr %q; want exit %d", code, stderr, tc.code)
+			}
+			got, _ := filepath.Glob(filepath.Join(dir, "*.png"))
+			if len(got) != len(tc.files) {
+				t.Errorf("plots %v, want %v", got, tc.files)
+			}
+			for _, f := range tc.files {
+				checkPNG(t, filepath.Join(dir, f))
+			}
+		})
+	}
+}
+
+func TestClosestName(t *testing.T) {
+	names := []string{"F1", "F2", "ML-R", "T1-LV", "ML-TX-FUSE"}
+	cases := []struct{ in, want string }{
+		{"F11", "F1"},
+		{"f2", "F2"},
+		{"ML_R", "ML-R"},
+		{"ML-TX-FUS", "ML-TX-FUSE"},
+		{"T1LV", "T1-LV"},
+		{"Q9", ""},
+		{"completely different", ""},
+		{"", ""},
+	}
+	for _, tc := range cases {
+		if got := closestName(tc.in, names); got != tc.want {
+			t.Errorf("closestName(%q) = %q, want %q", tc.in, got, tc.want)
+		}
+	}
+}

@@ -1,0 +1,61 @@
+package tcc_test
+
+import (
+	"bytes"
+	"fmt"
+	"log"
+
+	"tripgrade/coord"
+	"tripgrade/coord/study"
+	"tripgrade/coord/tcc"
+	"tripgrade/faults"
+)
+
+// The charts of a 33/11 kV study: one path, drawn on an 11 kV axis, where
+// the 33 kV relay's curve is referred by 33/11.
+func ExampleAtlas() {
+	s, err := study.Load("testdata/two-voltage.toml")
+	if err != nil {
+		log.Fatal(err)
+	}
+	eng, err := faults.New(s.Network, s.Faults)
+	if err != nil {
+		log.Fatal(err)
+	}
+	topo, err := coord.NewTopology(s, eng)
+	if err != nil {
+		log.Fatal(err)
+	}
+	res, err := coord.Check(s, eng, topo)
+	if err != nil {
+		log.Fatal(err)
+	}
+	levels, err := coord.FaultLevels(s, eng, topo)
+	if err != nil {
+		log.Fatal(err)
+	}
+	a, err := tcc.NewAtlas(tcc.Input{Study: s, Topology: topo, Result: res, Levels: levels})
+	if err != nil {
+		log.Fatal(err)
+	}
+	for _, c := range a.Charts() {
+		var buf bytes.Buffer
+		if err := c.Render(&buf, tcc.PNG, tcc.Settings{}); err != nil {
+			log.Fatal(err)
+		}
+		fmt.Printf("%s.png: currents at %g kV, %d failing pairs\n", c.Name, c.RefKV(), c.Failing())
+		for _, tr := range c.Traces() {
+			if tr.Kind != tcc.PhaseCurve {
+				continue
+			}
+			// Each relay at 10× its pickup, on the 11 kV axis.
+			at := map[string]float64{"R11": 2000, "R33": 3000}[s.Devices[tr.Device].Name]
+			t, _ := tr.TimeAt(at)
+			fmt.Printf("%s at %g A: %.2f s\n", s.Devices[tr.Device].Name, at, t)
+		}
+	}
+	// Output:
+	// path-R11--R33.png: currents at 11 kV, 0 failing pairs
+	// R11 at 2000 A: 0.30 s
+	// R33 at 3000 A: 1.49 s
+}
