@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"strings"
+	"unicode"
 
 	"tripgrade/coord"
 	"tripgrade/curves"
@@ -48,6 +49,10 @@ func (b *builder) fail(w where, key, format string, args ...any) {
 func (b *builder) named(w where, name string, seen map[string]int, kind string) bool {
 	if strings.TrimSpace(name) == "" {
 		b.fail(w, "name", "name is missing")
+		return false
+	}
+	if strings.IndexFunc(name, unicode.IsControl) >= 0 {
+		b.fail(w, "name", "name %q contains a control character (a tab or line break?)", name)
 		return false
 	}
 	if first, dup := seen[name]; dup {

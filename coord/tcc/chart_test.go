@@ -2,9 +2,11 @@ package tcc
 
 import (
 	"bytes"
+	"encoding/xml"
 	"image"
 	"image/color"
 	"image/png"
+	"io"
 	"math"
 	"os"
 	"strings"
@@ -304,4 +306,29 @@ func chartNames(cs []*Chart) []string {
 		out[i] = c.Name
 	}
 	return out
+}
+
+// TestSVGEscapesUserText: a device name carrying markup appears as text in
+// the SVG, which stays well-formed XML.
+func TestSVGEscapesUserText(t *testing.T) {
+	a := loadAtlas(t, twoVoltage, func(s string) string {
+		return strings.Replace(s, `name = "R33"`, `name = "R33 <script>alert(1)</script> & co"`, 1)
+	})
+	var buf bytes.Buffer
+	if err := a.Charts()[0].Render(&buf, SVG, Settings{}); err != nil {
+		t.Fatal(err)
+	}
+	out := buf.String()
+	if strings.Contains(out, "<script") || !strings.Contains(out, "&lt;script&gt;") {
+		t.Errorf("device name not escaped in the SVG")
+	}
+	d := xml.NewDecoder(strings.NewReader(out))
+	for {
+		if _, err := d.Token(); err != nil {
+			if err != io.EOF {
+				t.Errorf("SVG is not well-formed XML: %v", err)
+			}
+			break
+		}
+	}
 }
