@@ -1,0 +1,47 @@
+package coord_test
+
+import (
+	"fmt"
+	"os"
+
+	"tripgrade/coord"
+	"tripgrade/coord/study"
+	"tripgrade/faults"
+)
+
+// Check finds the backup pairs of a study and judges every check; here two
+// standard-inverse relays in series whose margin is too small.
+func ExampleCheck() {
+	s, err := study.Load("../testdata/checks/grading.toml")
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	eng, err := faults.New(s.Network, s.Faults)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	topo, err := coord.NewTopology(s, eng)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	r, err := coord.Check(s, eng, topo)
+	if err != nil {
+		fmt.Fprintln(os.Stderr, err)
+		return
+	}
+	for _, p := range r.Pairs {
+		fmt.Printf("%s backs up %s\n", s.Devices[p.Upstream].Name, s.Devices[p.Downstream].Name)
+	}
+	for _, f := range r.Findings {
+		if f.Verdict == coord.Fail {
+			fmt.Printf("%s %s under %s: %.3f s %s %.3f s at %s %s %s\n", f.Verdict, f.Device, f.Other,
+				f.Measured, f.Relation, f.Required, f.Fault.Kind, f.Fault.Case, f.Fault.Place)
+		}
+	}
+	// Output:
+	// R1 backs up R2
+	// FAIL R2 under R1: 0.141 s ≥ 0.300 s at LLL max L2, B end
+}
