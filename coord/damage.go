@@ -125,7 +125,7 @@ func (c *checker) damageOf(dev int, equip string, withstand curves.Characteristi
 			undefined++
 			continue
 		}
-		if m := tw - tc; worst == nil || m < worstMargin {
+		if m := tw - tc; worst == nil || m < worstMargin-tieTolerance {
 			worst, worstT, worstW, worstMargin = &pts[i], tc, tw, m
 		}
 	}

@@ -118,7 +118,7 @@ func (c *checker) grading(p Pair) (Finding, error) {
 			return
 		}
 		evaluated++
-		if worst == nil || o.margin-o.required < best.margin-best.required {
+		if worst == nil || o.margin-o.required < best.margin-best.required-tieTolerance {
 			w := s
 			worst, best = &w, o
 		}

@@ -67,7 +67,7 @@ func (c *checker) instantaneousReach(i int) ([]Finding, error) {
 				if st.Measures == Residual {
 					a = res
 				}
-				if !worst.found || a > worst.a {
+				if !worst.found || a > worst.a*(1+tieTolerance) {
 					worst = minimum{a: a, found: true, ref: FaultRef{Kind: k, Case: faults.Max, Place: PlaceName(c.s.Network, pl), DeviceA: a, DeviceQty: st.Measures}}
 				}
 			}

@@ -45,13 +45,19 @@ func (c *checker) minFault(dev int, q Quantity, places []faults.Place) (minimum,
 			if a <= c.floorA(dev) {
 				continue
 			}
-			if !m.found || a < m.a {
+			if !m.found || a < m.a*(1-tieTolerance) {
 				m = minimum{a: a, found: true, ref: FaultRef{Kind: k, Case: faults.Min, Place: PlaceName(c.s.Network, pl), DeviceA: a, DeviceQty: q}}
 			}
 		}
 	}
 	return m, nil
 }
+
+// tieTolerance is the relative difference below which two figures count
+// as equal, so the first fault in report order keeps its place whatever
+// the rounding of the solves (theory makes some faults give equal
+// currents, e.g. LL and LLL seen across a delta–star transformer).
+const tieTolerance = 1e-9
 
 // floorA is the current below which a device is taken to see nothing: far
 // below any setting, only rounding residue of the solves.

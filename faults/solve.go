@@ -104,6 +104,7 @@ type Solution struct {
 	p     float64       // 0 for a bus or close-in fault
 	fbus  int           // bus whose zone and base the fault uses
 	zff   [3]complex128 // Thevenin impedance of the fault node per sequence
+	open  [3]bool       // no path to the reference in that sequence
 	iseq  [3]complex128 // fault currents per sequence, per unit, fault frame
 	live  bool
 }
@@ -141,18 +142,14 @@ func (e *Engine) Solve(f Fault) (Solution, error) {
 		return s, nil
 	}
 	s.live = true
-	var open [3]bool
 	for q := range nets {
 		if nets[q].row[s.i] < 0 {
-			open[q] = true
+			s.open[q] = true
 			continue
 		}
 		s.zff[q] = s.selfImpedance(q)
 	}
-	c := e.set.VoltageFactor(n.Buses[s.fbus].KV, f.Case)
-	zf := f.ZOhm / complex(e.zbase[s.fbus], 0)
-	s.iseq = sequenceCurrents(f.Kind, complex(c, 0), s.zff, open, zf)
-	return s, nil
+	return s.WithKind(f.Kind, f.ZOhm), nil
 }
 
 // selfImpedance returns the Thevenin impedance of the fault node in
@@ -253,41 +250,82 @@ func (s Solution) FaultCurrents() Currents {
 // bus into its branch, in amperes at the point's voltage and in the
 // point's phase frame.
 func (s Solution) At(pt Point) Currents {
-	var c Currents
+	return s.response(pt, s.iseq).Currents(s)
+}
+
+// Response is how the sequence currents at one measuring point follow the
+// sequence currents of faults at one place in one case: the network is
+// linear, so the point's current in each sequence is a fixed multiple of
+// the fault's. Computing it once serves every fault kind at that place
+// (see WithKind).
+type Response struct {
+	k [3]complex128 // amperes at the point per per-unit fault current, point frame
+}
+
+// Response returns the point's response to faults at this solution's
+// place and case, whatever their kind.
+func (s Solution) Response(pt Point) Response {
+	return s.response(pt, [3]complex128{1, 1, 1})
+}
+
+// response computes the response in the sequences where want is not zero.
+func (s Solution) response(pt Point, want [3]complex128) Response {
+	var r Response
 	if !s.live {
-		return c
+		return r
 	}
-	n := s.e.net
-	from, to := n.BranchEnds(pt.Branch)
+	from, to := s.e.net.BranchEnds(pt.Branch)
 	bus := from
 	if pt.End == To {
 		bus = to
 	}
-	nets := &s.e.cases[s.fault.Case]
-	for q := range nets {
-		if s.iseq[q] == 0 {
-			continue
+	for q := range r.k {
+		if want[q] != 0 && !s.open[q] {
+			r.k[q] = s.branchCurrent(q, pt, from, to)
 		}
-		c.Seq[q] = s.branchCurrent(q, pt, from, to)
 	}
 	// Rotate from the fault's frame to the point's frame: positive
 	// sequence by the zone shift between them, negative by its opposite.
-	r := s.e.rot[bus] * cmplx.Conj(s.e.rot[s.fbus])
+	rot := s.e.rot[bus] * cmplx.Conj(s.e.rot[s.fbus])
 	ib := complex(s.e.ibase[bus], 0)
-	c.Seq[zero] *= ib
-	c.Seq[pos] *= r * ib
-	c.Seq[neg] *= cmplx.Conj(r) * ib
+	r.k[zero] *= ib
+	r.k[pos] *= rot * ib
+	r.k[neg] *= cmplx.Conj(rot) * ib
+	return r
+}
+
+// Currents returns the point's currents for solution s, which must be of
+// the place and case the response was made for.
+func (r Response) Currents(s Solution) Currents {
+	var c Currents
+	for q := range c.Seq {
+		c.Seq[q] = r.k[q] * s.iseq[q]
+	}
 	return c
 }
 
-// branchCurrent returns the per-unit current of sequence q flowing from the
-// point's bus into branch pt.Branch, in the shift-free frame.
+// WithKind returns the solution of a fault of another kind and fault
+// impedance at the same place and in the same case, reusing the Thevenin
+// impedances: no factor is touched.
+func (s Solution) WithKind(k Kind, zOhm complex128) Solution {
+	s.fault.Kind, s.fault.ZOhm = k, zOhm
+	if !s.live {
+		return s
+	}
+	c := s.e.set.VoltageFactor(s.e.net.Buses[s.fbus].KV, s.fault.Case)
+	s.iseq = sequenceCurrents(k, complex(c, 0), s.zff, s.open, zOhm/complex(s.e.zbase[s.fbus], 0))
+	return s
+}
+
+// branchCurrent returns the current of sequence q flowing from the point's
+// bus into branch pt.Branch, in the shift-free frame, per unit of the
+// fault's current in that sequence.
 func (s *Solution) branchCurrent(q int, pt Point, from, to int) complex128 {
 	sn := s.e.cases[s.fault.Case][q]
 	if sn.row[from] < 0 && sn.row[to] < 0 {
 		return 0
 	}
-	ifault := s.iseq[q]
+	const ifault = 1
 	dv := func(x int) complex128 {
 		if sn.row[x] < 0 {
 			return 0

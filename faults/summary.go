@@ -15,8 +15,15 @@ type Extreme struct {
 	Found bool     // false when no fault of the set drives any current
 }
 
+// tieTolerance is the relative difference below which two currents count
+// as equal, so that the first fault offered keeps its place: faults that
+// theory makes equal (an LL fault seen across a delta–star transformer
+// gives the same largest phase current as an LLL fault) then report the
+// same fault whatever the rounding of the solves.
+const tieTolerance = 1e-9
+
 func (x *Extreme) offer(a float64, f Fault, at Currents, larger bool) {
-	if !x.Found || (larger && a > x.A) || (!larger && a < x.A) {
+	if !x.Found || (larger && a > x.A*(1+tieTolerance)) || (!larger && a < x.A*(1-tieTolerance)) {
 		*x = Extreme{A: a, Fault: f, At: at, Found: true}
 	}
 }
@@ -83,16 +90,20 @@ func (e *Engine) SummarisePoint(pt Point, places []Place) (PointSummary, error) 
 	floor := residualFloorPU * e.ibase[bus]
 	for _, pl := range places {
 		for _, cs := range Cases {
+			// One solution per place and case: the other kinds reuse its
+			// Thevenin impedances and the point's response.
+			base, err := e.Solve(e.CaseFault(pl, LLL, cs))
+			if err != nil {
+				return s, err
+			}
+			if !base.Energised() {
+				continue
+			}
+			resp := base.Response(pt)
 			for _, k := range Kinds {
-				sol, err := e.Solve(e.CaseFault(pl, k, cs))
-				if err != nil {
-					return s, err
-				}
-				if !sol.Energised() {
-					continue
-				}
-				c := sol.At(pt)
-				f := sol.Fault()
+				f := e.CaseFault(pl, k, cs)
+				sol := base.WithKind(k, f.ZOhm)
+				c := resp.Currents(sol)
 				switch {
 				case cs == Max:
 					s.PhaseMax.offer(c.PhaseMaxA(), f, c, true)
