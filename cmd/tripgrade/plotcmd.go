@@ -8,6 +8,7 @@ import (
 	"strings"
 
 	"tripgrade/coord"
+	"tripgrade/coord/study"
 	"tripgrade/coord/tcc"
 )
 
@@ -55,7 +56,7 @@ command line is wrong.`)
 	i := a.Device(*device)
 	if i < 0 {
 		msg := fmt.Sprintf("study %q (%s) has no device %q", l.study.Name, path, *device)
-		if near := closestName(*device, deviceNames(l.study)); near != "" {
+		if near := study.Closest(*device, deviceNames(l.study)); near != "" {
 			msg += fmt.Sprintf("; did you mean %q?", near)
 		}
 		return c.fail(stderr, exitUsage, "%s", msg)
@@ -108,45 +109,4 @@ func deviceNames(s *coord.Study) []string {
 		out[i] = d.Name
 	}
 	return out
-}
-
-// closestName returns the name nearest to want (ignoring case) when it is
-// close enough to be a slip: within a third of its length in edits, and
-// at least one edit for short names. Ties go to the earlier name.
-func closestName(want string, names []string) string {
-	best, bestD := "", -1
-	w := strings.ToLower(want)
-	for _, n := range names {
-		d := editDistance(w, strings.ToLower(n))
-		if bestD < 0 || d < bestD {
-			best, bestD = n, d
-		}
-	}
-	limit := max(1, len([]rune(want))/3)
-	if bestD < 0 || bestD > limit {
-		return ""
-	}
-	return best
-}
-
-// editDistance is the Levenshtein distance between a and b, in runes.
-func editDistance(a, b string) int {
-	ra, rb := []rune(a), []rune(b)
-	prev := make([]int, len(rb)+1)
-	cur := make([]int, len(rb)+1)
-	for j := range prev {
-		prev[j] = j
-	}
-	for i := 1; i <= len(ra); i++ {
-		cur[0] = i
-		for j := 1; j <= len(rb); j++ {
-			cost := 1
-			if ra[i-1] == rb[j-1] {
-				cost = 0
-			}
-			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
-		}
-		prev, cur = cur, prev
-	}
-	return prev[len(rb)]
 }

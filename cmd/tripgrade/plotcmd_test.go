@@ -7,6 +7,8 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"tripgrade/coord/study"
 )
 
 const (
@@ -179,6 +181,7 @@ func TestCheckOutWritesPlots(t *testing.T) {
 	}
 }
 
+// TestClosestName: the plot command's "did you mean" for device names.
 func TestClosestName(t *testing.T) {
 	names := []string{"F1", "F2", "ML-R", "T1-LV", "ML-TX-FUSE"}
 	cases := []struct{ in, want string }{
@@ -192,8 +195,8 @@ func TestClosestName(t *testing.T) {
 		{"", ""},
 	}
 	for _, tc := range cases {
-		if got := closestName(tc.in, names); got != tc.want {
-			t.Errorf("closestName(%q) = %q, want %q", tc.in, got, tc.want)
+		if got := study.Closest(tc.in, names); got != tc.want {
+			t.Errorf("Closest(%q) = %q, want %q", tc.in, got, tc.want)
 		}
 	}
 }

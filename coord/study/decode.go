@@ -5,7 +5,6 @@ import (
 	"math"
 	"reflect"
 	"sort"
-	"strings"
 )
 
 // decoder fills the raw schema structs from the generic tree a TOML parser
@@ -187,40 +186,4 @@ func describe(v any) string {
 		return "a table"
 	}
 	return fmt.Sprintf("%T", v)
-}
-
-// suggest proposes the known key closest to an unknown one, for typos.
-func suggest(k string, fields map[string]int) string {
-	best, bestD := "", 3
-	for f := range fields {
-		if dd := editDistance(k, f); dd < bestD || (dd == bestD && f < best) {
-			best, bestD = f, dd
-		}
-	}
-	if best == "" {
-		return ""
-	}
-	return fmt.Sprintf(" (did you mean %q?)", best)
-}
-
-// editDistance is the Levenshtein distance between a and b.
-func editDistance(a, b string) int {
-	a, b = strings.ToLower(a), strings.ToLower(b)
-	prev := make([]int, len(b)+1)
-	cur := make([]int, len(b)+1)
-	for j := range prev {
-		prev[j] = j
-	}
-	for i := 1; i <= len(a); i++ {
-		cur[0] = i
-		for j := 1; j <= len(b); j++ {
-			cost := 1
-			if a[i-1] == b[j-1] {
-				cost = 0
-			}
-			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
-		}
-		prev, cur = cur, prev
-	}
-	return prev[len(b)]
 }

@@ -1,0 +1,61 @@
+package study
+
+import (
+	"fmt"
+	"sort"
+	"strings"
+)
+
+// Closest returns the name in names nearest to want, ignoring case, when
+// it is near enough to be a slip of the keyboard: at most a third of want's
+// length in single-character edits (at least one). Ties go to the earlier
+// name; "" when none is near.
+func Closest(want string, names []string) string {
+	best, bestD := "", -1
+	w := strings.ToLower(want)
+	for _, n := range names {
+		if d := editDistance(w, strings.ToLower(n)); bestD < 0 || d < bestD {
+			best, bestD = n, d
+		}
+	}
+	if bestD < 0 || bestD > max(1, len([]rune(want))/3) {
+		return ""
+	}
+	return best
+}
+
+// suggest proposes the known name closest to an unknown one, as a
+// message suffix.
+func suggest(name string, known map[string]int) string {
+	names := make([]string, 0, len(known))
+	for k := range known {
+		names = append(names, k)
+	}
+	sort.Strings(names)
+	if c := Closest(name, names); c != "" {
+		return fmt.Sprintf(" (did you mean %q?)", c)
+	}
+	return ""
+}
+
+// editDistance is the Levenshtein distance between a and b, in runes.
+func editDistance(a, b string) int {
+	ra, rb := []rune(a), []rune(b)
+	prev := make([]int, len(rb)+1)
+	cur := make([]int, len(rb)+1)
+	for j := range prev {
+		prev[j] = j
+	}
+	for i := 1; i <= len(ra); i++ {
+		cur[0] = i
+		for j := 1; j <= len(rb); j++ {
+			cost := 1
+			if ra[i-1] == rb[j-1] {
+				cost = 0
+			}
+			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
+		}
+		prev, cur = cur, prev
+	}
+	return prev[len(rb)]
+}
