@@ -55,11 +55,7 @@ func benchmarkCheck(b *testing.B, feeders, sections int) {
 	s := radialStudy(b, feeders, sections)
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
-		eng, err := faults.New(s.Network, s.Faults)
-		if err != nil {
-			b.Fatal(err)
-		}
-		topo, err := coord.NewTopology(s, eng)
+		eng, topo, err := coord.Prepare(s)
 		if err != nil {
 			b.Fatal(err)
 		}

@@ -6,7 +6,6 @@ import (
 
 	"tripgrade/coord"
 	"tripgrade/coord/study"
-	"tripgrade/faults"
 )
 
 // Check finds the backup pairs of a study and judges every check; here two
@@ -17,12 +16,7 @@ func ExampleCheck() {
 		fmt.Println(err)
 		return
 	}
-	eng, err := faults.New(s.Network, s.Faults)
-	if err != nil {
-		fmt.Println(err)
-		return
-	}
-	topo, err := coord.NewTopology(s, eng)
+	eng, topo, err := coord.Prepare(s)
 	if err != nil {
 		fmt.Println(err)
 		return

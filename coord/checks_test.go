@@ -45,11 +45,7 @@ func checkFile(t *testing.T, path string) *coord.Result {
 // checkStudy runs every check on a loaded study.
 func checkStudy(t *testing.T, s *coord.Study) *coord.Result {
 	t.Helper()
-	eng, err := faults.New(s.Network, s.Faults)
-	if err != nil {
-		t.Fatal(err)
-	}
-	topo, err := coord.NewTopology(s, eng)
+	eng, topo, err := coord.Prepare(s)
 	if err != nil {
 		t.Fatal(err)
 	}

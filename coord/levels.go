@@ -11,19 +11,10 @@ import (
 // positions of each branch inside, and the far-end places, without
 // repeats and in a fixed order.
 func (t *Topology) Places(z Zone, n *faults.Network, set faults.Settings) []faults.Place {
-	seen := map[faults.Place]bool{}
-	var out []faults.Place
-	add := func(p faults.Place) {
-		if !seen[p] {
-			seen[p] = true
-			out = append(out, p)
-		}
-	}
+	var ps placeSet
+	add := ps.add
 	add(z.Start)
-	fr := set.LineFractions
-	if fr == nil {
-		fr = []float64{0.5}
-	}
+	fr := set.Fractions()
 	for _, b := range z.Branches {
 		up := otherEnd(t.Downstream[b])
 		add(closeIn(b, up))
@@ -43,7 +34,23 @@ func (t *Topology) Places(z Zone, n *faults.Network, set faults.Settings) []faul
 	for _, p := range z.FarEnd {
 		add(p)
 	}
-	return out
+	return ps.list
+}
+
+// placeSet collects fault places without repeats, in the order added.
+type placeSet struct {
+	seen map[faults.Place]bool
+	list []faults.Place
+}
+
+func (s *placeSet) add(p faults.Place) {
+	if s.seen == nil {
+		s.seen = map[faults.Place]bool{}
+	}
+	if !s.seen[p] {
+		s.seen[p] = true
+		s.list = append(s.list, p)
+	}
 }
 
 // FaultLevels summarises the currents every device sees over the faults of

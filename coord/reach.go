@@ -12,23 +12,16 @@ import (
 func (c *checker) reachPlaces(i int) []faults.Place {
 	z := c.topo.Zones[i]
 	n := c.s.Network
-	seen := map[faults.Place]bool{}
-	var out []faults.Place
-	add := func(p faults.Place) {
-		if !seen[p] {
-			seen[p] = true
-			out = append(out, p)
-		}
-	}
+	var ps placeSet
 	for _, p := range z.Boundary {
-		add(p)
+		ps.add(p)
 	}
 	for _, b := range z.Branches {
 		if n.IsTransformer(b) {
-			add(faults.AtBus(pointBus(n, faults.Point{Branch: b, End: c.topo.Downstream[b]})))
+			ps.add(faults.AtBus(pointBus(n, faults.Point{Branch: b, End: c.topo.Downstream[b]})))
 		}
 	}
-	return out
+	return ps.list
 }
 
 // instantaneousReach: an instantaneous stage, or a definite-time stage of

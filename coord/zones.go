@@ -72,6 +72,20 @@ func NewTopology(s *Study, eng *faults.Engine) (*Topology, error) {
 	return t, nil
 }
 
+// Prepare builds the fault engine of a study and its topology: what every
+// check, fault table and chart starts from.
+func Prepare(s *Study) (*faults.Engine, *Topology, error) {
+	eng, err := faults.New(s.Network, s.Faults)
+	if err != nil {
+		return nil, nil, err
+	}
+	t, err := NewTopology(s, eng)
+	if err != nil {
+		return nil, nil, err
+	}
+	return eng, t, nil
+}
+
 // IntoBranch reports whether a device at pt looks into its branch: it
 // sits at the branch's upstream end.
 func (t *Topology) IntoBranch(pt faults.Point) bool { return t.Downstream[pt.Branch] != pt.End }

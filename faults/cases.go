@@ -79,6 +79,15 @@ type Settings struct {
 	LineFractions []float64
 }
 
+// Fractions returns the interior line positions in use: LineFractions, or
+// the mid-point when none are given.
+func (s Settings) Fractions() []float64 {
+	if s.LineFractions == nil {
+		return []float64{0.5}
+	}
+	return s.LineFractions
+}
+
 // lowVoltageKV is the boundary of IEC 60909-0 Table 1: systems up to 1 kV
 // are low voltage.
 const lowVoltageKV = 1.0

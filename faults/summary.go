@@ -61,11 +61,7 @@ func (e *Engine) Reach(pt Point) []Place {
 	}
 	places := []Place{OnBranch(pt.Branch, near)}
 	if !n.IsTransformer(pt.Branch) {
-		fr := e.set.LineFractions
-		if fr == nil {
-			fr = []float64{0.5}
-		}
-		for _, f := range fr {
+		for _, f := range e.set.Fractions() {
 			places = append(places, OnBranch(pt.Branch, f))
 		}
 	}

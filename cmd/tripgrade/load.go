@@ -42,12 +42,7 @@ func loadStudy(path string, stderr io.Writer) (l loaded, ok bool) {
 
 // prepare builds the fault engine and the zones of a checked study.
 func prepare(path string, s *coord.Study, stderr io.Writer) (loaded, bool) {
-	eng, err := faults.New(s.Network, s.Faults)
-	if err != nil {
-		fmt.Fprintf(stderr, "%s: %v\n", path, err)
-		return loaded{}, false
-	}
-	topo, err := coord.NewTopology(s, eng)
+	eng, topo, err := coord.Prepare(s)
 	if err != nil {
 		fmt.Fprintf(stderr, "%s: %v\n", path, err)
 		return loaded{}, false

@@ -6,7 +6,6 @@ import (
 	"testing"
 
 	"tripgrade/coord"
-	"tripgrade/faults"
 )
 
 // FuzzParse feeds the loader mangled study files: whatever the input, it
@@ -29,13 +28,9 @@ func FuzzParse(f *testing.F) {
 			}
 			return
 		}
-		eng, err := faults.New(s.Network, s.Faults)
+		eng, topo, err := coord.Prepare(s)
 		if err != nil {
 			t.Logf("accepted study does not build an engine: %v", err)
-			return
-		}
-		topo, err := coord.NewTopology(s, eng)
-		if err != nil {
 			return
 		}
 		if _, err := coord.Check(s, eng, topo); err != nil {

@@ -8,7 +8,6 @@ import (
 	"tripgrade/coord"
 	"tripgrade/coord/study"
 	"tripgrade/coord/tcc"
-	"tripgrade/faults"
 )
 
 // The charts of a 33/11 kV study: one path, drawn on an 11 kV axis, where
@@ -18,11 +17,7 @@ func ExampleAtlas() {
 	if err != nil {
 		log.Fatal(err)
 	}
-	eng, err := faults.New(s.Network, s.Faults)
-	if err != nil {
-		log.Fatal(err)
-	}
-	topo, err := coord.NewTopology(s, eng)
+	eng, topo, err := coord.Prepare(s)
 	if err != nil {
 		log.Fatal(err)
 	}

@@ -14,7 +14,6 @@ import (
 
 	"tripgrade/coord"
 	"tripgrade/coord/study"
-	"tripgrade/faults"
 )
 
 // loadAtlas prepares the charts of a study file, with edit applied to its
@@ -33,11 +32,7 @@ func loadAtlas(t *testing.T, path string, edit func(string) string) *Atlas {
 	if err != nil {
 		t.Fatal(err)
 	}
-	eng, err := faults.New(s.Network, s.Faults)
-	if err != nil {
-		t.Fatal(err)
-	}
-	topo, err := coord.NewTopology(s, eng)
+	eng, topo, err := coord.Prepare(s)
 	if err != nil {
 		t.Fatal(err)
 	}
