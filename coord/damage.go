@@ -87,7 +87,7 @@ func (c *checker) damageOf(dev int, equip string, withstand curves.Characteristi
 					continue
 				}
 				eqA := sol.At(at).PhaseMaxA()
-				if eqA <= c.floorA(dev) {
+				if eqA <= 0 {
 					continue
 				}
 				dp, dr := Measured(sol.At(d.Point))

@@ -10,22 +10,22 @@ import (
 )
 
 // LoadThrough returns the maximum load current through device i: its
-// declared maximum, or the sum of the loads beyond it referred to its
-// voltage by the buses' nominal voltages.
+// declared maximum, or the sum of the loads beyond it referred to its bus
+// by the transformers' rated winding ratios.
 func LoadThrough(s *Study, t *Topology, i int) (a float64, declared bool) {
 	d := &s.Devices[i]
 	if d.MaxLoadA > 0 {
 		return d.MaxLoadA, true
 	}
 	n := s.Network
-	kv := n.Buses[DeviceBus(n, *d)].KV
+	bus := DeviceBus(n, *d)
 	beyond := map[int]bool{}
 	for _, b := range t.Beyond(i) {
 		beyond[b] = true
 	}
 	for _, l := range s.Loads {
 		if beyond[l.Bus] {
-			a += l.CurrentA * n.Buses[l.Bus].KV / kv
+			a += t.ReferA(l.CurrentA, l.Bus, bus)
 		}
 	}
 	return a, false
@@ -103,15 +103,23 @@ func TransformersEnergised(s *Study, t *Topology, i int) []int {
 }
 
 // InrushA returns the inrush current at device i, InrushMultiple × the
-// full-load current of the transformers it energises at its voltage, and
-// their total rating (0 when it energises none).
+// rated current of the energised winding of each transformer it energises,
+// referred to the device's bus by winding ratios, and their total rating
+// (0 when it energises none).
 func InrushA(s *Study, t *Topology, i int) (a, mva float64) {
 	n := s.Network
+	bus := DeviceBus(n, s.Devices[i])
 	for _, b := range TransformersEnergised(s, t, i) {
-		mva += n.Transformer(b).MVA
+		tr := n.Transformer(b)
+		mva += tr.MVA
+		// The energised winding is the transformer's upstream end.
+		kv, at := tr.KVFrom, tr.From
+		if t.Downstream[b] == faults.From {
+			kv, at = tr.KVTo, tr.To
+		}
+		a += t.ReferA(s.Criteria.InrushMultiple*tr.MVA*1000/(math.Sqrt(3)*kv), at, bus)
 	}
-	kv := n.Buses[DeviceBus(n, s.Devices[i])].KV
-	return s.Criteria.InrushMultiple * mva * 1000 / (math.Sqrt(3) * kv), mva
+	return a, mva
 }
 
 // inrush: the device's phase stages (a fuse's melting curve) do not

@@ -42,7 +42,7 @@ func (c *checker) minFault(dev int, q Quantity, places []faults.Place) (minimum,
 			if q == Residual {
 				a = res
 			}
-			if a <= c.floorA(dev) {
+			if a <= 0 {
 				continue
 			}
 			if !m.found || a < m.a*(1-tieTolerance) {
@@ -59,11 +59,6 @@ func (c *checker) minFault(dev int, q Quantity, places []faults.Place) (minimum,
 // currents, e.g. LL and LLL seen across a delta–star transformer).
 const tieTolerance = 1e-9
 
-// floorA is the current below which a device is taken to see nothing: far
-// below any setting, only rounding residue of the solves.
-func (c *checker) floorA(dev int) float64 {
-	return 1e-9 * c.eng.BaseCurrentA(DeviceBus(c.s.Network, c.s.Devices[dev]))
-}
 
 // primarySensitivity: the smallest fault at the far end of the device's own
 // zone, in the minimum case, is at least sensitivity_primary × the lowest

@@ -37,6 +37,10 @@ type Topology struct {
 	beyond [][]int
 	// adj lists the branches at each bus.
 	adj [][]int
+	// ratioKV is each bus's voltage by rated winding ratios
+	// (faults.Network.RatioKV), for referring currents across
+	// transformers.
+	ratioKV []float64
 }
 
 // NewTopology finds the downstream end of every branch from the fault
@@ -62,6 +66,7 @@ func NewTopology(s *Study, eng *faults.Engine) (*Topology, error) {
 		adj[to] = append(adj[to], b)
 	}
 	t.adj = adj
+	t.ratioKV = n.RatioKV()
 	w := walker{n: n, t: t, at: at, adj: adj}
 	t.Zones = make([]Zone, len(s.Devices))
 	t.beyond = make([][]int, len(s.Devices))
@@ -239,6 +244,17 @@ func (w *walker) beyond(d Device) []int {
 // Beyond returns every bus forward of device i, whatever devices lie
 // between: the buses whose loads flow through it.
 func (t *Topology) Beyond(i int) []int { return t.beyond[i] }
+
+// ReferA returns a current of a amperes at bus from referred to bus to by
+// the rated winding ratios of the transformers between them (the ratio the
+// fault engine carries currents by), not by nominal bus voltages.
+func (t *Topology) ReferA(a float64, from, to int) float64 {
+	return a * t.ratioKV[from] / t.ratioKV[to]
+}
+
+// RatioKV returns bus k's voltage by rated winding ratios: the voltage to
+// name when a current is referred to bus k with ReferA.
+func (t *Topology) RatioKV(k int) float64 { return t.ratioKV[k] }
 
 // BranchesAt returns the branches that end at bus k.
 func (t *Topology) BranchesAt(k int) []int { return t.adj[k] }

@@ -253,6 +253,15 @@ func (s Solution) At(pt Point) Currents {
 	return s.response(pt, s.iseq).Currents(s)
 }
 
+// negligibleShare is the share of a fault's own sequence current below
+// which a point's current in that sequence is rounding residue of the
+// solves, not a current: a point that carries less than 1e-10 of the
+// fault's current (a zero-sequence current that an open path cannot carry,
+// a source on the far side of a delta winding) carries none. The share is
+// a ratio of currents, so it does not depend on base_mva, and a fault that
+// itself draws a tiny current still gives honest tiny currents.
+const negligibleShare = 1e-10
+
 // Response is how the sequence currents at one measuring point follow the
 // sequence currents of faults at one place in one case: the network is
 // linear, so the point's current in each sequence is a fixed multiple of
@@ -282,6 +291,9 @@ func (s Solution) response(pt Point, want [3]complex128) Response {
 	for q := range r.k {
 		if want[q] != 0 && !s.open[q] {
 			r.k[q] = s.branchCurrent(q, pt, from, to)
+			if cmplx.Abs(r.k[q]) < negligibleShare {
+				r.k[q] = 0
+			}
 		}
 	}
 	// Rotate from the fault's frame to the point's frame: positive

@@ -68,22 +68,13 @@ func (e *Engine) Reach(pt Point) []Place {
 	return append(places, AtBus(far))
 }
 
-// residualFloorPU is the per-unit residual current below which a fault is
-// taken to drive no residual current through a point. Residual currents
-// that a zero-sequence path cannot carry come out exactly zero; the floor
-// only guards against rounding residue.
-const residualFloorPU = 1e-9
-
 // SummarisePoint solves every fault kind at every place in both cases and
 // keeps the extremes seen at pt.
 func (e *Engine) SummarisePoint(pt Point, places []Place) (PointSummary, error) {
 	s := PointSummary{Point: pt}
-	from, to := e.net.BranchEnds(pt.Branch)
-	bus := from
-	if pt.End == To {
-		bus = to
-	}
-	floor := residualFloorPU * e.ibase[bus]
+	// Solution responses are exactly zero where a point carries no current
+	// of a sequence (rounding residue is cut off there: negligibleShare).
+	const floor = 0
 	for _, pl := range places {
 		for _, cs := range Cases {
 			// One solution per place and case: the other kinds reuse its

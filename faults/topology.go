@@ -177,3 +177,61 @@ func (n *Network) Islands() [][]string {
 	sort.Slice(out, func(i, j int) bool { return out[i][0] < out[j][0] })
 	return out
 }
+
+// RatioKV returns, per bus, the voltage of its zone when every transformer
+// is taken at its rated winding ratio: each connected part starts from its
+// highest-voltage bus at that bus's nominal voltage, lines keep the
+// voltage, and a transformer multiplies it by kv_to/kv_from. A current I
+// at bus x is I·v[x]/v[y] referred to bus y, as the engine carries it
+// across transformers (an off-nominal ratio is modelled as an ideal
+// transformer). Where parallel routes disagree (transformers in parallel
+// with different ratios) the first route found in breadth-first order from
+// the starting bus sets the voltage.
+func (n *Network) RatioKV() []float64 {
+	nb := len(n.Buses)
+	type edge struct {
+		to    int
+		ratio float64 // v[to] = v[from]·ratio
+	}
+	adj := make([][]edge, nb)
+	for b := 0; b < n.BranchCount(); b++ {
+		f, t := n.BranchEnds(b)
+		r := 1.0
+		if n.IsTransformer(b) {
+			tr := n.Transformer(b)
+			r = tr.KVTo / tr.KVFrom
+		}
+		adj[f] = append(adj[f], edge{t, r})
+		adj[t] = append(adj[t], edge{f, 1 / r})
+	}
+	// Start each part from its highest-voltage bus (the first of equals).
+	label := components(n, func(int) bool { return true })
+	start := map[int]int{}
+	for i, l := range label {
+		if s, ok := start[l]; !ok || n.Buses[i].KV > n.Buses[s].KV {
+			start[l] = i
+		}
+	}
+	v := make([]float64, nb)
+	seen := make([]bool, nb)
+	var queue []int
+	for i := range n.Buses {
+		s := start[label[i]]
+		if seen[s] {
+			continue
+		}
+		seen[s], v[s] = true, n.Buses[s].KV
+		queue = append(queue[:0], s)
+		for len(queue) > 0 {
+			u := queue[0]
+			queue = queue[1:]
+			for _, e := range adj[u] {
+				if !seen[e.to] {
+					seen[e.to], v[e.to] = true, v[u]*e.ratio
+					queue = append(queue, e.to)
+				}
+			}
+		}
+	}
+	return v
+}
