@@ -59,7 +59,6 @@ func (c *checker) minFault(dev int, q Quantity, places []faults.Place) (minimum,
 // currents, e.g. LL and LLL seen across a delta–star transformer).
 const tieTolerance = 1e-9
 
-
 // primarySensitivity: the smallest fault at the far end of the device's own
 // zone, in the minimum case, is at least sensitivity_primary × the lowest
 // pickup of each stage group.
