@@ -107,6 +107,11 @@ type Solution struct {
 	open  [3]bool       // no path to the reference in that sequence
 	iseq  [3]complex128 // fault currents per sequence, per unit, fault frame
 	live  bool
+	// out describes the open branch ends of a solution from SolveOpen (nil
+	// for the intact network).
+	out *outageFault
+	// sc caches transfer impedances per bus (see Use); nil: no cache.
+	sc *Scratch
 }
 
 // Solve computes the sequence currents of fault f.
@@ -165,8 +170,19 @@ func (s *Solution) selfImpedance(q int) complex128 {
 }
 
 // transfer returns Z_xf, the transfer impedance from bus x to the fault
-// node, in sequence q.
+// node, in sequence q, from the scratch cache when one is attached.
 func (s *Solution) transfer(q, x int) complex128 {
+	if s.sc != nil {
+		return s.sc.transfer(s, q, x)
+	}
+	return s.transferUncached(q, x)
+}
+
+// transferUncached computes Z_xf in sequence q.
+func (s *Solution) transferUncached(q, x int) complex128 {
+	if s.out != nil {
+		return s.out.transfer(q, x)
+	}
 	sn := s.e.cases[s.fault.Case][q]
 	if s.p == 0 {
 		return sn.z(x, s.i)
@@ -269,6 +285,7 @@ const negligibleShare = 1e-10
 // (see WithKind).
 type Response struct {
 	k [3]complex128 // amperes at the point per per-unit fault current, point frame
+	v voltageResponse
 }
 
 // Response returns the point's response to faults at this solution's
@@ -303,8 +320,13 @@ func (s Solution) response(pt Point, want [3]complex128) Response {
 	r.k[zero] *= ib
 	r.k[pos] *= rot * ib
 	r.k[neg] *= cmplx.Conj(rot) * ib
+	r.v = s.voltageResponse(bus)
 	return r
 }
+
+// Voltages returns the voltages at the point's bus for solution s, which
+// must be of the place and case the response was made for.
+func (r Response) Voltages(s Solution) Voltages { return r.v.voltages(s) }
 
 // Currents returns the point's currents for solution s, which must be of
 // the place and case the response was made for.
@@ -336,6 +358,11 @@ func (s *Solution) branchCurrent(q int, pt Point, from, to int) complex128 {
 	sn := s.e.cases[s.fault.Case][q]
 	if sn.row[from] < 0 && sn.row[to] < 0 {
 		return 0
+	}
+	if s.out != nil {
+		if c, done := s.out.branchCurrent(s, q, pt); done {
+			return c
+		}
 	}
 	const ifault = 1
 	dv := func(x int) complex128 {
