@@ -31,7 +31,7 @@ func TestVoltagesSingleSource(t *testing.T) {
 			t.Fatal(err)
 		}
 		i := sol.FaultCurrents().Seq // amperes at 11 kV
-		wantA := [3]complex128{-zs0 * i[0], e - zs*i[1], -zs*i[2]}
+		wantA := [3]complex128{-zs0 * i[0], e - zs*i[1], -zs * i[2]}
 		wantB := [3]complex128{-(zs0 + zl0) * i[0], e - (zs+zl)*i[1], -(zs + zl) * i[2]}
 		for bus, want := range [][3]complex128{wantA, wantB} {
 			got := sol.VoltageAt(bus).Seq
