@@ -25,6 +25,12 @@ func Check(s *Study, eng *faults.Engine, t *Topology) (*Result, error) {
 	r.Pairs, r.Excluded = derivePairs(s, t)
 	add := func(fs ...Finding) { r.Findings = append(r.Findings, fs...) }
 
+	fs, notes, err := c.discrimination()
+	if err != nil {
+		return nil, err
+	}
+	r.Notes = notes
+	add(fs...)
 	for _, p := range r.Pairs {
 		f, err := c.grading(p)
 		if err != nil {
@@ -63,7 +69,7 @@ func Check(s *Study, eng *faults.Engine, t *Topology) (*Result, error) {
 			add(f)
 		}
 	}
-	fs, err := c.damage()
+	fs, err = c.damage()
 	if err != nil {
 		return nil, err
 	}

@@ -2,6 +2,7 @@ package coord
 
 import (
 	"math"
+	"math/cmplx"
 
 	"tripgrade/curves"
 	"tripgrade/faults"
@@ -24,8 +25,12 @@ const (
 type Timer struct {
 	Dev *Device
 	// Phase and Ground are the fastest of the relay's phase and ground
-	// stages (nil when it has none), per Band.
+	// stages (nil when it has none), per Band, whatever their direction.
 	Phase, Ground [3]curves.Characteristic
+	// phaseDir and groundDir are the fastest stages of each Direction, per
+	// Band (nil where there are none).
+	phaseDir, groundDir [3][3]curves.Characteristic
+	directional         bool
 }
 
 // NewTimer prepares a device's characteristics.
@@ -35,11 +40,17 @@ func NewTimer(d *Device) *Timer {
 		return t
 	}
 	var ph, gr curves.Fastest
+	var phD, grD [3]curves.Fastest
 	for _, s := range d.Stages {
 		if s.Measures == Phase {
 			ph = append(ph, s.Curve)
+			phD[s.Direction] = append(phD[s.Direction], s.Curve)
 		} else {
 			gr = append(gr, s.Curve)
+			grD[s.Direction] = append(grD[s.Direction], s.Curve)
+		}
+		if s.Direction != NonDirectional {
+			t.directional = true
 		}
 	}
 	set := func(dst *[3]curves.Characteristic, f curves.Fastest) {
@@ -58,7 +69,115 @@ func NewTimer(d *Device) *Timer {
 	}
 	set(&t.Phase, ph)
 	set(&t.Ground, gr)
+	for dir := range phD {
+		set(&t.phaseDir[dir], phD[dir])
+		set(&t.groundDir[dir], grD[dir])
+	}
 	return t
+}
+
+// Directional reports whether any stage of the device is directional.
+func (t *Timer) Directional() bool { return t.directional }
+
+// Directions returns the decisions of the relay's phase elements and of
+// its ground element for what it sees.
+func (t *Timer) Directions(s *Seen) (phase [3]Direction, ground Direction) {
+	return t.Dev.Dir.PhaseDirections(s), t.Dev.Dir.GroundDirection(s)
+}
+
+// OperateSeen returns the relay's operating time (without the breaker) in
+// a band, or a fuse's total clearing time, for what the device sees: each
+// phase stage on the largest phase current whose element looks its way
+// (a non-directional stage on the largest phase current), each ground
+// stage on 3I0 when the ground element looks its way.
+func (t *Timer) OperateSeen(s *Seen, b Band) (float64, curves.Status) {
+	if t.Dev.Kind == Fuse {
+		return t.Dev.Clear.Time(s.PhaseA())
+	}
+	return t.relaySeen(s, b, allStages)
+}
+
+// MeltSeen returns a fuse's minimum melting time (for a relay, its
+// operating time) for what it sees.
+func (t *Timer) MeltSeen(s *Seen, b Band) (float64, curves.Status) {
+	if t.Dev.Kind == Fuse {
+		return t.Dev.Melt.Time(s.PhaseA())
+	}
+	return t.relaySeen(s, b, allStages)
+}
+
+// ClearingSeen returns the time to clear for what the device sees: a
+// relay's operating time plus its breaker's, a fuse's clearing time.
+func (t *Timer) ClearingSeen(s *Seen, b Band) (float64, curves.Status) {
+	x, st := t.OperateSeen(s, b)
+	if t.Dev.Kind == Relay && st == curves.Operates {
+		x += t.Dev.BreakerS
+	}
+	return x, st
+}
+
+// Which of a relay's stages to time.
+const (
+	phaseStages  = 1
+	groundStages = 2
+	allStages    = phaseStages | groundStages
+)
+
+func (t *Timer) relaySeen(s *Seen, b Band, which int) (float64, curves.Status) {
+	phaseA, residualA := s.PhaseA(), s.groundA(t.Dev)
+	if !t.directional {
+		ph, gr := t.Phase[b], t.Ground[b]
+		if which&phaseStages == 0 {
+			ph = nil
+		}
+		if which&groundStages == 0 {
+			gr = nil
+		}
+		return fastest(ph, phaseA, gr, residualA)
+	}
+	var quantity [3]float64 // the phase current each direction's stages see
+	quantity[NonDirectional] = phaseA
+	pd, gd := t.Directions(s)
+	for p, d := range pd {
+		if d != NonDirectional {
+			quantity[d] = math.Max(quantity[d], cmplx.Abs(s.I[p]))
+		}
+	}
+	var ground [3]float64
+	ground[NonDirectional] = residualA
+	if gd != NonDirectional {
+		ground[gd] = residualA
+	}
+	best, status := math.Inf(1), curves.Undefined
+	anyNoTrip, any := false, false
+	for dir := range quantity {
+		for qi, q := range [2]struct {
+			c curves.Characteristic
+			a float64
+		}{{t.phaseDir[dir][b], quantity[dir]}, {t.groundDir[dir][b], ground[dir]}} {
+			if q.c == nil || which&(1<<qi) == 0 {
+				continue
+			}
+			any = true
+			x, st := q.c.Time(q.a)
+			switch st {
+			case curves.Operates:
+				if x < best {
+					best = x
+				}
+				status = curves.Operates
+			case curves.NoTrip:
+				anyNoTrip = true
+			}
+		}
+	}
+	switch {
+	case status == curves.Operates:
+		return best, curves.Operates
+	case anyNoTrip || !any:
+		return math.Inf(1), curves.NoTrip
+	}
+	return math.NaN(), curves.Undefined
 }
 
 // Measured returns the current each quantity of the device sees.

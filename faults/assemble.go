@@ -31,6 +31,9 @@ type seqData struct {
 	shunt  []complex128
 	branch []block
 	series []complex128 // series impedance of each line (0 for transformers)
+	// srcY and genY are each source's and generator's own shunt
+	// admittance (already in shunt), for taking one out (SolveOpen).
+	srcY, genY []complex128
 }
 
 func newSeqData(nb, nbr int) *seqData {
@@ -50,11 +53,13 @@ func assemble(n *Network, set Settings, cs Case) (caseData, error) {
 	var d caseData
 	for s := range d {
 		d[s] = newSeqData(nb, nbr)
+		d[s].srcY = make([]complex128, len(n.Sources))
+		d[s].genY = make([]complex128, len(n.Generators))
 	}
 	base := n.baseMVA()
 	zb := func(bus int) float64 { kv := n.Buses[bus].KV; return kv * kv / base }
 
-	for _, s := range n.Sources {
+	for si, s := range n.Sources {
 		st := s.Max
 		if cs == Min {
 			st = s.Min
@@ -70,6 +75,7 @@ func assemble(n *Network, set Settings, cs Case) (caseData, error) {
 		z1pu := z1 / complex(zb(s.Bus), 0)
 		d[pos].shunt[s.Bus] += 1 / z1pu
 		d[neg].shunt[s.Bus] += 1 / z1pu
+		d[pos].srcY[si], d[neg].srcY[si] = 1/z1pu, 1/z1pu
 		if s.Earthed {
 			z0 := st.Z0Ohm
 			if z0 == 0 {
@@ -83,10 +89,11 @@ func assemble(n *Network, set Settings, cs Case) (caseData, error) {
 				return d, fmt.Errorf("source %q: earthed but has no zero-sequence impedance", s.Name)
 			}
 			d[zero].shunt[s.Bus] += complex(zb(s.Bus), 0) / z0
+			d[zero].srcY[si] = complex(zb(s.Bus), 0) / z0
 		}
 	}
 
-	for _, g := range n.Generators {
+	for gi, g := range n.Generators {
 		if (cs == Max && !g.InMax) || (cs == Min && !g.InMin) {
 			continue
 		}
@@ -107,12 +114,14 @@ func assemble(n *Network, set Settings, cs Case) (caseData, error) {
 		scale := complex(k*zr/100/zb(g.Bus), 0)
 		d[pos].shunt[g.Bus] += 1 / (complex(r, g.XdPct) * scale)
 		d[neg].shunt[g.Bus] += 1 / (complex(r, x2) * scale)
+		d[pos].genY[gi], d[neg].genY[gi] = 1/(complex(r, g.XdPct)*scale), 1/(complex(r, x2)*scale)
 		if !g.Earth.Isolated {
 			z0 := complex(r, g.X0Pct)*scale + 3*g.Earth.ZOhm/complex(zb(g.Bus), 0)
 			if z0 == 0 {
 				return d, fmt.Errorf("generator %q: earthed star point with zero zero-sequence impedance", g.Name)
 			}
 			d[zero].shunt[g.Bus] += 1 / z0
+			d[zero].genY[gi] = 1 / z0
 		}
 	}
 

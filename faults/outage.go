@@ -6,9 +6,22 @@ import (
 	"sort"
 )
 
+// Opening is what has been disconnected from the network during a fault:
+// branch ends whose breakers (or fuses) have opened, and sources and
+// generators (by index into the Network's lists) that their own
+// protection has taken out.
+type Opening struct {
+	Ends       []Point
+	Sources    []int
+	Generators []int
+}
+
+// Empty reports whether nothing is open.
+func (o Opening) Empty() bool { return len(o.Ends)+len(o.Sources)+len(o.Generators) == 0 }
+
 // SolveOpen solves fault f with the breakers at the given branch ends
-// open: the network a fault sees after the first devices have cleared
-// their part of it. A branch open at one end hangs from its other bus and
+// open (and the given sources and generators out): the network a fault
+// sees after the first devices have cleared their part of it. A branch open at one end hangs from its other bus and
 // carries only what its own shunt paths draw (a YNd transformer still
 // earths its star side); a branch open at both ends is out of the network.
 // A fault on a branch whose open end separates it from its bus is fed
@@ -25,21 +38,31 @@ import (
 // singular; it is then earthed through an admittance 1e-9 of the removed
 // one, which leaves the rest unchanged to that order and makes the fault's
 // impedance in the cut-off part practically infinite.
-func (e *Engine) SolveOpen(f Fault, open []Point) (Solution, error) {
-	if len(open) == 0 {
+func (e *Engine) SolveOpen(f Fault, o Opening) (Solution, error) {
+	if o.Empty() {
 		return e.Solve(f)
 	}
 	n := e.net
-	for _, pt := range open {
+	for _, pt := range o.Ends {
 		if pt.Branch < 0 || pt.Branch >= n.BranchCount() || pt.End > To {
 			return Solution{}, fmt.Errorf("open branch end %+v out of range", pt)
+		}
+	}
+	for _, i := range o.Sources {
+		if i < 0 || i >= len(n.Sources) {
+			return Solution{}, fmt.Errorf("source %d out of range", i)
+		}
+	}
+	for _, i := range o.Generators {
+		if i < 0 || i >= len(n.Generators) {
+			return Solution{}, fmt.Errorf("generator %d out of range", i)
 		}
 	}
 	s, err := e.Solve(f)
 	if err != nil || !s.live {
 		return s, err
 	}
-	of := newOutageFault(e, &s, open)
+	of := newOutageFault(e, &s, o)
 	dead := func() (Solution, error) {
 		s.live, s.iseq, s.out = false, [3]complex128{}, nil
 		return s, nil
@@ -84,6 +107,7 @@ type outageFault struct {
 	e       *Engine
 	openEnd map[Point]bool
 	removed map[int]bool // branches with an open end
+	off     Opening
 	// sep is the faulted branch when an open end separates the fault from
 	// its own bus (−1 otherwise): the fault is then fed through conn from
 	// bus feed.
@@ -109,10 +133,10 @@ type outageSeq struct {
 	alpha  complex128
 }
 
-func newOutageFault(e *Engine, s *Solution, open []Point) *outageFault {
+func newOutageFault(e *Engine, s *Solution, o Opening) *outageFault {
 	n := e.net
-	of := &outageFault{e: e, openEnd: map[Point]bool{}, removed: map[int]bool{}, sep: -1}
-	for _, pt := range open {
+	of := &outageFault{e: e, openEnd: map[Point]bool{}, removed: map[int]bool{}, sep: -1, off: o}
+	for _, pt := range o.Ends {
 		of.openEnd[pt] = true
 		of.removed[pt.Branch] = true
 	}
@@ -195,6 +219,17 @@ func (of *outageFault) build(s *Solution, q int) *outageSeq {
 		default:
 			add(f, f, stubAdmittance(blk, From))
 		}
+	}
+	// Sources and generators taken out.
+	for _, i := range of.off.Sources {
+		bus := n.Sources[i].Bus
+		add(bus, bus, -sn.srcY[i])
+		ymax = max(ymax, cmplx.Abs(sn.srcY[i]))
+	}
+	for _, i := range of.off.Generators {
+		bus := n.Generators[i].Bus
+		add(bus, bus, -sn.genY[i])
+		ymax = max(ymax, cmplx.Abs(sn.genY[i]))
 	}
 	seen := map[int]bool{}
 	for k := range dy {

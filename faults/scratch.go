@@ -50,3 +50,18 @@ func (sc *Scratch) transfer(s *Solution, q, x int) complex128 {
 	}
 	return sc.val[x][q]
 }
+
+// Share returns the solution with sc attached as it is, without emptying
+// it: for a fault at the same electrical node, in the same case and with
+// the same open branch ends as the solution sc was last attached to by
+// Use (a bus fault and the close-in faults of the branches at that bus).
+func (s Solution) Share(sc *Scratch) Solution {
+	s.sc = sc
+	return s
+}
+
+// Node returns the fault node's electrical identity: two solutions with
+// equal nodes (and the same case and open branch ends) have the same
+// transfer impedances. A bus fault and a close-in fault at that bus share
+// a node; a fault along a line has its own.
+func (s Solution) Node() (i, j int, p float64) { return s.i, s.j, s.p }

@@ -284,9 +284,27 @@ const negligibleShare = 1e-10
 // the fault's. Computing it once serves every fault kind at that place
 // (see WithKind).
 type Response struct {
-	k [3]complex128 // amperes at the point per per-unit fault current, point frame
-	v voltageResponse
+	k    [3]complex128 // amperes at the point per per-unit fault current, point frame
+	v    voltageResponse
+	flow complex128
 }
+
+// Flow returns the point's share of the fault's positive-sequence current:
+// the positive-sequence current flowing from the point's bus into its
+// branch per unit of the current into the fault, in the fault's frame.
+// Its real part is positive where fault current flows from the bus into
+// the branch towards the fault and negative where it flows out of the
+// branch into the bus; the magnitude is the share of the fault current the
+// branch carries (at most about 1 in a network with one fault).
+func (r Response) Flow() complex128 { return r.flow }
+
+// Coefficients returns the point's current in each sequence (I0, I1, I2)
+// in amperes, in the point's frame, per unit of the fault's current in
+// that sequence.
+func (r Response) Coefficients() [3]complex128 { return r.k }
+
+// Prefault returns the pre-fault voltages at the point's bus.
+func (r Response) Prefault() Voltages { return Voltages{Seq: [3]complex128{pos: r.v.pre}} }
 
 // Response returns the point's response to faults at this solution's
 // place and case, whatever their kind.
@@ -313,6 +331,7 @@ func (s Solution) response(pt Point, want [3]complex128) Response {
 			}
 		}
 	}
+	r.flow = r.k[pos]
 	// Rotate from the fault's frame to the point's frame: positive
 	// sequence by the zone shift between them, negative by its opposite.
 	rot := s.e.rot[bus] * cmplx.Conj(s.e.rot[s.fbus])

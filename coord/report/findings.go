@@ -79,6 +79,8 @@ func detail(x coord.Finding) string {
 	switch x.Check {
 	case coord.Grading:
 		return fmt.Sprintf("%s: %s, %s; %s: %s, %s", x.Device, cur(ft.DeviceA, ft.DeviceQty), seconds(ft.DeviceS), x.Other, cur(ft.OtherA, ft.OtherQty), seconds(ft.OtherS))
+	case coord.Clearing:
+		return ""
 	case coord.Damage:
 		return fmt.Sprintf("%s clears %s in %s; %s carries %s A for %s", x.Device, cur(ft.DeviceA, ft.DeviceQty), seconds(ft.DeviceS), x.Other, amps(ft.OtherA), seconds(ft.OtherS))
 	}

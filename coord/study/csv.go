@@ -22,6 +22,7 @@ import (
 var csvColumns = map[string]func(r *rawStage, text string) error{
 	"label":              func(r *rawStage, t string) error { r.Label = t; return nil },
 	"measures":           func(r *rawStage, t string) error { r.Measures = t; return nil },
+	"direction":          func(r *rawStage, t string) error { r.Direction = t; return nil },
 	"curve":              func(r *rawStage, t string) error { r.Curve = t; return nil },
 	"pickup_a":           numberInto(func(r *rawStage) **float64 { return &r.PickupA }),
 	"pickup_secondary_a": numberInto(func(r *rawStage) **float64 { return &r.PickupSecondaryA }),

@@ -66,7 +66,7 @@ func (b *builder) buildRelays() {
 			}
 		}
 		b.st.Devices = append(b.st.Devices, d)
-		b.relayRaw = append(b.relayRaw, relayOrigin{device: len(b.st.Devices) - 1, where: w, tomlStages: len(r.Stages)})
+		b.relayRaw = append(b.relayRaw, relayOrigin{device: len(b.st.Devices) - 1, where: w, tomlStages: len(r.Stages), raw: r})
 	}
 }
 
@@ -77,6 +77,7 @@ type relayOrigin struct {
 	where      where
 	tomlStages int
 	csvStages  int
+	raw        rawRelay
 }
 
 func (b *builder) ct(w where, r rawRelay) coord.CT {
@@ -114,7 +115,7 @@ func parseCClass(s string) (float64, error) {
 // stage converts one stage's settings.
 func (b *builder) stage(w where, r rawStage, ct coord.CT) (coord.Stage, bool) {
 	before := len(b.errs)
-	st := coord.Stage{Label: r.Label}
+	st := coord.Stage{Label: r.Label, Direction: b.direction(w, r.Direction)}
 	switch r.Measures {
 	case "phase":
 		st.Measures = coord.Phase
@@ -265,7 +266,8 @@ func (b *builder) rangeOf(w where, key string, v []float64, k float64) coord.Ran
 
 // defaultLabel gives a stage its IEEE C37.2 device number: 51 for an
 // inverse-time overcurrent stage, 51DT for a definite-time one, 50 for an
-// instantaneous stage, with N for a residual (ground) stage (51NDT).
+// instantaneous stage, 67 for any directional stage, with N for a
+// residual (ground) stage (51NDT, 67N).
 func defaultLabel(s coord.Stage) string {
 	l, suffix := "51", ""
 	switch s.Shape {
@@ -273,6 +275,9 @@ func defaultLabel(s coord.Stage) string {
 		l = "50"
 	case curves.ShapeDefinite:
 		suffix = "DT"
+	}
+	if s.Direction != coord.NonDirectional {
+		l = "67"
 	}
 	if s.Measures == coord.Residual {
 		l += "N"

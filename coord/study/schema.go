@@ -48,6 +48,7 @@ type rawCriteria struct {
 	PhaseFaultOhm       *float64 `key:"phase_fault_resistance_ohm"`
 	InrushMultiple      *float64 `key:"inrush_multiple"`
 	InrushTimeS         *float64 `key:"inrush_time_s"`
+	MaxClearingS        *float64 `key:"max_clearing_s"`
 }
 
 type rawBus struct {
@@ -73,6 +74,7 @@ type rawSource struct {
 	R0OhmMin *float64 `key:"r0_ohm_min"`
 	X0OhmMin *float64 `key:"x0_ohm_min"`
 	Earthed  *bool    `key:"earthed"`
+	OwnProt  *bool    `key:"own_protection"`
 }
 
 type rawGenerator struct {
@@ -90,6 +92,7 @@ type rawGenerator struct {
 	NeutralXOhm   *float64 `key:"neutral_x_ohm"`
 	InMax         *bool    `key:"in_max_case"`
 	AlwaysRunning *bool    `key:"always_running"`
+	OwnProt       *bool    `key:"own_protection"`
 }
 
 type rawLine struct {
@@ -164,11 +167,25 @@ type rawRelay struct {
 	AccuracyMinS    *float64   `key:"accuracy_min_s"`
 	MaxLoadA        *float64   `key:"max_load_a"`
 	Stages          []rawStage `key:"stage"`
+	// Directional elements (see directional.go).
+	PhaseAngleDeg    *float64 `key:"phase_angle_deg"`
+	GroundAngleDeg   *float64 `key:"ground_angle_deg"`
+	SectorDeg        *float64 `key:"sector_deg"`
+	PhaseMinPct      *float64 `key:"phase_min_polarising_pct"`
+	GroundMinPct     *float64 `key:"ground_min_polarising_pct"`
+	VoltageMemory    *bool    `key:"voltage_memory"`
+	GroundPolarising string   `key:"ground_polarising"`
+	PolarisingBranch string   `key:"polarising_branch"`
+	PolarisingAt     string   `key:"polarising_at"`
+	PolarisingMinA   *float64 `key:"polarising_min_a"`
+	NeutralCT        string   `key:"neutral_ct"`
+	NeutralCTAt      string   `key:"neutral_ct_at"`
 }
 
 type rawStage struct {
 	Label            string    `key:"label"`
 	Measures         string    `key:"measures"`
+	Direction        string    `key:"direction"`
 	Curve            string    `key:"curve"`
 	PickupA          *float64  `key:"pickup_a"`
 	PickupSecondaryA *float64  `key:"pickup_secondary_a"`
