@@ -89,10 +89,12 @@ func checkLoaded(l loaded, o *checkOptions, stdout, stderr io.Writer) int {
 		return exitUsage
 	}
 	if o.outDir != "" {
-		if err := writeOutputs(l, res, tab, o, stderr); err != nil {
+		wrote, err := writeOutputs(l, res, tab, o)
+		if err != nil {
 			fmt.Fprintf(stderr, "tripgrade check: %v\n", err)
 			return exitUsage
 		}
+		listWritten(stderr, wrote)
 	}
 	switch {
 	case res.Failed():
@@ -104,17 +106,28 @@ func checkLoaded(l loaded, o *checkOptions, stdout, stderr io.Writer) int {
 }
 
 // writeOutputs writes the table in every chosen format and the
-// time-current plots to the output folder.
-func writeOutputs(l loaded, res *coord.Result, tab *report.Findings, o *checkOptions, stderr io.Writer) error {
+// time-current plots to the output folder, and returns the paths written.
+func writeOutputs(l loaded, res *coord.Result, tab *report.Findings, o *checkOptions) ([]string, error) {
 	if err := os.MkdirAll(o.outDir, 0o755); err != nil {
-		return err
+		return nil, err
 	}
+	var wrote []string
 	for _, f := range o.formats {
 		w := findingWriters[f]
 		path := filepath.Join(o.outDir, "findings."+w.ext)
 		if err := writeTo(path, func(b *bytes.Buffer) error { return w.write(tab, b) }); err != nil {
-			return err
+			return wrote, err
 		}
+		wrote = append(wrote, path)
 	}
-	return writePlots(l, res, o.outDir)
+	plots, err := writePlots(l, res, o.outDir)
+	return append(wrote, plots...), err
+}
+
+// listWritten tells the user which files a command wrote, on stderr so
+// that the table on stdout stays clean for a pipe.
+func listWritten(stderr io.Writer, paths []string) {
+	for _, p := range paths {
+		fmt.Fprintf(stderr, "wrote %s\n", p)
+	}
 }

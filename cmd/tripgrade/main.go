@@ -55,6 +55,8 @@ func run(args []string, stdout, stderr io.Writer) int {
 	case "help", "-h", "--help":
 		usage(stdout, cmds)
 		return exitOK
+	case "version", "--version":
+		return printVersion(stdout)
 	}
 	c, ok := cmds[name]
 	if !ok {
@@ -78,5 +80,6 @@ func usage(w io.Writer, cmds map[string]command) {
 		fmt.Fprintf(w, "  %-8s %s\n", n, cmds[n].summary)
 	}
 	fmt.Fprintln(w, "")
-	fmt.Fprintln(w, "Run \"tripgrade <command> --help\" for the arguments of one command.")
+	fmt.Fprintln(w, "Run \"tripgrade <command> --help\" for the arguments of one command,")
+	fmt.Fprintln(w, "\"tripgrade --version\" for the version of this build.")
 }
