@@ -22,6 +22,9 @@ type Study struct {
 	// Pairs are the study's own additions to and exclusions from the
 	// derived backup pairs.
 	Pairs []PairRule
+	// Accepts are the study's [[accept]] entries: findings a reviewer has
+	// accepted (see Accept).
+	Accepts []Acceptance
 }
 
 // Quantity is what a stage measures.

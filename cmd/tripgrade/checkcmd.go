@@ -83,6 +83,9 @@ func checkLoaded(l loaded, o *checkOptions, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "tripgrade check: %v\n", err)
 		return exitUsage
 	}
+	if !accept(l, res, stderr) {
+		return exitUsage
+	}
 	tab := report.NewFindings(l.study, res)
 	if err := findingWriters[o.formats[0]].write(tab, stdout); err != nil {
 		fmt.Fprintf(stderr, "tripgrade check: %v\n", err)

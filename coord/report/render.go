@@ -7,7 +7,6 @@ import (
 	"io"
 	"math"
 	"strings"
-	"text/tabwriter"
 )
 
 // WriteText writes the findings aligned for a terminal: the pairs, then a
@@ -15,11 +14,8 @@ import (
 func (f *Findings) WriteText(w io.Writer) error {
 	ew := &errWriter{w: w}
 	fmt.Fprintf(ew, "tripgrade coordination check: %s\n", f.Study)
-	for _, c := range f.Cases {
-		fmt.Fprintf(ew, "  %s\n", c)
-	}
-	for _, c := range f.Criteria {
-		fmt.Fprintf(ew, "  %s\n", c)
+	for _, c := range append(append([]string{}, f.Cases...), f.Criteria...) {
+		fmt.Fprintf(ew, "  %s\n", wrap(c, TextWidth-2, "      "))
 	}
 	fmt.Fprintf(ew, "\nBackup pairs (upstream → downstream, from the topology and the fault-current direction):\n")
 	for _, p := range f.Pairs {
@@ -32,24 +28,8 @@ func (f *Findings) WriteText(w io.Writer) error {
 		fmt.Fprintf(ew, "  excluded by [[pair]]: %s\n", joinPairs(f.Excluded))
 	}
 	for _, g := range f.groups() {
-		c := g[0].Finding.Check
-		fmt.Fprintf(ew, "\n%s\n", strings.ToUpper(c.String()))
-		tw := tabwriter.NewWriter(ew, 0, 0, 2, ' ', 0)
-		with := withHeading(c)
-		head := "verdict\tdevice\t"
-		if with != "" {
-			head += with + "\t"
-		}
-		fmt.Fprintln(tw, head+"stage\tmeasured\trequired\tmargin\tfault\tdetail\tnote")
-		for _, r := range g {
-			x := r.Finding
-			line := x.Verdict.String() + "\t" + x.Device + "\t"
-			if with != "" {
-				line += x.Other + "\t"
-			}
-			fmt.Fprintf(tw, "%s%s\t%s\t%s\t%s\t%s\t%s\t%s\n", line, dash(x.Stage), r.Measured, r.Required, r.Margin, dash(r.Fault), dash(r.Detail), x.Note)
-		}
-		tw.Flush()
+		fmt.Fprintf(ew, "\n%s\n", strings.ToUpper(g[0].Finding.Check.String()))
+		findingsTable(g).write(ew)
 	}
 	fmt.Fprintf(ew, "\n%s\n%s\n", f.Verdict(), Caution)
 	return ew.err
@@ -95,7 +75,11 @@ func (f *Findings) WriteMarkdown(w io.Writer) error {
 			if with != "" {
 				line += " " + md(x.Other) + " |"
 			}
-			fmt.Fprintf(ew, "%s %s | %s | %s | %s | %s | %s | %s |\n", line, md(x.Stage), md(r.Measured), md(r.Required), md(r.Margin), md(r.Fault), md(r.Detail), md(x.Note))
+			note := x.Note
+			if x.Acceptance != nil {
+				note = strings.TrimPrefix(note+"; "+acceptanceText(x.Acceptance), "; ")
+			}
+			fmt.Fprintf(ew, "%s %s | %s | %s | %s | %s | %s | %s |\n", line, md(x.Stage), md(r.Measured), md(r.Required), md(r.Margin), md(r.Fault), md(r.Detail), md(note))
 		}
 	}
 	return ew.err

@@ -86,6 +86,7 @@ func (b *builder) build(dir fs.FS) {
 		uniqueLabels(d)
 	}
 	b.buildPairs()
+	b.buildAccepts()
 }
 
 // uniqueLabels numbers stages that would otherwise share a label (two
