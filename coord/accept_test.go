@@ -64,4 +64,3 @@ func TestAccept(t *testing.T) {
 		t.Errorf("after accepting both failures: counts %d %d %d, failed %v", p, w, f, r.Failed())
 	}
 }
-
