@@ -23,6 +23,10 @@ type Findings struct {
 	// from the others; Acceptances are the study's entries.
 	Accepted    int
 	Acceptances []coord.Acceptance
+	// Scope is set for a scoped check, Baseline for one compared with an
+	// earlier run.
+	Scope    *ScopeInfo
+	Baseline *Comparison
 }
 
 // PairRow is one backup pair by name.
