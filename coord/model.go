@@ -25,6 +25,9 @@ type Study struct {
 	// Accepts are the study's [[accept]] entries: findings a reviewer has
 	// accepted (see Accept).
 	Accepts []Acceptance
+	// Inputs are the files the study was read from, the study file first,
+	// each with the digest of what was read.
+	Inputs []InputFile
 }
 
 // Quantity is what a stage measures.

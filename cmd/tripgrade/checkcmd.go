@@ -111,7 +111,7 @@ func checkLoaded(l loaded, o *checkOptions, stdout, stderr io.Writer) int {
 		listWritten(stderr, wrote)
 	}
 	if o.review.report != "" {
-		if err := writeReport(l, res, tab, o.review.report); err != nil {
+		if err := writeReport(l, res, tab, o.review.report, o.review.gate(tab)); err != nil {
 			return fprintErr(stderr, err)
 		}
 		listWritten(stderr, []string{o.review.report})

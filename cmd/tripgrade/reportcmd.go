@@ -1,11 +1,89 @@
 package main
 
 import (
+	"bytes"
+	"fmt"
+	"os"
+	"strconv"
+	"strings"
+	"time"
+
 	"tripgrade/coord"
 	"tripgrade/coord/report"
+	"tripgrade/coord/tcc"
 )
 
-// writeReport writes the HTML audit report (filled in below).
-func writeReport(l loaded, res *coord.Result, tab *report.Findings, path string) error {
-	return nil
+// writeReport writes the self-contained HTML audit report of a checked
+// study to path, atomically: the findings, the digests of the input
+// files, the tool version, the date and every chart, each failing finding
+// linked to the chart its figure is drawn on.
+func writeReport(l loaded, res *coord.Result, tab *report.Findings, path string, gate string) error {
+	date, err := reportDate()
+	if err != nil {
+		return err
+	}
+	a := &report.Audit{Findings: tab, Version: toolVersion(), Date: date, Inputs: l.study.Inputs, Gate: gate}
+	atlas, err := newAtlas(l, res)
+	if err != nil {
+		return fmt.Errorf("charts: %w", err)
+	}
+	charts := atlas.Charts()
+	for _, c := range charts {
+		var b bytes.Buffer
+		if err := c.Render(&b, tcc.PNG, reportChartSize); err != nil {
+			return fmt.Errorf("chart %s: %w", c.Name, err)
+		}
+		a.Charts = append(a.Charts, report.Chart{Name: c.Name, Subtitle: c.Subtitle, PNG: b.Bytes()})
+	}
+	a.ChartOf = chartOf(l.study, atlas, charts, tab.Rows)
+	return writeTo(path, func(b *bytes.Buffer) error { return a.WriteHTML(b) })
 }
+
+// chartOf names, per findings row, the chart to look at: a failing
+// pair's own chart for its grading finding, otherwise the first chart of
+// a path through the finding's device.
+func chartOf(s *coord.Study, atlas *tcc.Atlas, charts []*tcc.Chart, rows []report.Row) []string {
+	out := make([]string, len(rows))
+	for k, r := range rows {
+		x := r.Finding
+		i := atlas.Device(x.Device)
+		if i < 0 {
+			continue
+		}
+		if x.Check == coord.Grading {
+			if up := atlas.Device(x.Other); up >= 0 {
+				for _, c := range charts {
+					if strings.HasPrefix(c.Name, "pair-") && len(c.Pairs) == 1 && c.Pairs[0].Downstream == i && c.Pairs[0].Upstream == up {
+						out[k] = c.Name
+					}
+				}
+			}
+		}
+		if out[k] == "" {
+			if pc := atlas.PathCharts(i); len(pc) > 0 {
+				out[k] = pc[0].Name
+			}
+		}
+	}
+	return out
+}
+
+// reportDate is the report's date: now, or the time SOURCE_DATE_EPOCH
+// gives (seconds since 1970, the reproducible-builds convention), so that
+// a report can be made byte for byte again.
+func reportDate() (string, error) {
+	t := time.Now()
+	if v, ok := os.LookupEnv("SOURCE_DATE_EPOCH"); ok {
+		sec, err := strconv.ParseInt(v, 10, 64)
+		if err != nil {
+			return "", fmt.Errorf("SOURCE_DATE_EPOCH=%q: want whole seconds since 1970", v)
+		}
+		t = time.Unix(sec, 0)
+	}
+	return t.UTC().Format("2006-01-02 15:04 UTC"), nil
+}
+
+// reportChartSize draws the report's charts at the default layout (10 ×
+// 7.5 in) with fewer dots per inch than the PNG files: sharp on a screen
+// and on paper, and the report stays a file one can mail.
+var reportChartSize = tcc.Settings{WidthPx: 1200, HeightPx: 900, DPI: 120}

@@ -123,3 +123,16 @@ func fprintErr(stderr io.Writer, err error) int {
 	fmt.Fprintf(stderr, "tripgrade check: %v\n", err)
 	return exitUsage
 }
+
+// gate words the --fail-on new gate for the report; empty for the
+// default gate, which the verdict line already states.
+func (r *reviewOptions) gate(tab *report.Findings) string {
+	if r.failOn != "new" || tab.Baseline == nil {
+		return ""
+	}
+	verdict := "PASS"
+	if tab.Baseline.Gating() > 0 {
+		verdict = "FAIL"
+	}
+	return fmt.Sprintf("gate --fail-on new: %d failing finding(s) new or worse than the baseline: %s", tab.Baseline.Gating(), verdict)
+}
