@@ -266,7 +266,9 @@ func checkMarkup(t *testing.T, doc string, imgs int) {
 }
 
 func markup(doc string) (tags, attrs []string) {
-	isName := func(c byte) bool { return c == '-' || c == ':' || c >= '0' && c <= '9' || c|0x20 >= 'a' && c|0x20 <= 'z' }
+	isName := func(c byte) bool {
+		return c == '-' || c == ':' || c >= '0' && c <= '9' || c|0x20 >= 'a' && c|0x20 <= 'z'
+	}
 	i := 0
 	for i < len(doc) {
 		if doc[i] != '<' {
