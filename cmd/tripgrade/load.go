@@ -24,21 +24,37 @@ type loaded struct {
 func loadStudy(path string, stderr io.Writer) (l loaded, ok bool) {
 	s, err := study.Load(path)
 	if err != nil {
-		var list study.ErrorList
-		switch {
-		case errors.As(err, &list):
-			for _, e := range list {
-				fmt.Fprintln(stderr, e)
-			}
-			fmt.Fprintf(stderr, "tripgrade: %d problem(s) in %s\n", len(list), path)
-		case errors.Is(err, os.ErrNotExist):
-			fmt.Fprintf(stderr, "tripgrade: %s: no such file\n", path)
-		default:
-			fmt.Fprintf(stderr, "tripgrade: %v\n", err)
-		}
+		printLoadError(path, err, stderr)
 		return l, false
 	}
 	return prepare(path, s, stderr)
+}
+
+// printLoadError prints every problem study.Load found.
+func printLoadError(path string, err error, stderr io.Writer) {
+	var list study.ErrorList
+	switch {
+	case errors.As(err, &list):
+		for _, e := range list {
+			fmt.Fprintln(stderr, e)
+		}
+		fmt.Fprintf(stderr, "tripgrade: %d problem(s) in %s\n", len(list), path)
+	case errors.Is(err, os.ErrNotExist):
+		fmt.Fprintf(stderr, "tripgrade: %s: no such file\n", path)
+	default:
+		fmt.Fprintf(stderr, "tripgrade: %v\n", err)
+	}
+}
+
+// suggestDevice offers the nearest device name to a mistyped one.
+func suggestDevice(s *coord.Study, name string) string {
+	if name == "" {
+		return ""
+	}
+	if near := study.Closest(name, deviceNames(s)); near != "" && near != name {
+		return fmt.Sprintf("; did you mean %q?", near)
+	}
+	return ""
 }
 
 // prepare builds the fault engine and the zones of a checked study.

@@ -31,11 +31,12 @@ type command struct {
 
 func commands() map[string]command {
 	return map[string]command{
-		"check":  {"the coordination check of a study: every pair, every criterion", runCheck},
-		"curve":  {"operating time of one characteristic at given currents", runCurve},
-		"demo":   {"the check on an example study built into the program", runDemo},
-		"faults": {"fault currents at every device and bus of a study", runFaults},
-		"plot":   {"time-current charts of the coordination paths through one device", runPlot},
+		"check":     {"the coordination check of a study: every pair, every criterion", runCheck},
+		"curve":     {"operating time of one characteristic at given currents", runCurve},
+		"demo":      {"the check on an example study built into the program", runDemo},
+		"faults":    {"fault currents at every device and bus of a study", runFaults},
+		"plot":      {"time-current charts of the coordination paths through one device", runPlot},
+		"testsheet": {"secondary injection currents and expected times of every relay stage", runTestSheet},
 	}
 }
 
@@ -77,7 +78,7 @@ func usage(w io.Writer, cmds map[string]command) {
 	}
 	sort.Strings(names)
 	for _, n := range names {
-		fmt.Fprintf(w, "  %-8s %s\n", n, cmds[n].summary)
+		fmt.Fprintf(w, "  %-9s %s\n", n, cmds[n].summary)
 	}
 	fmt.Fprintln(w, "")
 	fmt.Fprintln(w, "Run \"tripgrade <command> --help\" for the arguments of one command,")
