@@ -18,7 +18,7 @@ import (
 // Exit codes shared by every subcommand.
 const (
 	exitOK    = 0 // the command ran and nothing failed
-	exitFail  = 1 // a check failed (only "check" and "demo" use it)
+	exitFail  = 1 // a check failed (check, demo; diff: a failure new or worse)
 	exitUsage = 2 // bad input: the study file or the command line is wrong
 )
 
@@ -34,6 +34,7 @@ func commands() map[string]command {
 		"check":     {"the coordination check of a study: every pair, every criterion", runCheck},
 		"curve":     {"operating time of one characteristic at given currents", runCurve},
 		"demo":      {"the check on an example study built into the program", runDemo},
+		"diff":      {"setting changes between two studies and what they do to every finding", runDiff},
 		"faults":    {"fault currents at every device and bus of a study", runFaults},
 		"plot":      {"time-current charts of the coordination paths through one device", runPlot},
 		"testsheet": {"secondary injection currents and expected times of every relay stage", runTestSheet},

@@ -56,6 +56,16 @@ func ReadSnapshots(r io.Reader) ([]coord.Snapshot, error) {
 type Comparison struct {
 	File    string // the baseline as the user named it
 	Changes []coord.Change
+	// Heading replaces "compared with baseline FILE" as the section's
+	// title when set.
+	Heading string
+}
+
+func (c *Comparison) heading() string {
+	if c.Heading != "" {
+		return c.Heading
+	}
+	return "Compared with baseline " + c.File
 }
 
 // Count returns the number of changes of a kind.
@@ -142,7 +152,7 @@ func (c *Comparison) writeText(w io.Writer) {
 	if c == nil {
 		return
 	}
-	fmt.Fprintf(w, "\nCOMPARED WITH BASELINE %s\n%s\n", c.File, c.Summary())
+	fmt.Fprintf(w, "\n%s\n%s\n", strings.ToUpper(c.heading()), c.Summary())
 	ch := c.changed()
 	if len(ch) == 0 {
 		fmt.Fprintln(w, "no finding changed")
@@ -162,7 +172,7 @@ func (c *Comparison) writeMarkdown(w io.Writer) {
 	if c == nil {
 		return
 	}
-	fmt.Fprintf(w, "\n## Compared with baseline %s\n\n%s\n", md(c.File), c.Summary())
+	fmt.Fprintf(w, "\n## %s\n\n%s\n", md(c.heading()), c.Summary())
 	ch := c.changed()
 	if len(ch) == 0 {
 		fmt.Fprintln(w, "\nNo finding changed.")
