@@ -1,6 +1,9 @@
 package coord
 
-import "testing"
+import (
+	"fmt"
+	"testing"
+)
 
 func TestCompare(t *testing.T) {
 	snap := func(check, dev, verdict string, margin float64) Snapshot {
@@ -45,6 +48,27 @@ func TestCompare(t *testing.T) {
 	for _, c := range Compare(before, before) {
 		if c.Kind != Same {
 			t.Errorf("self-comparison: %s for %+v", c.Kind, c.After)
+		}
+	}
+}
+
+// BenchmarkCompare compares a 10,000-finding run with a baseline in which
+// every tenth margin moved: about the size of a 1000-relay study.
+func BenchmarkCompare(b *testing.B) {
+	const n = 10000
+	before := make([]Snapshot, n)
+	after := make([]Snapshot, n)
+	for i := range before {
+		before[i] = Snapshot{Check: "grading", Device: fmt.Sprintf("R%d", i), Other: fmt.Sprintf("U%d", i/20), Verdict: "PASS", Margin: 0.1, HasMargin: true, Unit: "s"}
+		after[i] = before[i]
+		if i%10 == 0 {
+			after[i].Margin = 0.05
+		}
+	}
+	b.ReportAllocs()
+	for i := 0; i < b.N; i++ {
+		if len(Compare(before, after)) != n {
+			b.Fatal("lost changes")
 		}
 	}
 }

@@ -28,21 +28,75 @@ func writeReport(l loaded, res *coord.Result, tab *report.Findings, path string,
 		return fmt.Errorf("charts: %w", err)
 	}
 	charts := atlas.Charts()
+	linked := chartOf(atlas, charts, tab.Rows)
+	chosen := chooseCharts(charts, linked, tab.Rows, maxReportCharts)
 	for _, c := range charts {
+		if !chosen[c.Name] {
+			a.ChartsLeftOut++
+			continue
+		}
 		var b bytes.Buffer
 		if err := c.Render(&b, tcc.PNG, reportChartSize); err != nil {
 			return fmt.Errorf("chart %s: %w", c.Name, err)
 		}
 		a.Charts = append(a.Charts, report.Chart{Name: c.Name, Subtitle: c.Subtitle, PNG: b.Bytes()})
 	}
-	a.ChartOf = chartOf(l.study, atlas, charts, tab.Rows)
+	a.ChartOf = make([]string, len(linked))
+	for k, name := range linked {
+		if chosen[name] {
+			a.ChartOf[k] = name
+		}
+	}
 	return writeTo(path, func(b *bytes.Buffer) error { return a.WriteHTML(b) })
+}
+
+// maxReportCharts bounds the charts embedded in a report, so that the
+// report of a large study stays a file one can open and mail (a chart is
+// about 0.4 MB); check --out DIR writes all of them.
+const maxReportCharts = 40
+
+// chooseCharts picks the charts to embed: first those the failing and
+// accepted findings link to, in the order of the rows, then the others
+// (the coordination paths), up to limit.
+func chooseCharts(charts []*tcc.Chart, linked []string, rows []report.Row, limit int) map[string]bool {
+	chosen := map[string]bool{}
+	for k, name := range linked {
+		v := rows[k].Finding.Verdict
+		if name != "" && len(chosen) < limit && (v == coord.Fail || v == coord.Accepted) {
+			chosen[name] = true
+		}
+	}
+	for _, c := range charts {
+		if len(chosen) < limit {
+			chosen[c.Name] = true
+		}
+	}
+	return chosen
 }
 
 // chartOf names, per findings row, the chart to look at: a failing
 // pair's own chart for its grading finding, otherwise the first chart of
 // a path through the finding's device.
-func chartOf(s *coord.Study, atlas *tcc.Atlas, charts []*tcc.Chart, rows []report.Row) []string {
+func chartOf(atlas *tcc.Atlas, charts []*tcc.Chart, rows []report.Row) []string {
+	// The first path chart through each device, and each failing pair's
+	// chart, from one pass over the charts (asking the atlas per row
+	// would rebuild every chart for every row).
+	path := map[int]string{}
+	pair := map[[2]int]string{}
+	for _, c := range charts {
+		if strings.HasPrefix(c.Name, "pair-") && len(c.Pairs) == 1 {
+			k := [2]int{c.Pairs[0].Downstream, c.Pairs[0].Upstream}
+			if _, ok := pair[k]; !ok {
+				pair[k] = c.Name
+			}
+			continue
+		}
+		for _, i := range c.Devices {
+			if _, ok := path[i]; !ok {
+				path[i] = c.Name
+			}
+		}
+	}
 	out := make([]string, len(rows))
 	for k, r := range rows {
 		x := r.Finding
@@ -51,19 +105,12 @@ func chartOf(s *coord.Study, atlas *tcc.Atlas, charts []*tcc.Chart, rows []repor
 			continue
 		}
 		if x.Check == coord.Grading {
-			if up := atlas.Device(x.Other); up >= 0 {
-				for _, c := range charts {
-					if strings.HasPrefix(c.Name, "pair-") && len(c.Pairs) == 1 && c.Pairs[0].Downstream == i && c.Pairs[0].Upstream == up {
-						out[k] = c.Name
-					}
-				}
+			if name, ok := pair[[2]int{i, atlas.Device(x.Other)}]; ok {
+				out[k] = name
+				continue
 			}
 		}
-		if out[k] == "" {
-			if pc := atlas.PathCharts(i); len(pc) > 0 {
-				out[k] = pc[0].Name
-			}
-		}
+		out[k] = path[i]
 	}
 	return out
 }

@@ -11,6 +11,10 @@ import (
 	"strings"
 	"testing"
 	"time"
+
+	"tripgrade/coord"
+	"tripgrade/coord/report"
+	"tripgrade/coord/tcc"
 )
 
 // hostileStudy copies the grading study (R1 over R2, the margin fails)
@@ -317,4 +321,23 @@ func markup(doc string) (tags, attrs []string) {
 		i = k + 1
 	}
 	return tags, attrs
+}
+
+// The report embeds at most the chart limit, the linked charts of
+// failing findings first.
+func TestChooseCharts(t *testing.T) {
+	names := []string{"path-a", "path-b", "pair-x", "pair-y"}
+	var charts []*tcc.Chart
+	for _, n := range names {
+		charts = append(charts, &tcc.Chart{Name: n})
+	}
+	rows := []report.Row{{Finding: coord.Finding{Verdict: coord.Pass}}, {Finding: coord.Finding{Verdict: coord.Fail}}, {Finding: coord.Finding{Verdict: coord.Accepted}}}
+	linked := []string{"path-a", "pair-y", "pair-x"}
+	got := chooseCharts(charts, linked, rows, 2)
+	if len(got) != 2 || !got["pair-y"] || !got["pair-x"] {
+		t.Errorf("chose %v, want the two linked from failing and accepted rows", got)
+	}
+	if got := chooseCharts(charts, linked, rows, 10); len(got) != 4 {
+		t.Errorf("chose %v, want all four", got)
+	}
 }

@@ -20,8 +20,10 @@ type Audit struct {
 	Version, Date string
 	// Inputs are the files the study was read from, with their digests.
 	Inputs []coord.InputFile
-	// Charts are the time–current charts as PNG images, in order.
-	Charts []Chart
+	// Charts are the time–current charts as PNG images, in order, and
+	// ChartsLeftOut counts the study's charts not embedded.
+	Charts        []Chart
+	ChartsLeftOut int
 	// ChartOf names, for each of Findings.Rows, the chart its figure is
 	// drawn on ("" for none).
 	ChartOf []string
@@ -152,6 +154,9 @@ var auditTemplate = template.Must(template.New("audit").Funcs(template.FuncMap{
 <p>No chart: the study has no coordination path.</p>
 {{- end}}
 </div>
+{{- with .LeftOut}}
+<p>{{.}} more chart(s) of this study are not embedded, to keep the report a file one can open and mail; <code>tripgrade check STUDY --out DIR</code> writes every chart.</p>
+{{- end}}
 
 <p class="caution">{{.Caution}}</p>
 </body>
@@ -199,7 +204,8 @@ func (a *Audit) WriteHTML(w io.Writer) error {
 		Baseline                          any
 		Groups                            []htmlGroup
 		Charts                            []htmlChart
-	}{CSP: contentSecurityPolicy(), Caution: Caution, Version: a.Version, Date: a.Date, Gate: a.Gate, F: f, Inputs: a.Inputs, Scope: f.Scope.lines()}
+		LeftOut                           int
+	}{LeftOut: a.ChartsLeftOut, CSP: contentSecurityPolicy(), Caution: Caution, Version: a.Version, Date: a.Date, Gate: a.Gate, F: f, Inputs: a.Inputs, Scope: f.Scope.lines()}
 	if b := f.Baseline; b != nil {
 		var rows []htmlChange
 		for _, x := range b.changed() {

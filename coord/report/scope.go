@@ -55,7 +55,18 @@ func (sc *ScopeInfo) lines() []string {
 	if sc.LeftOut == 0 {
 		return append(out, "left out: nothing")
 	}
-	return append(out, fmt.Sprintf("left out: %d findings of %s", sc.LeftOut, strings.Join(sc.LeftDevices, ", ")))
+	return append(out, fmt.Sprintf("left out: %d findings of %s", sc.LeftOut, listSome(sc.LeftDevices, maxListed)))
+}
+
+// maxListed is how many left-out devices a header names before "and N
+// more" (the JSON lists all of them).
+const maxListed = 12
+
+func listSome(names []string, n int) string {
+	if len(names) <= n {
+		return strings.Join(names, ", ")
+	}
+	return fmt.Sprintf("%s and %d more", strings.Join(names[:n], ", "), len(names)-n)
 }
 
 type jsonScope struct {
