@@ -7,14 +7,17 @@ type Verdict uint8
 
 // Verdicts. Warn covers both a figure worth a look that the criteria do not
 // fail, and a check that could not be made (the note says which).
+// Accepted is a failing or warning finding that a reviewer accepted with
+// an [[accept]] entry (see Accept): it is counted apart and fails nothing.
 const (
 	Pass Verdict = iota
 	Warn
 	Fail
+	Accepted
 )
 
-// String returns "PASS", "WARN" or "FAIL".
-func (v Verdict) String() string { return [...]string{"PASS", "WARN", "FAIL"}[v] }
+// String returns "PASS", "WARN", "FAIL" or "ACCEPTED".
+func (v Verdict) String() string { return [...]string{"PASS", "WARN", "FAIL", "ACCEPTED"}[v] }
 
 // CheckKind names a check.
 type CheckKind uint8
@@ -71,6 +74,9 @@ type Finding struct {
 	// Fault is the fault behind the figure, when there is one.
 	Fault *FaultRef
 	Note  string
+	// Acceptance is set when an [[accept]] entry covers the finding; the
+	// Verdict is then Accepted (see Accept).
+	Acceptance *Acceptance
 }
 
 // FaultRef describes the fault behind a figure.
@@ -109,7 +115,8 @@ type Result struct {
 	Notes []string
 }
 
-// Counts returns the number of findings of each verdict.
+// Counts returns the number of findings of each verdict; accepted
+// findings are counted apart by Accepted.
 func (r *Result) Counts() (pass, warn, fail int) {
 	for _, f := range r.Findings {
 		switch f.Verdict {

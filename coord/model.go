@@ -27,6 +27,12 @@ type Study struct {
 	// their infeed of a fault that no device of the study stands between,
 	// within the maximum clearing time.
 	OwnProtection []string
+	// Accepts are the study's [[accept]] entries: findings a reviewer has
+	// accepted (see Accept).
+	Accepts []Acceptance
+	// Inputs are the files the study was read from, the study file first,
+	// each with the digest of what was read.
+	Inputs []InputFile
 }
 
 // Quantity is what a stage measures.

@@ -30,6 +30,7 @@ type checkOptions struct {
 	outDir  string
 	strict  bool
 	format  *string
+	review  *reviewOptions
 }
 
 // addCheckFlags adds the flags check and demo share.
@@ -38,6 +39,7 @@ func addCheckFlags(c *cmdLine) *checkOptions {
 	o.format = c.fs.String("format", "text", "table `formats`, comma-separated: text, md, csv, json (the first is printed)")
 	c.fs.StringVar(&o.outDir, "out", "", "also write the table in every format, and the plots, to `DIR`")
 	c.fs.BoolVar(&o.strict, "strict", false, "exit 1 on warnings too (checks that could not be made, CT and damage warnings)")
+	o.review = addReviewFlags(c)
 	return o
 }
 
@@ -51,12 +53,13 @@ func (o *checkOptions) parseFormats() error {
 		}
 		o.formats = append(o.formats, f)
 	}
-	return nil
+	return o.review.validate()
 }
 
 // runCheck is "tripgrade check STUDY.toml": the whole audit.
 func runCheck(args []string, stdout, stderr io.Writer) int {
 	c := newCmdLine("check", `usage: tripgrade check STUDY.toml [--format text|md|csv|json[,...]] [--out DIR] [--strict]
+                       [--scope NAMES] [--baseline FINDINGS.json [--fail-on new]] [--report FILE.html]
 
 Checks grading margins of every backup pair over the whole fault range, primary and
 backup sensitivity, load margin, instantaneous reach, inrush, equipment damage and
@@ -83,38 +86,62 @@ func checkLoaded(l loaded, o *checkOptions, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "tripgrade check: %v\n", err)
 		return exitUsage
 	}
+	if !accept(l, res, stderr) {
+		return exitUsage
+	}
+	sc, scope, err := o.review.narrow(l, res)
+	if err != nil {
+		return fprintErr(stderr, err)
+	}
 	tab := report.NewFindings(l.study, res)
+	tab.Scope = scope
+	if tab.Baseline, err = o.review.compare(res, sc); err != nil {
+		return fprintErr(stderr, err)
+	}
 	if err := findingWriters[o.formats[0]].write(tab, stdout); err != nil {
 		fmt.Fprintf(stderr, "tripgrade check: %v\n", err)
 		return exitUsage
 	}
 	if o.outDir != "" {
-		if err := writeOutputs(l, res, tab, o, stderr); err != nil {
+		wrote, err := writeOutputs(l, res, tab, o)
+		if err != nil {
 			fmt.Fprintf(stderr, "tripgrade check: %v\n", err)
 			return exitUsage
 		}
+		listWritten(stderr, wrote)
 	}
-	switch {
-	case res.Failed():
-		return exitFail
-	case o.strict && tab.Warn > 0:
-		return exitFail
+	if o.review.report != "" {
+		if err := writeReport(l, res, tab, o.review.report, o.review.gate(tab)); err != nil {
+			return fprintErr(stderr, err)
+		}
+		listWritten(stderr, []string{o.review.report})
 	}
-	return exitOK
+	return o.review.exitCode(res, tab, o.strict)
 }
 
 // writeOutputs writes the table in every chosen format and the
-// time-current plots to the output folder.
-func writeOutputs(l loaded, res *coord.Result, tab *report.Findings, o *checkOptions, stderr io.Writer) error {
+// time-current plots to the output folder, and returns the paths written.
+func writeOutputs(l loaded, res *coord.Result, tab *report.Findings, o *checkOptions) ([]string, error) {
 	if err := os.MkdirAll(o.outDir, 0o755); err != nil {
-		return err
+		return nil, err
 	}
+	var wrote []string
 	for _, f := range o.formats {
 		w := findingWriters[f]
 		path := filepath.Join(o.outDir, "findings."+w.ext)
 		if err := writeTo(path, func(b *bytes.Buffer) error { return w.write(tab, b) }); err != nil {
-			return err
+			return wrote, err
 		}
+		wrote = append(wrote, path)
 	}
-	return writePlots(l, res, o.outDir)
+	plots, err := writePlots(l, res, o.outDir)
+	return append(wrote, plots...), err
+}
+
+// listWritten tells the user which files a command wrote, on stderr so
+// that the table on stdout stays clean for a pipe.
+func listWritten(stderr io.Writer, paths []string) {
+	for _, p := range paths {
+		fmt.Fprintf(stderr, "wrote %s\n", p)
+	}
 }

@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"os"
 	"path/filepath"
+	"sort"
 	"strings"
 	"testing"
 )
@@ -67,8 +68,19 @@ func TestCheckFindsTheExampleMistakes(t *testing.T) {
 func TestCheckOutDir(t *testing.T) {
 	dir := filepath.Join(t.TempDir(), "out")
 	code, out, errOut := runArgs("check", "../../examples/kestrel-park.toml", "--format", "text,md,csv,json", "--out", dir)
-	if code != exitOK || errOut != "" {
+	if code != exitOK {
 		t.Fatalf("exit %d, stderr %q", code, errOut)
+	}
+	// Every file in the folder is listed on stderr, and nothing else is.
+	entries, _ := os.ReadDir(dir)
+	var listed []string
+	for _, e := range entries {
+		listed = append(listed, "wrote "+filepath.Join(dir, e.Name()))
+	}
+	gotList := strings.Split(strings.TrimSuffix(errOut, "\n"), "\n")
+	sort.Strings(gotList)
+	if strings.Join(gotList, "\n") != strings.Join(listed, "\n") {
+		t.Errorf("stderr lists\n%s\nwant\n%s", strings.Join(gotList, "\n"), strings.Join(listed, "\n"))
 	}
 	for _, name := range []string{"findings.txt", "findings.md", "findings.csv", "findings.json"} {
 		data, err := os.ReadFile(filepath.Join(dir, name))
@@ -88,7 +100,6 @@ func TestCheckOutDir(t *testing.T) {
 			}
 		}
 	}
-	entries, _ := os.ReadDir(dir)
 	for _, e := range entries {
 		if strings.HasPrefix(e.Name(), ".") {
 			t.Errorf("temporary file %s left behind", e.Name())

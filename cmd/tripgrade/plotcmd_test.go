@@ -167,8 +167,8 @@ func TestCheckOutWritesPlots(t *testing.T) {
 			path := studyCopy(t, func(s string) string { return strings.Replace(s, "tms = 0.5", tc.tms, 1) })
 			dir := filepath.Join(t.TempDir(), "out")
 			code, _, stderr := runArgs("check", path, "--out", dir)
-			if code != tc.code || stderr != "" {
-				t.Fatalf("exit %d, stderr %q; want exit %d", code, stderr, tc.code)
+			if code != tc.code || strings.Count(stderr, "wrote ") != 1+len(tc.files) {
+				t.Fatalf("exit %d, stderr %q; want exit %d and %d files listed", code, stderr, tc.code, 1+len(tc.files))
 			}
 			got, _ := filepath.Glob(filepath.Join(dir, "*.png"))
 			if len(got) != len(tc.files) {

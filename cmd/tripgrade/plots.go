@@ -20,17 +20,20 @@ func newAtlas(l loaded, res *coord.Result) (*tcc.Atlas, error) {
 
 // writePlots writes a PNG time–current chart for every coordination path
 // and every failing pair to outDir, as DIR/<chart name>.png (see
-// tcc.Atlas.Charts for the names), each file atomically.
-func writePlots(l loaded, res *coord.Result, outDir string) error {
+// tcc.Atlas.Charts for the names), each file atomically, and returns the
+// paths written.
+func writePlots(l loaded, res *coord.Result, outDir string) ([]string, error) {
 	a, err := newAtlas(l, res)
 	if err != nil {
-		return fmt.Errorf("plots: %w", err)
+		return nil, fmt.Errorf("plots: %w", err)
 	}
+	var wrote []string
 	for _, c := range a.Charts() {
 		path := filepath.Join(outDir, c.Name+"."+tcc.PNG.Ext())
 		if err := writeTo(path, func(b *bytes.Buffer) error { return c.Render(b, tcc.PNG, tcc.Settings{}) }); err != nil {
-			return err
+			return wrote, err
 		}
+		wrote = append(wrote, path)
 	}
-	return nil
+	return wrote, nil
 }

@@ -19,6 +19,14 @@ type Findings struct {
 	Pass     int
 	Warn     int
 	Fail     int
+	// Accepted counts the findings an [[accept]] entry covers, apart
+	// from the others; Acceptances are the study's entries.
+	Accepted    int
+	Acceptances []coord.Acceptance
+	// Scope is set for a scoped check, Baseline for one compared with an
+	// earlier run.
+	Scope    *ScopeInfo
+	Baseline *Comparison
 }
 
 // PairRow is one backup pair by name.
@@ -48,6 +56,8 @@ func NewFindings(s *coord.Study, r *coord.Result) *Findings {
 		f.Rows = append(f.Rows, newRow(x))
 	}
 	f.Pass, f.Warn, f.Fail = r.Counts()
+	f.Accepted = r.Accepted()
+	f.Acceptances = s.Accepts
 	return f
 }
 
@@ -135,7 +145,8 @@ func criteriaLines(c coord.Criteria) []string {
 	}
 }
 
-// Verdict is the overall verdict line.
+// Verdict is the overall verdict line. Accepted findings are counted
+// apart, and only when there are any.
 func (f *Findings) Verdict() string {
 	overall := "PASS"
 	switch {
@@ -143,8 +154,14 @@ func (f *Findings) Verdict() string {
 		overall = "FAIL"
 	case f.Warn > 0:
 		overall = "PASS with warnings"
+	case f.Accepted > 0:
+		overall = "PASS with accepted findings"
 	}
-	return fmt.Sprintf("%d PASS, %d WARN, %d FAIL: %s", f.Pass, f.Warn, f.Fail, overall)
+	accepted := ""
+	if f.Accepted > 0 {
+		accepted = fmt.Sprintf(", %d ACCEPTED", f.Accepted)
+	}
+	return fmt.Sprintf("%d PASS, %d WARN, %d FAIL%s: %s", f.Pass, f.Warn, f.Fail, accepted, overall)
 }
 
 // groups returns the rows of each check in report order.

@@ -7,7 +7,6 @@ import (
 	"io"
 	"math"
 	"strings"
-	"text/tabwriter"
 )
 
 // WriteText writes the findings aligned for a terminal: the pairs, then a
@@ -15,11 +14,8 @@ import (
 func (f *Findings) WriteText(w io.Writer) error {
 	ew := &errWriter{w: w}
 	fmt.Fprintf(ew, "tripgrade coordination check: %s\n", f.Study)
-	for _, c := range f.Cases {
-		fmt.Fprintf(ew, "  %s\n", c)
-	}
-	for _, c := range f.Criteria {
-		fmt.Fprintf(ew, "  %s\n", c)
+	for _, c := range append(append(append([]string{}, f.Cases...), f.Criteria...), f.Scope.lines()...) {
+		fmt.Fprintf(ew, "  %s\n", wrap(c, TextWidth-2, "      "))
 	}
 	fmt.Fprintf(ew, "\nBackup pairs (upstream → downstream, from the topology and the fault-current direction):\n")
 	for _, p := range f.Pairs {
@@ -32,25 +28,10 @@ func (f *Findings) WriteText(w io.Writer) error {
 		fmt.Fprintf(ew, "  excluded by [[pair]]: %s\n", joinPairs(f.Excluded))
 	}
 	for _, g := range f.groups() {
-		c := g[0].Finding.Check
-		fmt.Fprintf(ew, "\n%s\n", strings.ToUpper(c.String()))
-		tw := tabwriter.NewWriter(ew, 0, 0, 2, ' ', 0)
-		with := withHeading(c)
-		head := "verdict\tdevice\t"
-		if with != "" {
-			head += with + "\t"
-		}
-		fmt.Fprintln(tw, head+"stage\tmeasured\trequired\tmargin\tfault\tdetail\tnote")
-		for _, r := range g {
-			x := r.Finding
-			line := x.Verdict.String() + "\t" + x.Device + "\t"
-			if with != "" {
-				line += x.Other + "\t"
-			}
-			fmt.Fprintf(tw, "%s%s\t%s\t%s\t%s\t%s\t%s\t%s\n", line, dash(x.Stage), r.Measured, r.Required, r.Margin, dash(r.Fault), dash(r.Detail), x.Note)
-		}
-		tw.Flush()
+		fmt.Fprintf(ew, "\n%s\n", strings.ToUpper(g[0].Finding.Check.String()))
+		findingsTable(g).write(ew)
 	}
+	f.Baseline.writeText(ew)
 	fmt.Fprintf(ew, "\n%s\n%s\n", f.Verdict(), Caution)
 	return ew.err
 }
@@ -66,7 +47,7 @@ func dash(s string) string {
 func (f *Findings) WriteMarkdown(w io.Writer) error {
 	ew := &errWriter{w: w}
 	fmt.Fprintf(ew, "# Coordination check: %s\n\n> %s\n\n", md(f.Study), Caution)
-	for _, c := range append(append([]string{}, f.Cases...), f.Criteria...) {
+	for _, c := range append(append(append([]string{}, f.Cases...), f.Criteria...), f.Scope.lines()...) {
 		fmt.Fprintf(ew, "- %s\n", md(c))
 	}
 	fmt.Fprintf(ew, "\n**%s**\n\n## Backup pairs\n\n", f.Verdict())
@@ -95,9 +76,14 @@ func (f *Findings) WriteMarkdown(w io.Writer) error {
 			if with != "" {
 				line += " " + md(x.Other) + " |"
 			}
-			fmt.Fprintf(ew, "%s %s | %s | %s | %s | %s | %s | %s |\n", line, md(x.Stage), md(r.Measured), md(r.Required), md(r.Margin), md(r.Fault), md(r.Detail), md(x.Note))
+			note := x.Note
+			if x.Acceptance != nil {
+				note = strings.TrimPrefix(note+"; "+acceptanceText(x.Acceptance), "; ")
+			}
+			fmt.Fprintf(ew, "%s %s | %s | %s | %s | %s | %s | %s |\n", line, md(x.Stage), md(r.Measured), md(r.Required), md(r.Margin), md(r.Fault), md(r.Detail), md(note))
 		}
 	}
+	f.Baseline.writeMarkdown(ew)
 	return ew.err
 }
 
@@ -150,18 +136,19 @@ func (f *Findings) WriteJSON(w io.Writer) error {
 		OtherS       *float64 `json:"other_time_s,omitempty"`
 	}
 	type finding struct {
-		Check    string   `json:"check"`
-		Verdict  string   `json:"verdict"`
-		Device   string   `json:"device"`
-		Other    string   `json:"other,omitempty"`
-		Stage    string   `json:"stage,omitempty"`
-		Measured *float64 `json:"measured,omitempty"`
-		Required *float64 `json:"required,omitempty"`
-		Margin   *float64 `json:"margin,omitempty"`
-		Unit     string   `json:"unit,omitempty"`
-		Relation string   `json:"relation,omitempty"`
-		Fault    *fault   `json:"fault,omitempty"`
-		Note     string   `json:"note,omitempty"`
+		Check    string    `json:"check"`
+		Verdict  string    `json:"verdict"`
+		Device   string    `json:"device"`
+		Other    string    `json:"other,omitempty"`
+		Stage    string    `json:"stage,omitempty"`
+		Measured *float64  `json:"measured,omitempty"`
+		Required *float64  `json:"required,omitempty"`
+		Margin   *float64  `json:"margin,omitempty"`
+		Unit     string    `json:"unit,omitempty"`
+		Relation string    `json:"relation,omitempty"`
+		Fault    *fault    `json:"fault,omitempty"`
+		Note     string    `json:"note,omitempty"`
+		Accepted *accepted `json:"accepted,omitempty"`
 	}
 	type pair struct {
 		Upstream   string `json:"upstream"`
@@ -175,20 +162,25 @@ func (f *Findings) WriteJSON(w io.Writer) error {
 		return &v
 	}
 	doc := struct {
-		Study    string    `json:"study"`
-		Caution  string    `json:"caution"`
-		Cases    []string  `json:"cases"`
-		Criteria []string  `json:"criteria"`
-		Pairs    []pair    `json:"pairs"`
-		Excluded []pair    `json:"excluded_pairs"`
-		Findings []finding `json:"findings"`
+		Schema   int        `json:"schema_version"`
+		Study    string     `json:"study"`
+		Caution  string     `json:"caution"`
+		Cases    []string   `json:"cases"`
+		Criteria []string   `json:"criteria"`
+		Pairs    []pair     `json:"pairs"`
+		Excluded []pair     `json:"excluded_pairs"`
+		Findings []finding  `json:"findings"`
+		Accepts  []accepted `json:"acceptances"`
 		Summary  struct {
-			Pass int    `json:"pass"`
-			Warn int    `json:"warn"`
-			Fail int    `json:"fail"`
-			Text string `json:"text"`
+			Pass     int    `json:"pass"`
+			Warn     int    `json:"warn"`
+			Fail     int    `json:"fail"`
+			Accepted int    `json:"accepted"`
+			Text     string `json:"text"`
 		} `json:"summary"`
-	}{Study: f.Study, Caution: Caution, Cases: f.Cases, Criteria: f.Criteria, Pairs: []pair{}, Excluded: []pair{}, Findings: []finding{}}
+		Scope    *jsonScope      `json:"scope,omitempty"`
+		Baseline *jsonComparison `json:"baseline,omitempty"`
+	}{Schema: SchemaVersion, Study: f.Study, Accepts: []accepted{}, Caution: Caution, Cases: f.Cases, Criteria: f.Criteria, Pairs: []pair{}, Excluded: []pair{}, Findings: []finding{}}
 	for _, p := range f.Pairs {
 		doc.Pairs = append(doc.Pairs, pair{p.Upstream, p.Downstream, p.Manual})
 	}
@@ -201,6 +193,9 @@ func (f *Findings) WriteJSON(w io.Writer) error {
 			Unit: x.Unit, Relation: x.Relation, Note: x.Note}
 		if x.Valid {
 			j.Measured, j.Required, j.Margin = ptr(x.Measured), ptr(x.Required), ptr(x.Margin)
+		}
+		if a := x.Acceptance; a != nil {
+			j.Accepted = &accepted{Reason: a.Reason, By: a.By, Date: a.Date, Was: a.Was.String()}
 		}
 		if ft := x.Fault; ft != nil {
 			jf := &fault{Kind: ft.Kind.String(), Case: ft.Case.String(), Place: ft.Place, Interpolated: ft.Interpolated, DeviceA: ptr(ft.DeviceA)}
@@ -217,7 +212,13 @@ func (f *Findings) WriteJSON(w io.Writer) error {
 		}
 		doc.Findings = append(doc.Findings, j)
 	}
+	for _, a := range f.Acceptances {
+		doc.Accepts = append(doc.Accepts, accepted{Check: a.Check, Device: a.Device, Other: a.Other, Stage: a.Stage, Reason: a.Reason, By: a.By, Date: a.Date})
+	}
 	doc.Summary.Pass, doc.Summary.Warn, doc.Summary.Fail, doc.Summary.Text = f.Pass, f.Warn, f.Fail, f.Verdict()
+	doc.Summary.Accepted = f.Accepted
+	doc.Scope = f.Scope.json()
+	doc.Baseline = f.Baseline.json()
 	enc := json.NewEncoder(w)
 	enc.SetIndent("", "  ")
 	return enc.Encode(doc)

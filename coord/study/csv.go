@@ -10,6 +10,8 @@ import (
 	"path/filepath"
 	"strconv"
 	"strings"
+
+	"tripgrade/coord"
 )
 
 // Settings tables: a CSV file named by [study] settings_csv, one row per
@@ -82,6 +84,7 @@ func (b *builder) readSettingsCSV(dir fs.FS, name string, studyLine int) {
 		b.errorf(studyLine, "", "settings_csv = %q: %v", name, unwrapPath(err))
 		return
 	}
+	b.st.Inputs = append(b.st.Inputs, coord.NewInputFile(shown, data))
 	r := csv.NewReader(bytes.NewReader(data))
 	r.TrimLeadingSpace = true
 	r.Comment = '#'

@@ -5,6 +5,7 @@ import (
 	"math"
 	"reflect"
 	"sort"
+	"time"
 )
 
 // decoder fills the raw schema structs from the generic tree a TOML parser
@@ -184,6 +185,8 @@ func describe(v any) string {
 		return "a list"
 	case map[string]any:
 		return "a table"
+	case time.Time:
+		return "a bare TOML date or time; put it in quotes"
 	}
 	return fmt.Sprintf("%T", v)
 }

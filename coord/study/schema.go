@@ -18,6 +18,7 @@ type rawFile struct {
 	Relays      []rawRelay       `key:"relay"`
 	Fuses       []rawFuse        `key:"fuse"`
 	Pairs       []rawPair        `key:"pair"`
+	Accepts     []rawAccept      `key:"accept"`
 }
 
 type rawStudy struct {

@@ -51,6 +51,7 @@ func Parse(name string, src []byte, dir fs.FS) (*coord.Study, error) {
 		branchBad:  map[int]bool{},
 	}
 	b.st.Network = b.net
+	b.st.Inputs = []coord.InputFile{coord.NewInputFile(name, src)}
 	b.build(dir)
 	if len(b.errs) > 0 {
 		return nil, b.errs.sorted(name)
@@ -88,6 +89,7 @@ func (b *builder) build(dir fs.FS) {
 	}
 	b.ownProtection()
 	b.buildPairs()
+	b.buildAccepts()
 }
 
 // uniqueLabels numbers stages that would otherwise share a label (two
