@@ -74,6 +74,10 @@ type Device struct {
 	// MaxLoadA is a declared maximum load current through the device; zero
 	// means the sum of the loads beyond it.
 	MaxLoadA float64
+	// InstantaneousTimeS is the relay's own operating time for its
+	// instantaneous stages (Criteria.InstantaneousTimeS unless the relay
+	// gives one). Their Curve already includes it.
+	InstantaneousTimeS float64
 
 	// Fuse data.
 	RatingA float64
@@ -101,8 +105,10 @@ type Stage struct {
 	Shape      curves.Shape
 	PickupA    float64 // primary amperes
 	Multiplier float64 // TMS or TD for inverse shapes
-	DelayS     float64 // definite-time delay or instantaneous intentional delay
-	// Curve is the stage's characteristic in primary amperes.
+	DelayS     float64 // definite-time delay or instantaneous intentional delay, as set
+	// Curve is the stage's characteristic in primary amperes: the time the
+	// stage takes to operate. An instantaneous stage's curve operates in
+	// DelayS plus the relay's InstantaneousTimeS.
 	Curve curves.Characteristic
 	// Declared setting ranges to audit against (zero Range: none declared).
 	PickupRange     Range // in primary amperes

@@ -80,20 +80,54 @@ func NewFaultTables(s *coord.Study, levels []faults.PointSummary, buses []faults
 // CaseLines describes the two cases of a study in words.
 func CaseLines(s *coord.Study) []string {
 	f := s.Faults
-	lv := "1.05"
-	lvMin := "0.95"
-	if f.LVTolerance10 {
-		lv, lvMin = "1.10", "0.90"
-	}
 	heat := "conductors at 20 °C"
 	if f.EndTempC > 0 {
 		heat = fmt.Sprintf("line resistance at %g °C", f.EndTempC)
 	}
 	return []string{
-		fmt.Sprintf("maximum case: c_max 1.10 above 1 kV, %s up to 1 kV (IEC 60909-0 Table 1); maximum source strength; generators in service; K_T and K_G corrections; bolted faults", lv),
-		fmt.Sprintf("minimum case: c_min 1.00 above 1 kV, %s up to 1 kV; minimum source strength; only generators marked always_running; %s; earth-fault resistance %g Ω above 1 kV, %g Ω up to 1 kV; phase-fault resistance %g Ω",
-			lvMin, heat, f.EarthFaultOhm, f.EarthFaultOhmLV, f.PhaseFaultOhm),
+		fmt.Sprintf("maximum case: %s; maximum source strength; generators in service; K_T and K_G corrections; bolted faults", factorText(f, faults.Max)),
+		fmt.Sprintf("minimum case: %s; minimum source strength; only generators marked always_running; %s; %s above 1 kV, %s up to 1 kV; %s",
+			factorText(f, faults.Min), heat, faultZ("earth-fault", f.EarthFaultOhm, f.EarthFaultXOhm, f.EarthFaultXOhmLV),
+			ohms(f.EarthFaultOhmLV, f.EarthFaultXOhmLV), faultZ("phase-fault", f.PhaseFaultOhm, f.PhaseFaultXOhm, 0)),
 	}
+}
+
+// factorText names the voltage factor of a case: the study's own, or
+// those of IEC 60909-0 Table 1 above and up to 1 kV.
+func factorText(f faults.Settings, cs faults.Case) string {
+	name, given := "c_max", f.CMax
+	if cs == faults.Min {
+		name, given = "c_min", f.CMin
+	}
+	table := func(kv float64) string {
+		return fmt.Sprintf("%.2f", faults.TableVoltageFactor(kv, cs, f.LVTolerance10))
+	}
+	if given > 0 {
+		return fmt.Sprintf("%s %.2f at every voltage (set by the study; IEC 60909-0 Table 1 gives %s above 1 kV, %s up to 1 kV)", name, given, table(11), table(0.4))
+	}
+	s := fmt.Sprintf("%s %s above 1 kV, %s up to 1 kV", name, table(11), table(0.4))
+	if cs == faults.Max {
+		s += " (IEC 60909-0 Table 1)"
+	}
+	return s
+}
+
+// faultZ names a fault impedance: "earth-fault resistance 10 Ω" while the
+// study gives no reactance (xOther: the reactance of the same faults on the
+// other side of 1 kV), "earth-fault impedance 10 + j5 Ω" when it does.
+func faultZ(what string, r, x, xOther float64) string {
+	if x == 0 && xOther == 0 {
+		return what + " resistance " + ohms(r, x)
+	}
+	return what + " impedance " + ohms(r, x)
+}
+
+// ohms formats a fault impedance: "10 Ω", or "10 + j5 Ω" with a reactance.
+func ohms(r, x float64) string {
+	if x == 0 {
+		return fmt.Sprintf("%g Ω", r)
+	}
+	return fmt.Sprintf("%g + j%g Ω", r, x)
 }
 
 // amps formats a current for a table: whole amperes from 100 A up, one

@@ -126,7 +126,7 @@ func criteriaLines(c coord.Criteria) []string {
 		times = "worst-case times within declared accuracy (upstream earliest, downstream latest)"
 	}
 	return []string{
-		fmt.Sprintf("%s, %.2f s relay over fuse, downstream clearing ≤ %g × upstream fuse melting; %s", margin, c.MarginFuseS, c.FuseMeltRatio, times),
+		fmt.Sprintf("%s, %.2f s relay over fuse, downstream clearing ≤ %g × upstream fuse melting; %s; instantaneous stages operate in %.3f s unless a relay gives its own", margin, c.MarginFuseS, c.FuseMeltRatio, times, c.InstantaneousTimeS),
 		fmt.Sprintf("sensitivity ≥ %g × pickup in the own zone, ≥ %g × at the end of the next zone; pickup ≥ %g × maximum load; instantaneous pickup ≥ %g × maximum through-fault (stages up to %g s)",
 			c.SensitivityPrimary, c.SensitivityBackup, c.LoadFactor, c.InstantaneousFactor, c.ShortDelayS),
 		fmt.Sprintf("inrush %g × transformer full-load current for %g s; damage: clear before the IEEE C57.109 or adiabatic withstand", c.InrushMultiple, c.InrushTimeS),

@@ -59,6 +59,7 @@ func (b *builder) buildRelays() {
 			}
 		}
 		d.MaxLoadA = b.optional(w, "max_load_a", r.MaxLoadA, 0, 0, math.Inf(1), true)
+		d.InstantaneousTimeS = b.optional(w, "instantaneous_time_s", r.InstTimeS, b.st.Criteria.InstantaneousTimeS, 0, 1, false)
 		for j, rs := range r.Stages {
 			sw := where{path: fmt.Sprintf("%s.stage[%d]", path, j), element: fmt.Sprintf("relay %q stage %d", r.Name, j+1)}
 			if st, ok := b.stage(sw, rs, d.CT); ok {
