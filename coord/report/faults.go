@@ -139,6 +139,14 @@ func amps(a float64) string {
 	return fmt.Sprintf("%.1f", a)
 }
 
+// ampsOrNone formats a current for a table, "none" for no current.
+func ampsOrNone(a float64) string {
+	if a == 0 {
+		return "none"
+	}
+	return amps(a)
+}
+
 func (f Figure) text(none string) (string, string) {
 	if !f.Found {
 		return "-", none
@@ -172,7 +180,7 @@ func (t *FaultTables) WriteText(w io.Writer) error {
 		fmt.Fprintf(tw, "%s\t%g\t", b.Bus, b.KV)
 		for _, cs := range faults.Cases {
 			for _, k := range faults.Kinds {
-				fmt.Fprintf(tw, "%s\t", amps(busFigure(b.Faults[cs][k], k)))
+				fmt.Fprintf(tw, "%s\t", ampsOrNone(busFigure(b.Faults[cs][k], k)))
 			}
 		}
 		fmt.Fprintln(tw)
@@ -223,6 +231,14 @@ func (t *FaultTables) WriteCSV(w io.Writer) error {
 	return cw.Error()
 }
 
+// phasorFloor is the share of a point's largest current below which one
+// of its phase or residual currents counts as none: far above the
+// rounding residue of summing sequence currents (about 1e-15), far below
+// any current a network drives (the engine's own cut-off is 1e-10 of the
+// fault's sequence current). It is relative, so it does not depend on
+// base_mva.
+const phasorFloor = 1e-9
+
 type jsonFigure struct {
 	CurrentA  *float64     `json:"current_a"`
 	FaultKind string       `json:"fault_kind,omitempty"`
@@ -255,8 +271,15 @@ func (f Figure) json() jsonFigure {
 	}
 	a := f.A
 	ph := f.At.Phases()
+	// A healthy phase of an earth fault is a sum of sequence currents that
+	// cancel; rounding leaves some 1e-15 of the point's largest current.
+	// Below phasorFloor of it a current is none: 0 A at 0°.
+	largest := cmplx.Abs(f.At.Residual())
+	for _, c := range ph {
+		largest = math.Max(largest, cmplx.Abs(c))
+	}
 	polar := func(c complex128) (float64, float64) {
-		if cmplx.Abs(c) == 0 {
+		if !(cmplx.Abs(c) > phasorFloor*largest) {
 			return 0, 0
 		}
 		return cmplx.Abs(c), cmplx.Phase(c) * 180 / math.Pi

@@ -170,6 +170,8 @@ type rawRelay struct {
 	AccuracyMinS    *float64   `key:"accuracy_min_s"`
 	MaxLoadA        *float64   `key:"max_load_a"`
 	InstTimeS       *float64   `key:"instantaneous_time_s"`
+	MarginS         *float64   `key:"margin_s"`
+	EarthFaultsBy   string     `key:"earth_faults_cleared_by"`
 	Stages          []rawStage `key:"stage"`
 }
 
@@ -203,10 +205,13 @@ type rawFuse struct {
 	RatingA *float64     `key:"rating_a"`
 	Melt    [][2]float64 `key:"melt"`
 	Clear   [][2]float64 `key:"clear"`
+	// EarthFaultsBy is as for a relay.
+	EarthFaultsBy string `key:"earth_faults_cleared_by"`
 }
 
 type rawPair struct {
-	Upstream   string `key:"upstream"`
-	Downstream string `key:"downstream"`
-	Exclude    *bool  `key:"exclude"`
+	Upstream   string   `key:"upstream"`
+	Downstream string   `key:"downstream"`
+	Exclude    *bool    `key:"exclude"`
+	MarginS    *float64 `key:"margin_s"`
 }

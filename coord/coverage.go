@@ -1,0 +1,136 @@
+package coord
+
+import (
+	"fmt"
+	"strings"
+
+	"tripgrade/faults"
+)
+
+// detection is how well a device detects one fault: the larger of its
+// phase current over its lowest phase pickup and its residual current
+// over its lowest ground pickup (a fuse: its current over the first
+// current of its melting table).
+type detection struct {
+	multiple float64
+	a        float64 // the current behind the multiple
+	q        Quantity
+}
+
+func detect(d *Device, phaseA, residualA float64) detection {
+	var best detection
+	for _, q := range []Quantity{Phase, Residual} {
+		p := d.Pickup(q)
+		a := phaseA
+		if q == Residual {
+			a = residualA
+		}
+		if p > 0 && a/p > best.multiple {
+			best = detection{multiple: a / p, a: a, q: q}
+		}
+	}
+	return best
+}
+
+// detected reports whether a multiple of pickup operates the device: a
+// relay stage operates only above its pickup, a fuse's melting table is
+// defined from its first current on.
+func (d *Device) detected(multiple float64) bool {
+	if d.Kind == Fuse {
+		return multiple >= 1
+	}
+	return multiple > 1
+}
+
+// coverage: every fault kind that drives current through the device
+// somewhere in its zone, in the minimum case, is detected by at least one
+// of its stages (a fuse: melts at all) at every place of the zone. A kind
+// that no stage detects somewhere fails: its stage groups may each pass
+// on the kinds they exist for (phase: LLL and LL; ground: LG) while a
+// double-line-to-earth fault, or an earth fault seen only by phase stages,
+// slips through. Earth faults behind a delta winding that the device
+// declares left to other protection (earth_faults_cleared_by) are not
+// checked, which makes the finding a WARN.
+func (c *checker) coverage(i int) (*Finding, error) {
+	d := &c.s.Devices[i]
+	if d.Pickup(Phase) == 0 && d.Pickup(Residual) == 0 {
+		return nil, nil
+	}
+	var worst detection
+	var worstPlace faults.Place
+	var worstKind faults.Kind
+	found := false
+	seen := map[faults.Kind]bool{}
+	declared := 0
+	for _, k := range faults.Kinds {
+		for _, pl := range c.places[i] {
+			sol, err := c.sol.solve(pl, k, faults.Min)
+			if err != nil {
+				return nil, err
+			}
+			if !sol.Energised() {
+				continue
+			}
+			ph, res := Measured(sol.At(d.Point))
+			if ph == 0 && res == 0 {
+				continue
+			}
+			seen[k] = true
+			det := detect(d, ph, res)
+			if k.Earth() && res == 0 && d.EarthFaultsBy != "" && !d.detected(det.multiple) {
+				declared++
+				continue
+			}
+			if !found || det.multiple < worst.multiple*(1-tieTolerance) {
+				worst, worstPlace, worstKind, found = det, pl, k, true
+			}
+		}
+	}
+	var none []string
+	for _, k := range faults.Kinds {
+		if !seen[k] {
+			none = append(none, k.String())
+		}
+	}
+	if !found {
+		if declared == 0 {
+			return nil, nil // no fault current reaches the device: the sensitivity findings say so
+		}
+		f := unchecked(PrimarySensitivity, fmt.Sprintf("every fault of the zone that drives current through the device is an earth fault beyond a delta winding, which it leaves to \"%s\" (declared by the study)", d.EarthFaultsBy))
+		f.Device, f.Stage = d.Name, coverageStage
+		return &f, nil
+	}
+	f := atLeast(PrimarySensitivity, worst.multiple, 1, "×")
+	if !d.detected(worst.multiple) {
+		f.Verdict = Fail
+	}
+	f.Device, f.Stage = d.Name, coverageStage
+	f.Fault = &FaultRef{Kind: worstKind, Case: faults.Min, Place: PlaceName(c.s.Network, worstPlace), DeviceA: worst.a, DeviceQty: worst.q}
+	what := "its lowest pickup"
+	if d.Kind == Fuse {
+		what = "its lowest melting current"
+	}
+	if f.Verdict == Fail {
+		f.Note = fmt.Sprintf("an %s fault of the zone is detected by none of its stages: its largest current is %s of %s", worstKind, fmtMultiple(worst.multiple), what)
+		if d.Kind == Relay && d.Pickup(Residual) == 0 && worstKind.Earth() {
+			f.Note += " (it has no ground stage)"
+		}
+	} else {
+		f.Note = fmt.Sprintf("every fault kind of the zone is detected, minimum case; the least is %s at %s of %s", worstKind, fmtMultiple(worst.multiple), what)
+	}
+	if len(none) > 0 {
+		f.Note += fmt.Sprintf("; no %s fault drives current through it", strings.Join(none, " or "))
+	}
+	if declared > 0 {
+		f.Note += fmt.Sprintf("; not checked: %d earth faults beyond a delta winding that it does not detect are left to \"%s\" (declared by the study)", declared, d.EarthFaultsBy)
+		if f.Verdict == Pass {
+			f.Verdict = Warn
+		}
+	}
+	return &f, nil
+}
+
+// coverageStage names the coverage finding's stage column.
+const coverageStage = "every kind"
+
+func fmtMultiple(m float64) string { return fmt.Sprintf("%.2f ×", m) }
