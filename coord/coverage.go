@@ -111,12 +111,12 @@ func (c *checker) coverage(i int) (*Finding, error) {
 		what = "its lowest melting current"
 	}
 	if f.Verdict == Fail {
-		f.Note = fmt.Sprintf("an %s fault of the zone is detected by none of its stages: its largest current is %s of %s", worstKind, fmtMultiple(worst.multiple), what)
+		f.Note = fmt.Sprintf("an %s fault of the zone is detected by none of its stages: its largest current is %s %s", worstKind, fmtMultiple(worst.multiple), what)
 		if d.Kind == Relay && d.Pickup(Residual) == 0 && worstKind.Earth() {
 			f.Note += " (it has no ground stage)"
 		}
 	} else {
-		f.Note = fmt.Sprintf("every fault kind of the zone is detected, minimum case; the least is %s at %s of %s", worstKind, fmtMultiple(worst.multiple), what)
+		f.Note = fmt.Sprintf("every fault kind of the zone is detected, minimum case; the least is %s at %s %s", worstKind, fmtMultiple(worst.multiple), what)
 	}
 	if len(none) > 0 {
 		f.Note += fmt.Sprintf("; no %s fault drives current through it", strings.Join(none, " or "))
