@@ -67,60 +67,64 @@ func (s sample) scaled(k float64) sample {
 // swept reports whether the sample is a point of the sweep.
 func (s sample) swept() bool { return s.scale != 1 }
 
-// familyTolerance is the relative difference below which two solved
-// faults count as standing in the same ratio (a radial network gives
-// exactly equal ratios, up to the rounding of the solves).
-const familyTolerance = 1e-6
+// familyResolution is the resolution at which two solved faults count as
+// standing in the same ratio: their currents, each divided by the largest
+// of the four, agree to within it (a radial network gives exactly equal
+// ratios, up to the rounding of the solves). Two faults that fall either
+// side of a rounding boundary form two families; each is still swept down
+// to the weakest fault at its own places with the same ratio, so nothing
+// is lost.
+const familyResolution = 1e-6
 
-// sameFamily reports whether a and b are of one kind and their four
-// currents stand in one ratio.
-func sameFamily(a, b sample) bool {
-	if a.kind != b.kind {
-		return false
+// familyKey identifies a family: the kind, which currents are not zero,
+// and the four currents in proportion, to familyResolution.
+type familyKey struct {
+	kind    faults.Kind
+	nonZero [4]bool
+	ratio   [4]int64
+}
+
+func keyOf(s sample) (familyKey, bool) {
+	v := [4]float64{s.dp, s.dr, s.up, s.ur}
+	norm := math.Max(math.Max(v[0], v[1]), math.Max(v[2], v[3]))
+	if !(norm > 0) || !(s.key() > 0) {
+		return familyKey{}, false
 	}
-	va := [4]float64{a.dp, a.dr, a.up, a.ur}
-	vb := [4]float64{b.dp, b.dr, b.up, b.ur}
-	na, nb := math.Max(math.Max(va[0], va[1]), math.Max(va[2], va[3])), math.Max(math.Max(vb[0], vb[1]), math.Max(vb[2], vb[3]))
-	if !(na > 0) || !(nb > 0) {
-		return false
+	k := familyKey{kind: s.kind}
+	for i, x := range v {
+		k.nonZero[i] = x > 0
+		k.ratio[i] = int64(math.Round(x / norm / familyResolution))
 	}
-	for i := range va {
-		if (va[i] > 0) != (vb[i] > 0) || math.Abs(va[i]/na-vb[i]/nb) > familyTolerance {
-			return false
-		}
-	}
-	return true
+	return k, true
 }
 
 // family is a set of solved samples of one kind in one ratio: its
 // largest member and the places of all its members.
 type family struct {
 	top    sample
-	places map[string]bool
+	places []string
 }
 
 // families groups the solved samples into families, in the order the
 // families first appear.
 func families(pts []sample) []family {
 	var fs []family
+	index := map[familyKey]int{}
 	for _, p := range pts {
-		if !(p.key() > 0) {
+		k, ok := keyOf(p)
+		if !ok {
 			continue
 		}
-		found := false
-		for i := range fs {
-			if sameFamily(p, fs[i].top) {
-				if p.key() > fs[i].top.key()*(1+tieTolerance) {
-					fs[i].top = p
-				}
-				fs[i].places[p.place] = true
-				found = true
-				break
-			}
+		i, seen := index[k]
+		if !seen {
+			index[k] = len(fs)
+			fs = append(fs, family{top: p, places: []string{p.place}})
+			continue
 		}
-		if !found {
-			fs = append(fs, family{top: p, places: map[string]bool{p.place: true}})
+		if p.key() > fs[i].top.key()*(1+tieTolerance) {
+			fs[i].top = p
 		}
+		fs[i].places = append(fs[i].places, p.place)
 	}
 	return fs
 }
@@ -146,6 +150,21 @@ func sweep(pts []sample, knees [4][]float64, byOther bool) []sample {
 		}
 		return s.dr, 1
 	}
+	// The weakest solved fault of each kind at each place, per quantity.
+	type at struct {
+		kind  faults.Kind
+		place string
+		q     int
+	}
+	weakest := map[at]float64{}
+	for _, p := range pts {
+		if b, q := bound(p); b > 0 {
+			k := at{p.kind, p.place, q}
+			if w, ok := weakest[k]; !ok || b < w {
+				weakest[k] = b
+			}
+		}
+	}
 	var out []sample
 	for _, fam := range families(pts) {
 		top := fam.top
@@ -154,9 +173,9 @@ func sweep(pts []sample, knees [4][]float64, byOther bool) []sample {
 			continue
 		}
 		low := a
-		for _, p := range pts {
-			if b, bq := bound(p); p.kind == top.kind && fam.places[p.place] && bq == q && b > 0 && b < low {
-				low = b
+		for _, pl := range fam.places {
+			if w, ok := weakest[at{top.kind, pl, q}]; ok && w < low {
+				low = w
 			}
 		}
 		lo := low / a
