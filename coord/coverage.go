@@ -15,10 +15,11 @@ type detection struct {
 	multiple float64
 	a        float64 // the current behind the multiple
 	q        Quantity
+	dev      int // the device
 }
 
-func detect(d *Device, phaseA, residualA float64) detection {
-	var best detection
+func detect(d *Device, dev int, phaseA, residualA float64) detection {
+	best := detection{dev: dev}
 	for _, q := range []Quantity{Phase, Residual} {
 		p := d.Pickup(q)
 		a := phaseA
@@ -26,10 +27,23 @@ func detect(d *Device, phaseA, residualA float64) detection {
 			a = residualA
 		}
 		if p > 0 && a/p > best.multiple {
-			best = detection{multiple: a / p, a: a, q: q}
+			best = detection{multiple: a / p, a: a, q: q, dev: dev}
 		}
 	}
 	return best
+}
+
+// scheme returns device i and the other devices at its point: one set of
+// current transformers feeding, say, a phase relay and a separate
+// earth-fault relay. They detect a fault together.
+func (c *checker) scheme(i int) []int {
+	out := []int{i}
+	for j := range c.s.Devices {
+		if j != i && c.s.Devices[j].Point == c.s.Devices[i].Point {
+			out = append(out, j)
+		}
+	}
+	return out
 }
 
 // detected reports whether a multiple of pickup operates the device: a
@@ -44,7 +58,8 @@ func (d *Device) detected(multiple float64) bool {
 
 // coverage: every fault kind that drives current through the device
 // somewhere in its zone, in the minimum case, is detected by at least one
-// of its stages (a fuse: melts at all) at every place of the zone. A kind
+// of its stages (a fuse: melts at all), or of another device at the same
+// point, at every place of the zone. A kind
 // that no stage detects somewhere fails: its stage groups may each pass
 // on the kinds they exist for (phase: LLL and LL; ground: LG) while a
 // double-line-to-earth fault, or an earth fault seen only by phase stages,
@@ -76,8 +91,13 @@ func (c *checker) coverage(i int) (*Finding, error) {
 				continue
 			}
 			seen[k] = true
-			det := detect(d, ph, res)
-			if k.Earth() && res == 0 && d.EarthFaultsBy != "" && !d.detected(det.multiple) {
+			det := detection{dev: i}
+			for _, j := range c.scheme(i) {
+				if x := detect(&c.s.Devices[j], j, ph, res); x.multiple > det.multiple {
+					det = x
+				}
+			}
+			if k.Earth() && res == 0 && d.EarthFaultsBy != "" && !c.s.Devices[det.dev].detected(det.multiple) {
 				declared++
 				continue
 			}
@@ -101,19 +121,27 @@ func (c *checker) coverage(i int) (*Finding, error) {
 		return &f, nil
 	}
 	f := atLeast(PrimarySensitivity, worst.multiple, 1, "×")
-	if !d.detected(worst.multiple) {
+	by := &c.s.Devices[worst.dev]
+	if !by.detected(worst.multiple) {
 		f.Verdict = Fail
 	}
 	f.Device, f.Stage = d.Name, coverageStage
 	f.Fault = &FaultRef{Kind: worstKind, Case: faults.Min, Place: PlaceName(c.s.Network, worstPlace), DeviceA: worst.a, DeviceQty: worst.q}
 	what := "its lowest pickup"
-	if d.Kind == Fuse {
+	if by.Kind == Fuse {
 		what = "its lowest melting current"
+	}
+	if worst.dev != i {
+		what = fmt.Sprintf("the lowest pickup of %s at the same point", by.Name)
 	}
 	if f.Verdict == Fail {
 		f.Note = fmt.Sprintf("an %s fault of the zone is detected by none of its stages: its largest current is %s %s", worstKind, fmtMultiple(worst.multiple), what)
-		if d.Kind == Relay && d.Pickup(Residual) == 0 && worstKind.Earth() {
-			f.Note += " (it has no ground stage)"
+		noGround := true
+		for _, j := range c.scheme(i) {
+			noGround = noGround && c.s.Devices[j].Pickup(Residual) == 0
+		}
+		if noGround && worstKind.Earth() {
+			f.Note += " (no ground stage)"
 		}
 	} else {
 		f.Note = fmt.Sprintf("every fault kind of the zone is detected, minimum case; the least is %s at %s %s", worstKind, fmtMultiple(worst.multiple), what)

@@ -110,3 +110,27 @@ func TestBaseMVADoesNotChangeFindings(t *testing.T) {
 		}
 	}
 }
+
+// TestCoverageCountsDevicesAtOnePoint: a separate earth-fault relay on the
+// same current transformers as R1 detects the 243.4 A earth fault at B
+// (3·E/|77.7 + j9.5|, as above) at 243.4/40 = 6.08 × its pickup, so R1's
+// every-kind finding passes with it; and R1 detects the phase faults the
+// earth-fault relay cannot see (the smallest, LL at B in the minimum
+// case, 11000/(2·2.5) = 2200 A, at 2200/300 = 7.33 × R1's pickup). For
+// both the least detected kind is then that earth fault, at 6.08 ×.
+func TestCoverageCountsDevicesAtOnePoint(t *testing.T) {
+	extra := "[[relay]]\nname = \"R1N\"\nbranch = \"L1\"\nat = \"A\"\nct_primary_a = 400\nct_secondary_a = 1\n" +
+		"  [[relay.stage]]\n  measures = \"ground\"\n  curve = \"iec-si\"\n  pickup_a = 40\n  tms = 0.3\n\n[[relay]]\nname = \"R2\""
+	_, r := variantOf(t, "earth-sensitivity.toml", "[[relay]]\nname = \"R2\"", extra)
+	e := complex(11000/math.Sqrt(3), 0)
+	atB := 3 * cmplx.Abs(e/complex(47.7+30, 2*2.5+4.5))
+	for _, c := range []struct {
+		dev  string
+		want float64
+	}{{"R1", atB / 40}, {"R1N", atB / 40}} {
+		f := findingOf(t, r, coord.PrimarySensitivity, c.dev, "", "every kind")
+		if f.Verdict != coord.Pass || !near(f.Measured, c.want, handTol) || 2200.0/300 < c.want {
+			t.Errorf("%s every kind: %s %g ×, want PASS %g × (%s)", c.dev, f.Verdict, f.Measured, c.want, f.Note)
+		}
+	}
+}
