@@ -84,9 +84,15 @@ type FaultRef struct {
 	Kind  faults.Kind
 	Case  faults.Case
 	Place string
-	// Interpolated is true for a point of the dense sweep between solved
-	// faults, whose currents are scaled from the nearest solved one.
+	// Interpolated is true for a point of the sweep, whose currents are
+	// those of the solved fault of this kind, case and place scaled by
+	// Scale (a fault of the same kind and place with more fault
+	// impedance; see sweep.go).
 	Interpolated bool
+	// Scale is the factor applied to the solved fault's currents at a
+	// point of the sweep; 1 (or 0 in a FaultRef built by hand) for a
+	// solved fault.
+	Scale float64
 	// Currents and times of the device checked and of the other device (0
 	// when not part of the check); a time is NaN when the device does not
 	// operate.

@@ -58,7 +58,10 @@ func TestInjectionsAgainstIEC60255(t *testing.T) {
 		{"51DT", 2, 0.3, false},
 		{"51DT", 5, 0.3, false},
 		{"51DT", 10, 0.3, false},
-		{"50", 1.2, 0, false},
+		// An instantaneous stage takes the study's instantaneous
+		// operating time (criteria instantaneous_time_s, default 0.03 s,
+		// common practice).
+		{"50", 1.2, 0.03, false},
 		{"51N", 2, iec60255(80, 2, 0.5, 2), true},
 		{"51N", 5, iec60255(80, 2, 0.5, 5), true},
 		{"51N", 10, iec60255(80, 2, 0.5, 10), true},

@@ -80,20 +80,54 @@ func NewFaultTables(s *coord.Study, levels []faults.PointSummary, buses []faults
 // CaseLines describes the two cases of a study in words.
 func CaseLines(s *coord.Study) []string {
 	f := s.Faults
-	lv := "1.05"
-	lvMin := "0.95"
-	if f.LVTolerance10 {
-		lv, lvMin = "1.10", "0.90"
-	}
 	heat := "conductors at 20 °C"
 	if f.EndTempC > 0 {
 		heat = fmt.Sprintf("line resistance at %g °C", f.EndTempC)
 	}
 	return []string{
-		fmt.Sprintf("maximum case: c_max 1.10 above 1 kV, %s up to 1 kV (IEC 60909-0 Table 1); maximum source strength; generators in service; K_T and K_G corrections; bolted faults", lv),
-		fmt.Sprintf("minimum case: c_min 1.00 above 1 kV, %s up to 1 kV; minimum source strength; only generators marked always_running; %s; earth-fault resistance %g Ω above 1 kV, %g Ω up to 1 kV; phase-fault resistance %g Ω",
-			lvMin, heat, f.EarthFaultOhm, f.EarthFaultOhmLV, f.PhaseFaultOhm),
+		fmt.Sprintf("maximum case: %s; maximum source strength; generators in service; K_T and K_G corrections; bolted faults", factorText(f, faults.Max)),
+		fmt.Sprintf("minimum case: %s; minimum source strength; only generators marked always_running; %s; %s above 1 kV, %s up to 1 kV; %s",
+			factorText(f, faults.Min), heat, faultZ("earth-fault", f.EarthFaultOhm, f.EarthFaultXOhm, f.EarthFaultXOhmLV),
+			ohms(f.EarthFaultOhmLV, f.EarthFaultXOhmLV), faultZ("phase-fault", f.PhaseFaultOhm, f.PhaseFaultXOhm, 0)),
 	}
+}
+
+// factorText names the voltage factor of a case: the study's own, or
+// those of IEC 60909-0 Table 1 above and up to 1 kV.
+func factorText(f faults.Settings, cs faults.Case) string {
+	name, given := "c_max", f.CMax
+	if cs == faults.Min {
+		name, given = "c_min", f.CMin
+	}
+	table := func(kv float64) string {
+		return fmt.Sprintf("%.2f", faults.TableVoltageFactor(kv, cs, f.LVTolerance10))
+	}
+	if given > 0 {
+		return fmt.Sprintf("%s %.2f at every voltage (set by the study; IEC 60909-0 Table 1 gives %s above 1 kV, %s up to 1 kV)", name, given, table(11), table(0.4))
+	}
+	s := fmt.Sprintf("%s %s above 1 kV, %s up to 1 kV", name, table(11), table(0.4))
+	if cs == faults.Max {
+		s += " (IEC 60909-0 Table 1)"
+	}
+	return s
+}
+
+// faultZ names a fault impedance: "earth-fault resistance 10 Ω" while the
+// study gives no reactance (xOther: the reactance of the same faults on the
+// other side of 1 kV), "earth-fault impedance 10 + j5 Ω" when it does.
+func faultZ(what string, r, x, xOther float64) string {
+	if x == 0 && xOther == 0 {
+		return what + " resistance " + ohms(r, x)
+	}
+	return what + " impedance " + ohms(r, x)
+}
+
+// ohms formats a fault impedance: "10 Ω", or "10 + j5 Ω" with a reactance.
+func ohms(r, x float64) string {
+	if x == 0 {
+		return fmt.Sprintf("%g Ω", r)
+	}
+	return fmt.Sprintf("%g + j%g Ω", r, x)
 }
 
 // amps formats a current for a table: whole amperes from 100 A up, one
@@ -103,6 +137,14 @@ func amps(a float64) string {
 		return fmt.Sprintf("%.0f", a)
 	}
 	return fmt.Sprintf("%.1f", a)
+}
+
+// ampsOrNone formats a current for a table, "none" for no current.
+func ampsOrNone(a float64) string {
+	if a == 0 {
+		return "none"
+	}
+	return amps(a)
 }
 
 func (f Figure) text(none string) (string, string) {
@@ -138,7 +180,7 @@ func (t *FaultTables) WriteText(w io.Writer) error {
 		fmt.Fprintf(tw, "%s\t%g\t", b.Bus, b.KV)
 		for _, cs := range faults.Cases {
 			for _, k := range faults.Kinds {
-				fmt.Fprintf(tw, "%s\t", amps(busFigure(b.Faults[cs][k], k)))
+				fmt.Fprintf(tw, "%s\t", ampsOrNone(busFigure(b.Faults[cs][k], k)))
 			}
 		}
 		fmt.Fprintln(tw)
@@ -189,6 +231,14 @@ func (t *FaultTables) WriteCSV(w io.Writer) error {
 	return cw.Error()
 }
 
+// phasorFloor is the share of a point's largest current below which one
+// of its phase or residual currents counts as none: far above the
+// rounding residue of summing sequence currents (about 1e-15), far below
+// any current a network drives (the engine's own cut-off is 1e-10 of the
+// fault's sequence current). It is relative, so it does not depend on
+// base_mva.
+const phasorFloor = 1e-9
+
 type jsonFigure struct {
 	CurrentA  *float64     `json:"current_a"`
 	FaultKind string       `json:"fault_kind,omitempty"`
@@ -221,8 +271,15 @@ func (f Figure) json() jsonFigure {
 	}
 	a := f.A
 	ph := f.At.Phases()
+	// A healthy phase of an earth fault is a sum of sequence currents that
+	// cancel; rounding leaves some 1e-15 of the point's largest current.
+	// Below phasorFloor of it a current is none: 0 A at 0°.
+	largest := cmplx.Abs(f.At.Residual())
+	for _, c := range ph {
+		largest = math.Max(largest, cmplx.Abs(c))
+	}
 	polar := func(c complex128) (float64, float64) {
-		if cmplx.Abs(c) == 0 {
+		if !(cmplx.Abs(c) > phasorFloor*largest) {
 			return 0, 0
 		}
 		return cmplx.Abs(c), cmplx.Phase(c) * 180 / math.Pi

@@ -7,6 +7,8 @@ import (
 	"io"
 	"math"
 	"strings"
+
+	"tripgrade/coord"
 )
 
 // WriteText writes the findings aligned for a terminal: the pairs, then a
@@ -95,7 +97,20 @@ func md(s string) string {
 
 // csvHeader is the column list of WriteCSV.
 var csvHeader = []string{"check", "verdict", "device", "other", "stage", "measured", "required", "margin", "unit", "relation",
-	"fault_kind", "fault_case", "fault_place", "interpolated", "device_current_a", "other_current_a", "device_time_s", "other_time_s", "note"}
+	"fault_kind", "fault_case", "fault_place", "interpolated", "sweep_scale", "device_current_a", "device_quantity", "other_current_a", "other_quantity",
+	"device_time_s", "other_time_s", "note"}
+
+// quantityName names the quantity of a current in CSV and JSON, "" when
+// there is no current: "phase" or "residual" (3I0).
+func quantityName(a float64, q coord.Quantity) string {
+	switch {
+	case a == 0 || math.IsNaN(a):
+		return ""
+	case q == coord.Residual:
+		return "residual"
+	}
+	return "phase"
+}
 
 // WriteCSV writes one row per finding.
 func (f *Findings) WriteCSV(w io.Writer) error {
@@ -112,10 +127,11 @@ func (f *Findings) WriteCSV(w io.Writer) error {
 		rec := []string{x.Check.Slug(), x.Verdict.String(), x.Device, x.Other, x.Stage,
 			num(x.Measured, x.Valid), num(x.Required, x.Valid), num(x.Margin, x.Valid), x.Unit, x.Relation}
 		if ft := x.Fault; ft != nil {
-			rec = append(rec, ft.Kind.String(), ft.Case.String(), ft.Place, fmt.Sprint(ft.Interpolated),
-				num(ft.DeviceA, true), num(ft.OtherA, ft.OtherA != 0), num(ft.DeviceS, ft.DeviceS != 0), num(ft.OtherS, ft.OtherS != 0))
+			rec = append(rec, ft.Kind.String(), ft.Case.String(), ft.Place, fmt.Sprint(ft.Interpolated), num(ft.Scale, ft.Interpolated),
+				num(ft.DeviceA, ft.DeviceA != 0), quantityName(ft.DeviceA, ft.DeviceQty), num(ft.OtherA, ft.OtherA != 0), quantityName(ft.OtherA, ft.OtherQty),
+				num(ft.DeviceS, ft.DeviceS != 0), num(ft.OtherS, ft.OtherS != 0))
 		} else {
-			rec = append(rec, "", "", "", "", "", "", "", "")
+			rec = append(rec, "", "", "", "", "", "", "", "", "", "", "")
 		}
 		cw.Write(append(rec, x.Note))
 	}
@@ -130,8 +146,11 @@ func (f *Findings) WriteJSON(w io.Writer) error {
 		Case         string   `json:"case"`
 		Place        string   `json:"place"`
 		Interpolated bool     `json:"interpolated"`
+		Scale        *float64 `json:"sweep_scale,omitempty"`
 		DeviceA      *float64 `json:"device_current_a,omitempty"`
+		DeviceQty    string   `json:"device_quantity,omitempty"`
 		OtherA       *float64 `json:"other_current_a,omitempty"`
+		OtherQty     string   `json:"other_quantity,omitempty"`
 		DeviceS      *float64 `json:"device_time_s,omitempty"`
 		OtherS       *float64 `json:"other_time_s,omitempty"`
 	}
@@ -198,7 +217,16 @@ func (f *Findings) WriteJSON(w io.Writer) error {
 			j.Accepted = &accepted{Reason: a.Reason, By: a.By, Date: a.Date, Was: a.Was.String()}
 		}
 		if ft := x.Fault; ft != nil {
-			jf := &fault{Kind: ft.Kind.String(), Case: ft.Case.String(), Place: ft.Place, Interpolated: ft.Interpolated, DeviceA: ptr(ft.DeviceA)}
+			jf := &fault{Kind: ft.Kind.String(), Case: ft.Case.String(), Place: ft.Place, Interpolated: ft.Interpolated,
+				DeviceQty: quantityName(ft.DeviceA, ft.DeviceQty), OtherQty: quantityName(ft.OtherA, ft.OtherQty)}
+			if ft.Interpolated {
+				jf.Scale = ptr(ft.Scale)
+			}
+			// A current of 0 is "none": the device carries no current of
+			// that quantity (the engine cuts rounding residue to exact 0).
+			if ft.DeviceA != 0 {
+				jf.DeviceA = ptr(ft.DeviceA)
+			}
 			if ft.OtherA != 0 {
 				jf.OtherA = ptr(ft.OtherA)
 			}

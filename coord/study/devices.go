@@ -5,6 +5,7 @@ import (
 	"math"
 	"strconv"
 	"strings"
+	"unicode"
 
 	"tripgrade/coord"
 	"tripgrade/curves"
@@ -59,6 +60,9 @@ func (b *builder) buildRelays() {
 			}
 		}
 		d.MaxLoadA = b.optional(w, "max_load_a", r.MaxLoadA, 0, 0, math.Inf(1), true)
+		d.InstantaneousTimeS = b.optional(w, "instantaneous_time_s", r.InstTimeS, b.st.Criteria.InstantaneousTimeS, 0, 1, false)
+		d.MarginS = b.optional(w, "margin_s", r.MarginS, 0, 0, 5, true)
+		d.EarthFaultsBy = b.declaration(w, r.EarthFaultsBy)
 		for j, rs := range r.Stages {
 			sw := where{path: fmt.Sprintf("%s.stage[%d]", path, j), element: fmt.Sprintf("relay %q stage %d", r.Name, j+1)}
 			if st, ok := b.stage(sw, rs, d.CT); ok {
@@ -68,6 +72,20 @@ func (b *builder) buildRelays() {
 		b.st.Devices = append(b.st.Devices, d)
 		b.relayRaw = append(b.relayRaw, relayOrigin{device: len(b.st.Devices) - 1, where: w, tomlStages: len(r.Stages), raw: r})
 	}
+}
+
+// declaration checks the text of earth_faults_cleared_by: it names the
+// protection a reviewer must find, so it may not be blank.
+func (b *builder) declaration(w where, text string) string {
+	t := strings.TrimSpace(text)
+	if text != "" && t == "" {
+		b.fail(w, "earth_faults_cleared_by", "earth_faults_cleared_by must name the protection that clears those earth faults (e.g. \"standby earth fault on the T1 neutral\")")
+	}
+	if strings.IndexFunc(t, unicode.IsControl) >= 0 {
+		b.fail(w, "earth_faults_cleared_by", "earth_faults_cleared_by contains a control character (a tab or line break?)")
+		return ""
+	}
+	return t
 }
 
 // relayOrigin remembers where a relay came from, for the settings table

@@ -26,6 +26,8 @@ type rawStudy struct {
 	FrequencyHz    *float64  `key:"frequency_hz"`
 	BaseMVA        *float64  `key:"base_mva"`
 	LVTolerancePct *float64  `key:"lv_tolerance_pct"`
+	CMax           *float64  `key:"c_max"`
+	CMin           *float64  `key:"c_min"`
 	EndTempC       *float64  `key:"conductor_end_temp_c"`
 	LinePositions  []float64 `key:"line_fault_positions"`
 	SettingsCSV    string    `key:"settings_csv"`
@@ -44,9 +46,13 @@ type rawCriteria struct {
 	LoadFactor          *float64 `key:"load_factor"`
 	InstantaneousFactor *float64 `key:"instantaneous_factor"`
 	ShortDelayS         *float64 `key:"short_delay_s"`
+	InstantaneousTimeS  *float64 `key:"instantaneous_time_s"`
 	FaultResistanceOhm  *float64 `key:"fault_resistance_ohm"`
 	LVFaultResistance   *float64 `key:"lv_fault_resistance_ohm"`
 	PhaseFaultOhm       *float64 `key:"phase_fault_resistance_ohm"`
+	FaultReactanceOhm   *float64 `key:"fault_reactance_ohm"`
+	LVFaultReactance    *float64 `key:"lv_fault_reactance_ohm"`
+	PhaseFaultXOhm      *float64 `key:"phase_fault_reactance_ohm"`
 	InrushMultiple      *float64 `key:"inrush_multiple"`
 	InrushTimeS         *float64 `key:"inrush_time_s"`
 	MaxClearingS        *float64 `key:"max_clearing_s"`
@@ -167,6 +173,9 @@ type rawRelay struct {
 	AccuracyPct     *float64   `key:"accuracy_class_pct"`
 	AccuracyMinS    *float64   `key:"accuracy_min_s"`
 	MaxLoadA        *float64   `key:"max_load_a"`
+	InstTimeS       *float64   `key:"instantaneous_time_s"`
+	MarginS         *float64   `key:"margin_s"`
+	EarthFaultsBy   string     `key:"earth_faults_cleared_by"`
 	Stages          []rawStage `key:"stage"`
 	// Directional elements (see directional.go).
 	PhaseAngleDeg    *float64 `key:"phase_angle_deg"`
@@ -214,10 +223,13 @@ type rawFuse struct {
 	RatingA *float64     `key:"rating_a"`
 	Melt    [][2]float64 `key:"melt"`
 	Clear   [][2]float64 `key:"clear"`
+	// EarthFaultsBy is as for a relay.
+	EarthFaultsBy string `key:"earth_faults_cleared_by"`
 }
 
 type rawPair struct {
-	Upstream   string `key:"upstream"`
-	Downstream string `key:"downstream"`
-	Exclude    *bool  `key:"exclude"`
+	Upstream   string   `key:"upstream"`
+	Downstream string   `key:"downstream"`
+	Exclude    *bool    `key:"exclude"`
+	MarginS    *float64 `key:"margin_s"`
 }

@@ -11,6 +11,7 @@ import (
 	"github.com/BurntSushi/toml"
 
 	"tripgrade/coord"
+	"tripgrade/curves"
 	"tripgrade/faults"
 )
 
@@ -86,10 +87,28 @@ func (b *builder) build(dir fs.FS) {
 		}
 		b.directional(o.where, o.raw, d)
 		uniqueLabels(d)
+		b.instantaneousTime(o.where, d)
 	}
 	b.ownProtection()
 	b.buildPairs()
 	b.buildAccepts()
+}
+
+// instantaneousTime makes every instantaneous stage of a relay operate in
+// its intentional delay plus the relay's instantaneous operating time.
+func (b *builder) instantaneousTime(w where, d *coord.Device) {
+	for i := range d.Stages {
+		st := &d.Stages[i]
+		if st.Shape != curves.ShapeInstantaneous || st.Curve == nil {
+			continue
+		}
+		c, err := curves.NewInstantaneous(st.PickupA, st.DelayS+d.InstantaneousTimeS)
+		if err != nil {
+			b.fail(w, "instantaneous_time_s", "stage %s: %v", st.Label, err)
+			continue
+		}
+		st.Curve = c
+	}
 }
 
 // uniqueLabels numbers stages that would otherwise share a label (two
@@ -129,6 +148,7 @@ func (b *builder) buildStudy() {
 			b.fail(w, "lv_tolerance_pct", "lv_tolerance_pct must be 6 or 10 (the IEC 60909-0 Table 1 low-voltage tolerances; got %g)", *r.LVTolerancePct)
 		}
 	}
+	b.voltageFactors(w, r)
 	b.st.Faults.EndTempC = b.optional(w, "conductor_end_temp_c", r.EndTempC, 0, 20, 400, false)
 	for _, f := range r.LinePositions {
 		if !(f > 0 && f < 1) {
@@ -164,6 +184,7 @@ func (b *builder) buildCriteria() {
 	c.LoadFactor = b.optional(w, "load_factor", r.LoadFactor, c.LoadFactor, 1, 100, false)
 	c.InstantaneousFactor = b.optional(w, "instantaneous_factor", r.InstantaneousFactor, c.InstantaneousFactor, 1, 100, false)
 	c.ShortDelayS = b.optional(w, "short_delay_s", r.ShortDelayS, c.ShortDelayS, 0, 10, false)
+	c.InstantaneousTimeS = b.optional(w, "instantaneous_time_s", r.InstantaneousTimeS, c.InstantaneousTimeS, 0, 1, false)
 	c.InrushMultiple = b.optional(w, "inrush_multiple", r.InrushMultiple, c.InrushMultiple, 1, 100, false)
 	c.InrushTimeS = b.optional(w, "inrush_time_s", r.InrushTimeS, c.InrushTimeS, 0, 10, true)
 	c.MaxClearingS = b.optional(w, "max_clearing_s", r.MaxClearingS, c.MaxClearingS, 0, 100, true)
@@ -171,4 +192,41 @@ func (b *builder) buildCriteria() {
 	b.st.Faults.EarthFaultOhm = b.optional(w, "fault_resistance_ohm", r.FaultResistanceOhm, 0, 0, inf, false)
 	b.st.Faults.EarthFaultOhmLV = b.optional(w, "lv_fault_resistance_ohm", r.LVFaultResistance, 0, 0, inf, false)
 	b.st.Faults.PhaseFaultOhm = b.optional(w, "phase_fault_resistance_ohm", r.PhaseFaultOhm, 0, 0, inf, false)
+	b.st.Faults.EarthFaultXOhm = b.optional(w, "fault_reactance_ohm", r.FaultReactanceOhm, 0, 0, inf, false)
+	b.st.Faults.EarthFaultXOhmLV = b.optional(w, "lv_fault_reactance_ohm", r.LVFaultReactance, 0, 0, inf, false)
+	b.st.Faults.PhaseFaultXOhm = b.optional(w, "phase_fault_reactance_ohm", r.PhaseFaultXOhm, 0, 0, inf, false)
+}
+
+// Plausible voltage factors: IEC 60909-0 Table 1 spans 0.90–1.10, and a
+// prefault voltage outside 0.8–1.2 pu is not a network in service.
+const (
+	lowestVoltageFactor  = 0.8
+	highestVoltageFactor = 1.2
+)
+
+// voltageFactors reads c_max and c_min, which replace the IEC 60909-0
+// Table 1 factors at every voltage, and checks that the minimum case's
+// factor does not exceed the maximum case's at any voltage.
+func (b *builder) voltageFactors(w where, r rawStudy) {
+	f := &b.st.Faults
+	f.CMax = b.optional(w, "c_max", r.CMax, 0, lowestVoltageFactor, highestVoltageFactor, false)
+	f.CMin = b.optional(w, "c_min", r.CMin, 0, lowestVoltageFactor, highestVoltageFactor, false)
+	if f.CMax == 0 && f.CMin == 0 {
+		return
+	}
+	for _, kv := range []float64{11, 0.4} { // one voltage on each side of Table 1's 1 kV boundary
+		hi, lo := f.VoltageFactor(kv, faults.Max), f.VoltageFactor(kv, faults.Min)
+		if lo > hi {
+			side := "above 1 kV"
+			if faults.LowVoltage(kv) {
+				side = "up to 1 kV"
+			}
+			key := "c_min"
+			if r.CMin == nil {
+				key = "c_max"
+			}
+			b.fail(w, key, "c_min %g exceeds c_max %g %s: the minimum case would drive more current than the maximum case", lo, hi, side)
+			return
+		}
+	}
 }
