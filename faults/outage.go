@@ -39,8 +39,15 @@ func (o Opening) Empty() bool { return len(o.Ends)+len(o.Sources)+len(o.Generato
 // one, which leaves the rest unchanged to that order and makes the fault's
 // impedance in the cut-off part practically infinite.
 func (e *Engine) SolveOpen(f Fault, o Opening) (Solution, error) {
+	return e.SolveOpenWith(f, o, nil)
+}
+
+// SolveOpenWith is SolveOpen with a column cache for the impedance entries
+// it needs (nil: none); the solution keeps it.
+func (e *Engine) SolveOpenWith(f Fault, o Opening, cols *Columns) (Solution, error) {
 	if o.Empty() {
-		return e.Solve(f)
+		s, err := e.Solve(f)
+		return s.UseColumns(cols), err
 	}
 	n := e.net
 	for _, pt := range o.Ends {
@@ -62,6 +69,7 @@ func (e *Engine) SolveOpen(f Fault, o Opening) (Solution, error) {
 	if err != nil || !s.live {
 		return s, err
 	}
+	s.cols = cols
 	of := newOutageFault(e, &s, o)
 	dead := func() (Solution, error) {
 		s.live, s.iseq, s.out = false, [3]complex128{}, nil
@@ -108,6 +116,7 @@ type outageFault struct {
 	openEnd map[Point]bool
 	removed map[int]bool // branches with an open end
 	off     Opening
+	cols    *Columns
 	// sep is the faulted branch when an open end separates the fault from
 	// its own bus (−1 otherwise): the fault is then fed through conn from
 	// bus feed.
@@ -121,6 +130,7 @@ type outageFault struct {
 // outageSeq is the changed network of one sequence, for one fault.
 type outageSeq struct {
 	sn   *seqNet
+	cols *Columns
 	conn block // for a separated fault: ff at the fault node, tt at the feed bus
 	u    []int
 	w    [][]complex128 // (I + ΔY_UU Z_UU)⁻¹ ΔY_UU
@@ -135,7 +145,7 @@ type outageSeq struct {
 
 func newOutageFault(e *Engine, s *Solution, o Opening) *outageFault {
 	n := e.net
-	of := &outageFault{e: e, openEnd: map[Point]bool{}, removed: map[int]bool{}, sep: -1, off: o}
+	of := &outageFault{e: e, openEnd: map[Point]bool{}, removed: map[int]bool{}, sep: -1, off: o, cols: s.cols}
 	for _, pt := range o.Ends {
 		of.openEnd[pt] = true
 		of.removed[pt.Branch] = true
@@ -187,12 +197,17 @@ func stubAdmittance(blk block, closed End) complex128 {
 func (of *outageFault) build(s *Solution, q int) *outageSeq {
 	n := of.e.net
 	sn := of.e.cases[s.fault.Case][q]
-	os := &outageSeq{sn: sn}
-	// ΔY on the buses of the opened branches.
-	dy := map[[2]int]complex128{}
+	os := &outageSeq{sn: sn, cols: of.cols}
+	// ΔY on the buses of the opened branches (a handful of entries: the
+	// buses are found by a linear search).
+	type entry struct {
+		a, b int
+		y    complex128
+	}
+	var dy []entry
 	add := func(a, b int, y complex128) {
 		if y != 0 && sn.row[a] >= 0 && sn.row[b] >= 0 {
-			dy[[2]int{a, b}] += y
+			dy = append(dy, entry{a, b, y})
 		}
 	}
 	branches := make([]int, 0, len(of.removed))
@@ -231,33 +246,36 @@ func (of *outageFault) build(s *Solution, q int) *outageSeq {
 		add(bus, bus, -sn.genY[i])
 		ymax = max(ymax, cmplx.Abs(sn.genY[i]))
 	}
-	seen := map[int]bool{}
-	for k := range dy {
-		for _, x := range k {
-			if !seen[x] {
-				seen[x] = true
-				os.u = append(os.u, x)
+	index := func(x int) int {
+		for k, u := range os.u {
+			if u == x {
+				return k
 			}
 		}
+		os.u = append(os.u, x)
+		return len(os.u) - 1
+	}
+	for _, e := range dy {
+		index(e.a)
+		index(e.b)
 	}
 	sort.Ints(os.u)
 	m := len(os.u)
-	idx := map[int]int{}
-	for k, x := range os.u {
-		idx[x] = k
-	}
 	dY := make([][]complex128, m)
 	for k := range dY {
 		dY[k] = make([]complex128, m)
 	}
-	for k, y := range dy {
-		dY[idx[k[0]]][idx[k[1]]] += y
+	for _, e := range dy {
+		dY[index(e.a)][index(e.b)] += e.y
 	}
 	zuu := make([][]complex128, m)
 	for a := range zuu {
 		zuu[a] = make([]complex128, m)
-		for b := range zuu[a] {
-			zuu[a][b] = sn.z(os.u[a], os.u[b])
+		for b := a; b < m; b++ {
+			zuu[a][b] = os.cols.z(sn, os.u[a], os.u[b])
+		}
+		for b := 0; b < a; b++ {
+			zuu[a][b] = zuu[b][a]
 		}
 	}
 	os.w = woodbury(dY, zuu, complex(regularise*ymax, 0))
@@ -272,7 +290,7 @@ func (of *outageFault) build(s *Solution, q int) *outageSeq {
 			os.open = true
 			return os
 		}
-		os.g = os.apply(func(x int) complex128 { return os.wi*sn.z(x, os.i) + os.wj*sn.z(x, os.j) })
+		os.g = os.apply(func(x int) complex128 { return os.wi*os.cols.z(sn, x, os.i) + os.wj*os.cols.z(sn, x, os.j) })
 		zp := func(a, b int) complex128 { return os.zChanged(a, b) }
 		if s.p == 0 {
 			os.zff = zp(s.i, s.i)
@@ -319,7 +337,7 @@ func (of *outageFault) build(s *Solution, q int) *outageSeq {
 		os.zff = 1 / den
 		return os
 	}
-	os.g = os.apply(func(x int) complex128 { return sn.z(x, of.feed) })
+	os.g = os.apply(func(x int) complex128 { return os.cols.z(sn, x, of.feed) })
 	zee := os.zChanged(of.feed, of.feed)
 	zpp := zee / (1 + d*zee)
 	den := a - c*c*zpp
@@ -350,21 +368,21 @@ func (os *outageSeq) apply(v func(x int) complex128) []complex128 {
 
 // zChanged returns Z'_ab of the changed network.
 func (os *outageSeq) zChanged(a, b int) complex128 {
-	z := os.sn.z(a, b)
+	z := os.cols.z(os.sn, a, b)
 	m := len(os.u)
 	if m == 0 || os.sn.row[a] < 0 || os.sn.row[b] < 0 {
 		return z
 	}
 	zb := make([]complex128, m)
 	for k, x := range os.u {
-		zb[k] = os.sn.z(x, b)
+		zb[k] = os.cols.z(os.sn, x, b)
 	}
 	for k, x := range os.u {
 		var t complex128
 		for l := range zb {
 			t += os.w[k][l] * zb[l]
 		}
-		z -= os.sn.z(a, x) * t
+		z -= os.cols.z(os.sn, a, x) * t
 	}
 	return z
 }
@@ -375,12 +393,12 @@ func (os *outageSeq) transfer(x int) complex128 {
 	if os.open || os.alpha == 0 || sn.row[x] < 0 {
 		return 0
 	}
-	z := os.wi * sn.z(x, os.i)
+	z := os.wi * os.cols.z(sn, x, os.i)
 	if os.wj != 0 {
-		z += os.wj * sn.z(x, os.j)
+		z += os.wj * os.cols.z(sn, x, os.j)
 	}
 	for k, u := range os.u {
-		z -= sn.z(x, u) * os.g[k]
+		z -= os.cols.z(sn, x, u) * os.g[k]
 	}
 	return os.alpha * z
 }

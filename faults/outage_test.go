@@ -57,6 +57,7 @@ func TestSolveOpenMatchesRewiredNetwork(t *testing.T) {
 		t.Fatal(err)
 	}
 	rng := rand.New(rand.NewPCG(5, 9))
+	cols := eng.NewColumns(3) // small, so that columns are evicted and refilled
 	// relTolOpen: the Woodbury update and a fresh factorization differ
 	// only by rounding; the currents are compared relative to the largest
 	// current of the fault, so tiny currents far away do not dominate.
@@ -106,6 +107,14 @@ func TestSolveOpenMatchesRewiredNetwork(t *testing.T) {
 					got, err := eng.SolveOpen(f, opening)
 					if err != nil {
 						t.Fatal(err)
+					}
+					// A column cache changes nothing but the work done.
+					cached, err := eng.SolveOpenWith(f, opening, cols)
+					if err != nil {
+						t.Fatal(err)
+					}
+					if cached.FaultCurrents() != got.FaultCurrents() || cached.At(pts[0]) != got.At(pts[0]) {
+						t.Fatalf("with a column cache: %v, without: %v", cached.FaultCurrents(), got.FaultCurrents())
 					}
 					want, err := refEng.Solve(refEng.CaseFault(pl, k, cs))
 					if err != nil {

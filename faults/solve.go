@@ -93,6 +93,8 @@ type Solution struct {
 	out *outageFault
 	// sc caches transfer impedances per bus (see Use); nil: no cache.
 	sc *Scratch
+	// cols caches columns of the impedance matrices (see UseColumns).
+	cols *Columns
 }
 
 // Solve computes the sequence currents of fault f.
@@ -166,10 +168,10 @@ func (s *Solution) transferUncached(q, x int) complex128 {
 	}
 	sn := s.e.cases[s.fault.Case][q]
 	if s.p == 0 {
-		return sn.z(x, s.i)
+		return s.cols.z(sn, x, s.i)
 	}
 	p := complex(s.p, 0)
-	return (1-p)*sn.z(x, s.i) + p*sn.z(x, s.j)
+	return (1-p)*s.cols.z(sn, x, s.i) + p*s.cols.z(sn, x, s.j)
 }
 
 // sequenceCurrents returns I0, I1, I2 at the fault for driving voltage e,
@@ -247,7 +249,7 @@ func (s Solution) FaultCurrents() Currents {
 // bus into its branch, in amperes at the point's voltage and in the
 // point's phase frame.
 func (s Solution) At(pt Point) Currents {
-	return s.response(pt, s.iseq).Currents(s)
+	return s.response(pt, s.iseq, false).Currents(s)
 }
 
 // negligibleShare is the share of a fault's own sequence current below
@@ -290,11 +292,12 @@ func (r Response) Prefault() Voltages { return Voltages{Seq: [3]complex128{pos: 
 // Response returns the point's response to faults at this solution's
 // place and case, whatever their kind.
 func (s Solution) Response(pt Point) Response {
-	return s.response(pt, [3]complex128{1, 1, 1})
+	return s.response(pt, [3]complex128{1, 1, 1}, true)
 }
 
-// response computes the response in the sequences where want is not zero.
-func (s Solution) response(pt Point, want [3]complex128) Response {
+// response computes the response in the sequences where want is not zero,
+// and the voltages at the point's bus when asked.
+func (s Solution) response(pt Point, want [3]complex128, voltages bool) Response {
 	var r Response
 	if !s.live {
 		return r
@@ -320,7 +323,9 @@ func (s Solution) response(pt Point, want [3]complex128) Response {
 	r.k[zero] *= ib
 	r.k[pos] *= rot * ib
 	r.k[neg] *= cmplx.Conj(rot) * ib
-	r.v = s.voltageResponse(bus)
+	if voltages {
+		r.v = s.voltageResponse(bus)
+	}
 	return r
 }
 
