@@ -18,12 +18,21 @@ type element struct {
 // carrying none towards the fault.
 const flowEps = 1e-6
 
+// Beyond the faulted element's own ends, the search follows a path back
+// only while it carries current enough to operate a device at that
+// voltage level (the exploration's threshold, see probe.explore): a path
+// below it leads to no device that operates. It is left to the sequence:
+// when the fault is still fed through it once the devices on the larger
+// paths have opened, it then carries more and the search of that state
+// follows it.
+
 // view is one fault (an element's fault place in one case and network
 // state) as the devices see it.
 type view struct {
-	p  *probe
-	el element
-	cs faults.Case
+	p   *probe
+	buf *searchBuf
+	el  element
+	cs  faults.Case
 	// own are the responses at the faulted branch's two ends when they
 	// differ from the node's (a close-in fault, whose current passes the
 	// current transformer at its end).
@@ -58,23 +67,15 @@ func (v *view) seen(d int, k faults.Kind) Seen {
 	return s
 }
 
-// neutral returns the current flowing from earth into the star point of
-// the transformer whose star-side end is pt: the residual current its
-// winding sends out of that terminal. For a fault close in at that
-// terminal (between the current transformer and the winding) the fault's
-// own residual current is part of it.
+// neutral returns the neutral current of the transformer whose star-side
+// end is pt (see neutralCurrent).
 func (v *view) neutral(pt faults.Point, sol faults.Solution) complex128 {
-	n := -v.at(pt).Currents(sol).Residual()
-	if pl := sol.Fault().Place; !pl.IsBus() && pl.Branch == pt.Branch &&
-		((pl.Frac == 0 && pt.End == faults.From) || (pl.Frac == 1 && pt.End == faults.To)) {
-		n += sol.FaultCurrents().Residual()
-	}
-	return n
+	return neutralCurrent(sol, v.at(pt).Currents(sol), pt)
 }
 
-// feedsInto reports whether fault current flows out of point pt's branch
-// into its bus.
-func (v *view) feedsInto(pt faults.Point) bool { return real(v.at(pt).Flow()) < -flowEps }
+// feedsInto reports whether at least share of the fault current flows out
+// of point pt's branch into its bus.
+func (v *view) feedsInto(pt faults.Point, share float64) bool { return real(v.at(pt).Flow()) < -share }
 
 // feedsFrom reports whether fault current flows from point pt's bus into
 // its branch.
@@ -98,38 +99,72 @@ type clearing struct {
 	// board is the switchboard bus the faulted branch is fed from without
 	// a device of its own there (−1 when none).
 	board int
+	// sides counts the faulted element's ends, or the branches at a
+	// faulted bus, through which fault current flows into it.
+	sides int
+}
+
+// searchBuf is a worker's reusable memory for search.
+type searchBuf struct {
+	busStamp  []uint32 // visited buses, per side
+	devStamp  []uint32 // devices already listed as must
+	failStamp []uint32 // devices already listed as failed
+	gen       uint32
+	passed    []int
+}
+
+func (x *netIndex) newSearchBuf() *searchBuf {
+	return &searchBuf{busStamp: make([]uint32, len(x.n.Buses)), devStamp: make([]uint32, len(x.s.Devices)),
+		failStamp: make([]uint32, len(x.s.Devices))}
+}
+
+func (b *searchBuf) next() uint32 {
+	b.gen++
+	if b.gen == 0 {
+		clear(b.busStamp)
+		clear(b.devStamp)
+		clear(b.failStamp)
+		b.gen = 1
+	}
+	return b.gen
 }
 
 // search finds who must clear the fault: ops says whether a device acts
-// (operates, or sees the fault); devices in past are passed over as if
-// they had failed.
-func (v *view) search(ops func(d int) bool, past map[int]bool) clearing {
+// (operates, or sees the fault); a device for which past is true is
+// passed over as if it had failed (past may be nil).
+func (v *view) search(ops func(d int) bool, past func(d int) bool) clearing {
 	x := v.p.x
 	n := x.n
+	buf := v.buf
 	c := clearing{board: -1}
-	must := map[int]bool{}
-	failed := map[int]bool{}
-	direct := map[string]bool{}
-	var visited map[int]bool // per side: each side is searched on its own
+	listGen := buf.next() // must and failed lists for this search
+	var sideGen uint32
 	act := func(pt faults.Point) bool {
 		any := false
 		for _, d := range x.devAt[pt.Branch][pt.End] {
-			if !past[d] && ops(d) {
-				must[d] = true
+			if (past == nil || !past(d)) && ops(d) {
+				if buf.devStamp[d] != listGen {
+					buf.devStamp[d] = listGen
+					c.must = append(c.must, d)
+				}
 				any = true
 			}
 		}
 		return any
 	}
-	owned := map[infeedRef]bool{}
-	reached := func(y int, passed []int) {
+	reached := func(y int) {
 		undeclared := false
 		for _, in := range x.infeed[v.cs][y] {
+			if v.p.removed(in) {
+				continue
+			}
 			switch {
-			case in.own && len(passed) == 0:
-				owned[in] = true
-			case !in.own && len(passed) == 0:
-				direct[in.name] = true
+			case in.own:
+				// Its own protection removes the infeed no device of the
+				// study operates for (on this chain none does).
+				c.own = appendInfeed(c.own, in)
+			case len(buf.passed) == 0:
+				c.direct = appendName(c.direct, in.name)
 			case !in.own:
 				undeclared = true
 			}
@@ -137,44 +172,60 @@ func (v *view) search(ops func(d int) bool, past map[int]bool) clearing {
 		// Devices on a chain from a source that do not operate fail to
 		// clear its infeed (unless its own protection is declared to).
 		if undeclared {
-			for _, d := range passed {
-				failed[d] = true
+			for _, d := range buf.passed {
+				if buf.failStamp[d] != listGen {
+					buf.failStamp[d] = listGen
+					c.failed = append(c.failed, d)
+				}
 			}
 		}
 	}
-	var step func(y, via int, passed []int)
-	step = func(y, via int, passed []int) {
-		if visited[y] {
+	var step func(y, via int)
+	step = func(y, via int) {
+		if buf.busStamp[y] == sideGen {
 			return
 		}
-		visited[y] = true
-		reached(y, passed)
+		buf.busStamp[y] = sideGen
+		reached(y)
 		for _, b := range x.adj[y] {
 			if b == via {
 				continue
 			}
 			near := faults.Point{Branch: b, End: endAt(n, b, y)}
-			if !v.feedsInto(near) || act(near) {
+			own := via < 0 || via == v.el.branch // the faulted element's own sides
+			if !v.feedsInto(near, flowEps) || (!own && !v.p.couldOperate(v.at(near), y)) {
+				continue
+			}
+			if via < 0 {
+				c.sides++
+			}
+			if act(near) {
 				continue
 			}
 			far := faults.Point{Branch: b, End: endAt(n, b, farBus(n, b, y))}
 			if act(far) {
 				continue
 			}
-			more := append(append(append([]int(nil), passed...), x.devAt[b][near.End]...), x.devAt[b][far.End]...)
-			step(farBus(n, b, y), b, more)
+			mark := len(buf.passed)
+			buf.passed = append(append(buf.passed, x.devAt[b][near.End]...), x.devAt[b][far.End]...)
+			step(farBus(n, b, y), b)
+			buf.passed = buf.passed[:mark]
 		}
 	}
+	buf.passed = buf.passed[:0]
 	if v.el.bus >= 0 {
-		visited = map[int]bool{}
-		step(v.el.bus, -1, nil)
+		sideGen = buf.next()
+		step(v.el.bus, -1)
 	} else {
 		b := v.el.branch
 		f, t := n.BranchEnds(b)
 		for _, e := range [2]faults.End{faults.From, faults.To} {
-			visited = map[int]bool{}
 			pt := faults.Point{Branch: b, End: e}
-			if !v.feedsFrom(pt) || act(pt) {
+			if !v.feedsFrom(pt) {
+				continue
+			}
+			c.sides++
+			if act(pt) {
 				continue
 			}
 			y := f
@@ -184,29 +235,34 @@ func (v *view) search(ops func(d int) bool, past map[int]bool) clearing {
 			if len(x.devAt[b][e]) == 0 && x.board[y] {
 				c.board = y
 			}
-			step(y, b, x.devAt[b][e])
+			sideGen = buf.next()
+			buf.passed = append(buf.passed[:0], x.devAt[b][e]...)
+			step(y, b)
 		}
 	}
-	c.must = sortedKeys(must)
-	c.failed = sortedKeys(failed)
-	for name := range direct {
-		c.direct = append(c.direct, name)
-	}
+	sort.Ints(c.must)
+	sort.Ints(c.failed)
 	sort.Strings(c.direct)
-	for in := range owned {
-		c.own = append(c.own, in)
-	}
 	sort.Slice(c.own, func(i, j int) bool { return c.own[i].name < c.own[j].name })
 	return c
 }
 
-func sortedKeys(m map[int]bool) []int {
-	out := make([]int, 0, len(m))
-	for k := range m {
-		out = append(out, k)
+func appendName(list []string, name string) []string {
+	for _, s := range list {
+		if s == name {
+			return list
+		}
 	}
-	sort.Ints(out)
-	return out
+	return append(list, name)
+}
+
+func appendInfeed(list []infeedRef, in infeedRef) []infeedRef {
+	for _, s := range list {
+		if s == in {
+			return list
+		}
+	}
+	return append(list, in)
 }
 
 // sees reports whether device d sees the fault of kind k in a tripping

@@ -106,7 +106,16 @@ func (c *checker) transformerSubject(b int, eq *Equipment, dev int) (damageSubje
 		sub.note += fmt.Sprintf(", source impedance %.3g %% on the rating (maximum-case Thevenin impedance at %s)", zs, n.Buses[bus].Name)
 	}
 	beyond := c.busesBeyond(b)
+	// The faults of the device's zone, and the buses where the devices it
+	// backs up sit (the transformer's through-fault just beyond them).
+	var ps placeSet
 	for _, pl := range c.places[dev] {
+		ps.add(pl)
+	}
+	for _, m := range c.topo.Zones[dev].Next {
+		ps.add(faults.AtBus(DeviceBus(n, c.s.Devices[m])))
+	}
+	for _, pl := range ps.list {
 		// A fault just inside the transformer at its terminal is the
 		// terminal bus's fault seen from the other side of the current
 		// transformer: at the downstream terminal only a backfeed (a
@@ -178,7 +187,7 @@ type damageTally struct {
 	below       int           // under the withstand curve's start (overload, not a through-fault)
 	beyond      undefinedSpan // above a transformer curve's end with no law to continue
 	extended    int           // above a transformer curve's end, by its I²t law
-	capped      bool          // a cable's adiabatic limit beyond its 5 s validity
+	long        int           // points left out: a cable current beyond the adiabatic validity
 	endA, lowA  float64       // the transformer curve's span, for the note
 	transformer bool
 }
@@ -190,7 +199,7 @@ func (tl *damageTally) withstandAt(w curves.Characteristic, a float64) (float64,
 	if st == curves.Operates {
 		return t, true
 	}
-	lo, hi := w.Span()
+	_, hi := w.Span()
 	switch lim := w.(type) {
 	case *curves.ThroughFault:
 		if a > hi {
@@ -200,14 +209,6 @@ func (tl *damageTally) withstandAt(w curves.Characteristic, a float64) (float64,
 			}
 			tl.beyond.add(a)
 			return 0, false
-		}
-	case curves.I2tLimit:
-		if lim.MaxTimeS > 0 && a < lo && a > 0 {
-			// Beyond the adiabatic limit's validity (IEC 60364-4-43: 5 s)
-			// the cable withstands at least as long as the limit says; ask
-			// for clearing within the validity time, which is safe.
-			tl.capped = true
-			return lim.MaxTimeS, true
 		}
 	}
 	tl.below++
@@ -234,10 +235,10 @@ func (c *checker) damageOf(dev int, sub damageSubject) (Finding, error) {
 				if eqA <= 0 {
 					continue
 				}
-				dp, dr := Measured(sol.At(d.Point))
+				dp, dr, dd := c.measure(dev, sol)
 				// The equipment current rides in the other's phase slot so
 				// that the sweep scales it with the device's currents.
-				pts = append(pts, sample{dp: dp, dr: dr, up: eqA, kind: k, cs: cs, place: PlaceName(c.s.Network, pl), scale: 1})
+				pts = append(pts, sample{dp: dp, dr: dr, dd: dd, up: eqA, kind: k, cs: cs, place: PlaceName(c.s.Network, pl), scale: 1})
 			}
 		}
 	}
@@ -249,11 +250,20 @@ func (c *checker) damageOf(dev int, sub damageSubject) (Finding, error) {
 	var worstT, worstW, worstMargin float64
 	for i := range all {
 		s := all[i]
+		// A cable current whose adiabatic withstand exceeds the limit's
+		// validity is no short-circuit duty of its own: a swept point
+		// there, or a solved one the device does not clear, is left out
+		// (the cable's continuous rating governs such currents).
+		_, cable := sub.withstand.(curves.I2tLimit)
+		if cable && s.up < lo {
+			tl.long++
+			continue
+		}
+		tc, stc := t.ClearingDir(s.dp, s.dr, s.dd, Nominal)
 		tw, ok := tl.withstandAt(sub.withstand, s.up)
 		if !ok {
 			continue
 		}
-		tc, stc := t.Clearing(s.dp, s.dr, Nominal)
 		switch stc {
 		case curves.NoTrip:
 			// A swept point below the device's pickup is no fault of the
@@ -296,7 +306,7 @@ func (c *checker) damageFinding(d *Device, t *Timer, sub damageSubject, worst *s
 	f.Device, f.Other = d.Name, sub.name
 	ref := FaultRef{Kind: worst.kind, Case: worst.cs, Place: worst.place, Interpolated: worst.swept(), Scale: worst.scale,
 		OtherA: worst.up, OtherQty: Phase, DeviceS: worstT, OtherS: worstW}
-	ref.DeviceA, ref.DeviceQty = governing(t, worst.dp, worst.dr)
+	ref.DeviceA, ref.DeviceQty = governing(t, worst.dp, worst.dr, worst.dd)
 	f.Fault = &ref
 	notes := []string{"clearing time against the withstand time at the equipment's current", sub.note}
 	if tl.extended > 0 {
@@ -317,8 +327,8 @@ func (c *checker) damageFinding(d *Device, t *Timer, sub damageSubject, worst *s
 			f.Verdict = Warn
 		}
 	}
-	if tl.capped {
-		notes = append(notes, "where the adiabatic withstand exceeds its 5 s validity, clearing within 5 s is asked")
+	if tl.long > 0 {
+		notes = append(notes, fmt.Sprintf("%d points whose current the cable withstands for longer than the adiabatic limit's 5 s validity are left out (no short-circuit duty; the cable's continuous rating, which the study does not give, governs them)", tl.long))
 	}
 	f.Note = joinNotes(notes...)
 	return f

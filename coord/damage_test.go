@@ -81,7 +81,7 @@ func TestDamageSourceImpedance(t *testing.T) {
 // the 400 V terminals, where alone it was judged before, its definite-time
 // stage clears in 0.25 s.
 func TestDamageRemoteFault(t *testing.T) {
-	f := onlyFailure(t, checkFile(t, "../testdata/checks/damage-remote.toml"), coord.Damage, "R")
+	f := onlyFailure(t, checkFile(t, "../testdata/checks/damage-remote.toml"), coord.Damage, "R", coord.Clearing)
 	ia := 0.95 * 400 / (math.Sqrt(3) * (0.121*(0.4/11)*(0.4/11) + 0.05*0.4*0.4 + 0.026))
 	pu := ia / ratedA(1, 0.4)
 	withstand := 300 * math.Pow(pu/3, math.Log(60.0/300)/math.Log(4.75/3))

@@ -97,10 +97,18 @@ type opRecord struct {
 	count            int  // faults where it operates outside its zone
 }
 
+// worse reports whether a figure of the given slack at the given fault
+// would replace the record (the details of a record are costly to build).
+func (r *opRecord) worse(slack float64, key faultKey) bool {
+	tol := tieTolerance * math.Max(1, math.Abs(r.slack))
+	return !r.valid || slack < r.slack-tol || (math.Abs(slack-r.slack) <= tol && key.less(r.key))
+}
+
+// offer keeps o when it is worse than the record (the count of faults is
+// kept by the caller).
 func (r *opRecord) offer(o opRecord) {
-	c := r.count + 1
-	if !r.valid || o.slack < r.slack-tieTolerance*math.Max(1, math.Abs(r.slack)) ||
-		(math.Abs(o.slack-r.slack) <= tieTolerance*math.Max(1, math.Abs(r.slack)) && o.key.less(r.key)) {
+	c := r.count
+	if r.worse(o.slack, o.key) {
 		*r = o
 		r.valid = true
 	}
@@ -119,9 +127,24 @@ type clearRecord struct {
 	board    int
 	count    int
 	noDevice bool // fed, but no device of the study acts on any side
+	// undef is the must-clear device whose curve gives no time at the
+	// fault's current (isoS is then NaN) when undefSet; unjudged counts
+	// the element's faults left unjudged so.
+	undef    int
+	undefSet bool
+	unjudged int
 }
 
 func (r *clearRecord) offer(o clearRecord) {
+	if math.IsNaN(o.isoS) {
+		// A fault whose must-clear device's curve gives no time: counted,
+		// and named, apart from the judged ones.
+		r.unjudged++
+		if !r.undefSet {
+			r.undef, r.undefSet = o.undef, true
+		}
+		return
+	}
 	c := r.count + 1
 	worse := o.isoS > r.isoS*(1+tieTolerance) || (math.IsInf(o.isoS, 1) && !math.IsInf(r.isoS, 1))
 	tie := !worse && (o.isoS == r.isoS || math.Abs(o.isoS-r.isoS) <= tieTolerance*r.isoS)
@@ -146,7 +169,6 @@ type event struct {
 	infeed          string
 	atS             float64 // when it opens
 	beforeA, afterA float64 // the device's current in the intact network and when it opened
-	unwanted        bool
 }
 
 // tally is one worker's results, merged at the end.
@@ -169,17 +191,22 @@ func (x *netIndex) newTally() *tally {
 
 func (t *tally) merge(o *tally) {
 	for i := range o.ops {
+		n := t.ops[i].count + o.ops[i].count
 		if o.ops[i].valid {
-			n := t.ops[i].count + o.ops[i].count - 1
 			t.ops[i].offer(o.ops[i])
-			t.ops[i].count = n
 		}
+		t.ops[i].count = n
 	}
 	for i := range o.clears {
-		if o.clears[i].valid {
-			n := t.clears[i].count + o.clears[i].count - 1
-			t.clears[i].offer(o.clears[i])
+		oc := o.clears[i]
+		if oc.valid {
+			n := t.clears[i].count + oc.count - 1
+			t.clears[i].offer(oc)
 			t.clears[i].count = n
+		}
+		t.clears[i].unjudged += oc.unjudged
+		if oc.undefSet && !t.clears[i].undefSet {
+			t.clears[i].undef, t.clears[i].undefSet = oc.undef, true
 		}
 	}
 	for i, names := range o.outside {
@@ -240,13 +267,24 @@ func (x *netIndex) judgeNode(ws *workspace, t *tally, crit Criteria, ni int, nd 
 	if err != nil || !sol.Energised() {
 		return err
 	}
-	sol = sol.Use(ws.sc)
+	sol = sol.Use(ws.sc).UseColumns(ws.cols)
 	p := x.newProbe(&ws.intact, sol, nil)
 	i, j, _ := sol.Node()
 	p.explore(i, j)
 	devs := p.devices()
+	nv := &view{p: p, buf: ws.search, el: nd.elems[0].el, cs: cs}
+	for _, k := range faults.Kinds {
+		nv.kinds[k] = sol.WithKind(k, eng.CaseFault(nd.place, k, cs).ZOhm)
+	}
+	for _, k := range faults.Kinds {
+		ws.node[k].reset(nv, k)
+		for _, d := range devs {
+			ws.node[k].get(d)
+		}
+	}
+	clear(ws.swept)
 	for ei, ne := range nd.elems {
-		v := &view{p: p, el: ne.el, cs: cs}
+		v := &view{p: p, buf: ws.search, el: ne.el, cs: cs}
 		if !ne.place.IsBus() && (ne.place.Frac == 0 || ne.place.Frac == 1) {
 			ci, err := eng.Solve(eng.CaseFault(ne.place, faults.LLL, cs))
 			if err != nil {
@@ -260,6 +298,7 @@ func (x *netIndex) judgeNode(ws *workspace, t *tally, crit Criteria, ni int, nd 
 		for _, k := range faults.Kinds {
 			v.kinds[k] = sol.WithKind(k, eng.CaseFault(ne.place, k, cs).ZOhm)
 		}
+		ws.forgetStates()
 		if cs == faults.Max {
 			// The sweep runs from the maximum-case fault down to the
 			// minimum-case fault at the same place.
@@ -321,7 +360,9 @@ func (x *netIndex) timeOf(d int, s Seen, band Band) timing {
 	} else if st == curves.Undefined {
 		t.undef = true
 	}
-	if u, st := tm.MeltSeen(&s, band); st == curves.Operates {
+	if tm.Dev.Kind == Relay {
+		t.up = t.trip
+	} else if u, st := tm.MeltSeen(&s, band); st == curves.Operates {
 		t.up = u
 	}
 	return t

@@ -10,6 +10,7 @@ import (
 // the findings of the fault-clearing and discrimination checks.
 func (c *checker) discrimination() ([]Finding, []string, error) {
 	x := newNetIndex(c.s, c.eng, c.topo.ratioKV)
+	x.topo = c.topo
 	t, err := x.runPass(c.s.Criteria)
 	if err != nil {
 		return nil, nil, err
@@ -56,10 +57,20 @@ func (x *netIndex) clearingFindings(t *tally) []Finding {
 			out = append(out, f)
 			continue
 		}
-		if !r.valid {
+		if !r.valid && r.unjudged == 0 {
 			continue
 		}
 		name := x.elementName(i)
+		undefNote := ""
+		if r.unjudged > 0 {
+			undefNote = fmt.Sprintf("not checked: %d faults, where %s's curve gives no time at the fault current (outside its table's points)", r.unjudged, x.s.Devices[r.undef].Name)
+		}
+		if !r.valid {
+			f := unchecked(Clearing, undefNote[len("not checked: "):])
+			f.Device, f.Other = name, x.s.Devices[r.undef].Name
+			out = append(out, f)
+			continue
+		}
 		ref := &FaultRef{Kind: r.key.kind, Case: r.key.cs, Place: PlaceName(x.n, r.place)}
 		var f Finding
 		switch {
@@ -75,6 +86,12 @@ func (x *netIndex) clearingFindings(t *tally) []Finding {
 			f.Note = x.clearedNote(r)
 			if f.Verdict == Fail {
 				f.Note = "cleared too late: " + f.Note
+			}
+		}
+		if undefNote != "" {
+			f.Note = joinNotes(f.Note, undefNote)
+			if f.Verdict == Pass {
+				f.Verdict = Warn
 			}
 		}
 		f.Device, f.Other = name, x.names(r.must)
@@ -118,7 +135,7 @@ func (x *netIndex) clearedNote(r clearRecord) string {
 	if len(r.sequence) > 0 {
 		return "isolated by " + x.sequenceText(r.sequence)
 	}
-	return fmt.Sprintf("cleared by %s", x.names(r.must))
+	return "" // the column names who clears it
 }
 
 // sequenceText describes the openings of a sequence: "R1 at 0.412 s
@@ -127,7 +144,7 @@ func (x *netIndex) sequenceText(evs []event) string {
 	parts := make([]string, len(evs))
 	for i, e := range evs {
 		if e.dev < 0 {
-			parts[i] = fmt.Sprintf("%s's own protection at %.3f s (declared)", e.infeed, e.atS)
+			parts[i] = fmt.Sprintf("%s's own protection (declared; taken to act within %g s)", e.infeed, x.s.Criteria.MaxClearingS)
 			continue
 		}
 		cur := fmtA(e.afterA) + " A"
@@ -135,9 +152,6 @@ func (x *netIndex) sequenceText(evs []event) string {
 			cur = fmtA(e.afterA) + " A → " + fmtA(e.beforeA) + " A"
 		}
 		s := fmt.Sprintf("%s at %.3f s (%s)", x.s.Devices[e.dev].Name, e.atS, cur)
-		if e.unwanted {
-			s += " [not its fault]"
-		}
 		parts[i] = s
 	}
 	return strings.Join(parts, ", then ")
@@ -161,15 +175,15 @@ func (x *netIndex) discriminationFindings(t *tally) []Finding {
 		ref := &FaultRef{Kind: r.key.kind, Case: r.key.cs, Place: place, Interpolated: r.scale < 1,
 			DeviceA: r.dA, OtherA: r.reliefA, DeviceS: r.dS, OtherS: r.reliefS, DeviceQty: r.dQty, OtherQty: r.reliefQty}
 		f.Fault = ref
-		dir := "forward"
+		dir := "current from its bus into its branch"
 		if !r.forward {
-			dir = "reverse"
+			dir = "current from its branch into its bus"
 		}
 		what := "operates"
 		if x.s.Devices[d].Kind == Fuse {
 			what = "melts"
 		}
-		f.Note = fmt.Sprintf("%s for a fault %s must clear (%s current)", what, f.Other, dir)
+		f.Note = fmt.Sprintf("%s for a fault %s must clear (%s)", what, f.Other, dir)
 		if r.scale < 1 {
 			f.Note += fmt.Sprintf(", at %.0f %% of the bolted fault's current", 100*r.scale)
 		}

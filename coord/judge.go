@@ -18,15 +18,102 @@ func bands(crit Criteria) (up, down Band) {
 	return Nominal, Nominal
 }
 
+// timeTable holds the timings of the devices one fault is judged on, each
+// computed on first use: the search for who must clear a fault may reach
+// devices the exploration did not.
+type timeTable struct {
+	x     *netIndex
+	v     *view
+	k     faults.Kind
+	ids   []int    // devices with a timing, in the order first asked
+	rows  []timing // by slot
+	slot  []int32  // device → slot, valid where stamp == gen
+	stamp []uint32
+	gen   uint32
+}
+
+func (x *netIndex) newTimeTable() *timeTable {
+	nd := len(x.s.Devices)
+	return &timeTable{x: x, slot: make([]int32, nd), stamp: make([]uint32, nd)}
+}
+
+// reset empties the table for the fault of kind k seen through v.
+func (tt *timeTable) reset(v *view, k faults.Kind) {
+	tt.v, tt.k = v, k
+	tt.ids, tt.rows = tt.ids[:0], tt.rows[:0]
+	tt.gen++
+	if tt.gen == 0 {
+		clear(tt.stamp)
+		tt.gen = 1
+	}
+}
+
+// get returns device d's timing, computing it on first use.
+func (tt *timeTable) get(d int) *timing {
+	if tt.stamp[d] != tt.gen {
+		tt.put(d, tt.compute(d))
+	}
+	return &tt.rows[tt.slot[d]]
+}
+
+// put records device d's timing.
+func (tt *timeTable) put(d int, tm timing) {
+	tt.stamp[d] = tt.gen
+	tt.slot[d] = int32(len(tt.rows))
+	tt.ids = append(tt.ids, d)
+	tt.rows = append(tt.rows, tm)
+}
+
+// compute works out device d's timing. A relay whose currents cannot
+// reach any of its pickups (by the bound |Ix| ≤ |I0|+|I1|+|I2|) does not
+// operate, and its phasors are not worked out.
+func (tt *timeTable) compute(d int) timing {
+	x := tt.x
+	if lim := x.limits[d]; lim.cheap {
+		c := tt.v.at(x.s.Devices[d].Point).Currents(tt.v.kinds[tt.k])
+		var ph float64
+		for _, i := range c.Seq {
+			ph += cmplx.Abs(i)
+		}
+		if ph < lim.phaseA && 3*cmplx.Abs(c.Seq[0]) < lim.groundA {
+			return timing{trip: noTime, up: noTime}
+		}
+	}
+	return x.timeOf(d, tt.v.seen(d, tt.k), Nominal)
+}
+
+// copyFrom takes device d's timing from another table of the same fault
+// node and kind (whose view sees d the same way).
+func (tt *timeTable) copyFrom(base *timeTable, d int) {
+	if tt.stamp[d] != tt.gen {
+		tt.put(d, *base.get(d))
+	}
+}
+
+// has reports whether device d has a timing in the table.
+func (tt *timeTable) has(d int) bool { return tt.stamp[d] == tt.gen }
+
+// operates reports whether device d trips for the fault (or would: a
+// fuse above its table's currents melts, though the table gives no time).
+func (tt *timeTable) operates(d int) bool {
+	tm := tt.get(d)
+	return !math.IsInf(tm.trip, 1) || tm.undef
+}
+
 // judge judges the fault of kind k of one element in the intact network,
 // and its sequence when it is fed from more than one side.
 func (x *netIndex) judge(ws *workspace, t *tally, crit Criteria, v *view, devs []int, ne nodeElem, k faults.Kind, key faultKey) error {
-	times := make(map[int]timing, len(devs))
+	tt := ws.tables[0]
+	tt.reset(v, k)
+	base := ws.node[k]
 	for _, d := range devs {
-		times[d] = x.timeOf(d, v.seen(d, k), Nominal)
+		if v.hasOwn && x.s.Devices[d].Point.Branch == v.el.branch {
+			tt.get(d)
+		} else {
+			tt.copyFrom(base, d)
+		}
 	}
-	ops := func(d int) bool { return !math.IsInf(times[d].trip, 1) }
-	cl := v.search(ops, nil)
+	cl := v.search(tt.operates, nil)
 	t.judged++
 	if len(cl.direct) > 0 {
 		t.outside[ne.index] = union(t.outside[ne.index], cl.direct)
@@ -38,18 +125,21 @@ func (x *netIndex) judge(ws *workspace, t *tally, crit Criteria, v *view, devs [
 		return nil // fed only along paths without any device of the study
 	}
 	rec := clearRecord{key: key, place: ne.place, must: cl.must, failed: cl.failed, board: cl.board, isoS: math.Inf(1)}
-	if len(cl.failed) == 0 && len(cl.direct) == 0 && len(cl.own) == 0 && onePoint(x, cl.must) {
+	if cl.sides <= 1 && len(cl.failed) == 0 && len(cl.direct) == 0 && len(cl.own) == 0 && onePoint(x, cl.must) {
 		// One side: the fastest device there isolates the fault.
 		m := cl.must[0]
 		for _, d := range cl.must[1:] {
-			if times[d].trip+x.breaker(d) < times[m].trip+x.breaker(m) {
+			if tt.get(d).trip+x.breaker(d) < tt.get(m).trip+x.breaker(m) {
 				m = d
 			}
 		}
-		rec.isoS = times[m].trip + x.breaker(m)
-		x.judgeOthers(t, crit, v, devs, times, cl.must, m, ne, k, key)
+		rec.isoS = tt.get(m).trip + x.breaker(m)
+		if tt.get(m).undef {
+			rec.isoS, rec.undef, rec.undefSet = math.NaN(), m, true
+		}
+		x.judgeOthers(ws, t, crit, v, tt, cl.must, m, ne, k, key)
 	} else {
-		iso, evs, failed, outside, err := x.sequence(ws, t, crit, v, devs, times, cl, ne, k, key)
+		iso, evs, failed, outside, err := x.sequence(ws, t, crit, v, tt, cl, ne, k, key)
 		if err != nil {
 			return err
 		}
@@ -91,45 +181,89 @@ func onePoint(x *netIndex, ds []int) bool {
 // m clears alone: its margin over m, at the solved fault and, for the
 // kinds whose currents all scale with the fault's, at reduced currents
 // down to m's pickup (the same fault through a growing fault impedance).
-func (x *netIndex) judgeOthers(t *tally, crit Criteria, v *view, devs []int, times map[int]timing, must []int, m int, ne nodeElem, k faults.Kind, key faultKey) {
+// Elements of one node share their sweeps where neither device sits on
+// the element's own branch (they see the same currents).
+func (x *netIndex) judgeOthers(ws *workspace, t *tally, crit Criteria, v *view, tt *timeTable, must []int, m int, ne nodeElem, k faults.Kind, key faultKey) {
 	upB, downB := bands(crit)
-	isMust := map[int]bool{}
-	for _, d := range must {
-		isMust[d] = true
-	}
-	sm := times[m].seen
-	for _, d := range devs {
-		if isMust[d] || math.IsInf(times[d].up, 1) {
+	sm := tt.get(m).seen
+	tmm := tt.get(m)
+	for i := 0; i < len(tt.ids); i++ {
+		d := tt.ids[i]
+		if contains(must, d) || math.IsInf(tt.rows[i].up, 1) {
 			continue
 		}
-		sd := times[d].seen
-		x.offerMargin(t, crit, d, m, sd, sm, upB, downB, 1, ne, key, false)
-		if k == faults.LLG || v.cs != faults.Max || !(v.sweepTo[k] < 1) {
+		sd := tt.rows[i].seen
+		if upB == Nominal && downB == Nominal {
+			x.offerMargin(t, crit, d, m, &sd, &sm, tt.rows[i].up, tmm.trip, 1, ne, key, false)
+		} else {
+			td, tm := x.timeOf(d, sd, upB), x.timeOf(m, sm, downB)
+			x.offerMargin(t, crit, d, m, &sd, &sm, td.up, tm.trip, 1, ne, key, false)
+		}
+		// The sweep judges the devices behind m on its side (its backups,
+		// by the zones): where a crossing between solved fault levels can
+		// hide. Every other device is judged at every solved fault.
+		if k == faults.LLG || v.cs != faults.Max || !(v.sweepTo[k] < 1) || !x.backsUp(d, m) {
 			continue
 		}
-		for i, s := range sweepScales(x, d, m, &sd, &sm, v.sweepTo[k]) {
+		own := v.hasOwn && (x.s.Devices[d].Point.Branch == v.el.branch || x.s.Devices[m].Point.Branch == v.el.branch)
+		if !own {
+			sk := sweepKey{d, m, k}
+			if ws.swept[sk] {
+				continue
+			}
+			ws.swept[sk] = true
+		}
+		for j, s := range sweepScales(x, d, m, &sd, &sm, v.sweepTo[k]) {
 			kk := key
-			kk.sweep = i + 1
-			x.offerMargin(t, crit, d, m, scaleSeen(sd, s), scaleSeen(sm, s), upB, downB, s, ne, kk, false)
+			kk.sweep = j + 1
+			sds, sms := scaleSeen(sd, s), scaleSeen(sm, s)
+			td, tm := x.timeOf(d, sds, upB), x.timeOf(m, sms, downB)
+			x.offerMargin(t, crit, d, m, &sds, &sms, td.up, tm.trip, s, ne, kk, false)
 		}
 	}
 }
 
-// offerMargin records device d's margin over device m for what each sees.
-func (x *netIndex) offerMargin(t *tally, crit Criteria, d, m int, sd, sm Seen, upB, downB Band, scale float64, ne nodeElem, key faultKey, tripped bool) {
-	td := x.timeOf(d, sd, upB)
-	tm := x.timeOf(m, sm, downB)
+// backsUp reports whether device d backs device m up (by the zones).
+func (x *netIndex) backsUp(d, m int) bool {
+	return x.topo != nil && contains(x.topo.Zones[d].Next, m)
+}
+
+// sweepKey names a sweep of one pair of devices for one kind at a node.
+type sweepKey struct {
+	d, m int
+	k    faults.Kind
+}
+
+// contains reports whether ds holds d.
+func contains(ds []int, d int) bool {
+	for _, e := range ds {
+		if e == d {
+			return true
+		}
+	}
+	return false
+}
+
+// offerMargin records device d's margin over device m for what each sees,
+// d operating (as the upstream device) at upS and m tripping at mTrip.
+func (x *netIndex) offerMargin(t *tally, crit Criteria, d, m int, sd, sm *Seen, upS, mTrip, scale float64, ne nodeElem, key faultKey, tripped bool) {
 	// A must-clear device slower than a sequence is followed leaves the
 	// fault uncleared: the clearing check reports that, not a margin.
-	if math.IsInf(td.up, 1) || math.IsInf(tm.trip, 1) || tm.trip > seqLimitS(crit) {
+	if math.IsInf(upS, 1) || math.IsInf(mTrip, 1) || mTrip > seqLimitS(crit) {
 		return
 	}
-	margin, req := x.marginOf(crit, d, m, td.up, tm.trip)
+	if key.sweep == 0 {
+		t.ops[d].count++
+	}
+	margin, req := x.marginOf(crit, d, m, upS, mTrip)
+	if !t.ops[d].worse(margin-req, key) {
+		return
+	}
 	r := opRecord{slack: margin - req, margin: margin, required: req, key: key, place: ne.place, scale: scale,
-		relief: m, dS: td.up, reliefS: tm.trip, tripped: tripped}
-	r.dA, r.dQty = x.timers[d].governingSeen(&sd)
-	r.reliefA, r.reliefQty = x.timers[m].governingSeen(&sm)
-	r.forward = x.forward(d, &sd)
+		relief: m, dS: upS, reliefS: mTrip, tripped: tripped, count: t.ops[d].count}
+	r.dA, r.dQty = x.timers[d].governingSeen(sd)
+	r.reliefA, r.reliefQty = x.timers[m].governingSeen(sm)
+	r.forward = x.forward(d, sd)
 	t.ops[d].offer(r)
 }
 

@@ -3,6 +3,8 @@ package coord
 import (
 	"math"
 	"math/cmplx"
+	"sort"
+	"strconv"
 
 	"tripgrade/faults"
 )
@@ -19,15 +21,30 @@ type netIndex struct {
 	timers []*Timer
 	devBus []int
 	ratio  []float64 // bus voltage by winding ratios
-	// tau is, per bus, the current·kV below which a branch there leads to
-	// no device that could operate (see explore).
-	tau []float64
+	// tauPhase and tauGround are, per bus, the phase and residual
+	// current·kV below which a branch there leads to no device that could
+	// operate (see explore).
+	tauPhase, tauGround []float64
 	// infeed lists the sources and generators in service at each bus, per
 	// case.
 	infeed [2][][]infeedRef
 	// board marks the buses where two or more branches have a device at
 	// that bus: switchboards, whose circuits each have their own device.
 	board []bool
+	// limits hold each device's lowest phase and ground pickups, for a
+	// quick test that it cannot operate.
+	limits []pickupLimits
+	// topo is the study's topology, once it is known (the zone pass that
+	// builds it runs without).
+	topo *Topology
+}
+
+// pickupLimits are a relay's lowest pickups (+Inf where it has no stage of
+// that quantity); cheap is false where the quick test does not apply (a
+// fuse, a relay with a neutral CT or current polarisation).
+type pickupLimits struct {
+	phaseA, groundA float64
+	cheap           bool
 }
 
 func newNetIndex(s *Study, eng *faults.Engine, ratio []float64) *netIndex {
@@ -44,6 +61,21 @@ func newNetIndex(s *Study, eng *faults.Engine, ratio []float64) *netIndex {
 		x.devAt[d.Point.Branch][d.Point.End] = append(x.devAt[d.Point.Branch][d.Point.End], i)
 		x.timers = append(x.timers, NewTimer(d))
 		x.devBus = append(x.devBus, DeviceBus(n, *d))
+	}
+	x.limits = make([]pickupLimits, len(s.Devices))
+	for i := range s.Devices {
+		d := &s.Devices[i]
+		if d.Kind != Relay || d.NeutralCT != nil || d.Dir.ByCurrent {
+			continue
+		}
+		lim := pickupLimits{phaseA: math.Inf(1), groundA: math.Inf(1), cheap: true}
+		if a := d.Pickup(Phase); a > 0 {
+			lim.phaseA = a
+		}
+		if a := d.Pickup(Residual); a > 0 {
+			lim.groundA = a
+		}
+		x.limits[i] = lim
 	}
 	x.board = make([]bool, len(n.Buses))
 	for k := range n.Buses {
@@ -70,7 +102,7 @@ func newNetIndex(s *Study, eng *faults.Engine, ratio []float64) *netIndex {
 			}
 		}
 	}
-	x.tau = explorationThresholds(s, x.devBus, ratio)
+	x.tauPhase, x.tauGround = explorationThresholds(s, x.devBus, ratio)
 	return x
 }
 
@@ -90,50 +122,46 @@ type infeedRef struct {
 // level (referred by winding ratios).
 const explorationShare = 0.5
 
-// explorationThresholds gives each bus the current·kV below which the
-// exploration of a fault stops: half the smallest pickup·kV of the devices
-// at that bus's nominal voltage, or, at a voltage with no devices, of the
-// devices above 1 kV. With one driving point and branches of similar X/R
-// a network carries no circulating current, so a device beyond a branch
-// carries no more than the currents that cross into the explored part;
-// a branch below half the smallest pickup around it leads to nothing that
+// explorationThresholds gives each bus, for phase currents and for
+// residual currents, the current·kV below which the exploration of a fault
+// stops: half the smallest pickup·kV of the stages of that quantity (a
+// fuse's lowest melting current counts as a phase pickup) at that bus's
+// nominal voltage, or, at a voltage with no such stages, of those above
+// 1 kV. With one driving point and branches of similar X/R a network
+// carries no circulating current, so a device beyond a branch carries no
+// more than the currents that cross into the explored part; a branch
+// below half the smallest pickup around it leads to nothing that
 // operates.
-func explorationThresholds(s *Study, devBus []int, ratio []float64) []float64 {
+func explorationThresholds(s *Study, devBus []int, ratio []float64) (phase, ground []float64) {
 	n := s.Network
-	level := map[float64]float64{}
-	hv := math.Inf(1)
-	for i := range s.Devices {
-		d := &s.Devices[i]
-		p := math.Inf(1)
-		for _, q := range []Quantity{Phase, Residual} {
-			if a := d.Pickup(q); a > 0 {
-				p = math.Min(p, a)
+	one := func(q Quantity) []float64 {
+		level := map[float64]float64{}
+		hv := math.Inf(1)
+		for i := range s.Devices {
+			a := s.Devices[i].Pickup(q)
+			if !(a > 0) {
+				continue
+			}
+			pu := a * ratio[devBus[i]]
+			kv := n.Buses[devBus[i]].KV
+			if old, ok := level[kv]; !ok || pu < old {
+				level[kv] = pu
+			}
+			if kv > 1 {
+				hv = math.Min(hv, pu)
 			}
 		}
-		if math.IsInf(p, 1) {
-			continue
+		tau := make([]float64, len(n.Buses))
+		for k, b := range n.Buses {
+			t, ok := level[b.KV]
+			if !ok {
+				t = hv
+			}
+			tau[k] = explorationShare * t // +Inf: no such stage anywhere, nothing to find
 		}
-		pu := p * ratio[devBus[i]]
-		kv := n.Buses[devBus[i]].KV
-		if old, ok := level[kv]; !ok || pu < old {
-			level[kv] = pu
-		}
-		if kv > 1 {
-			hv = math.Min(hv, pu)
-		}
+		return tau
 	}
-	tau := make([]float64, len(n.Buses))
-	for k, b := range n.Buses {
-		t, ok := level[b.KV]
-		if !ok {
-			t = hv
-		}
-		if math.IsInf(t, 1) {
-			t = 0 // no device anywhere above 1 kV: explore everything
-		}
-		tau[k] = explorationShare * t
-	}
-	return tau
+	return one(Phase), one(Residual)
 }
 
 // endAt returns the end of branch b at bus k.
@@ -162,6 +190,7 @@ type probe struct {
 	x    *netIndex
 	sol  faults.Solution
 	open []faults.Point
+	off  faults.Opening // what the network state has taken out
 	// The responses, by point index, valid where stamp equals gen; the
 	// arrays belong to the worker and are reused from probe to probe.
 	stamp *[]uint32
@@ -170,7 +199,8 @@ type probe struct {
 	// explored lists the points whose responses the exploration computed.
 	explored []int
 	seenBus  map[int]bool
-	// seqMax bounds each sequence's fault current over the kinds, per unit.
+	// seqMax bounds each sequence's fault current over the kinds, per unit
+	// (the response coefficients are amperes per unit of fault current).
 	seqMax [3]float64
 }
 
@@ -186,14 +216,110 @@ type slots struct {
 // response slots for the intact network, one for the network with branch
 // ends open.
 type workspace struct {
-	sc, scOpen   *faults.Scratch
-	intact, open slots
+	sc     *faults.Scratch
+	cols   *faults.Columns
+	intact slots
+	// tables hold the timings of the intact network and of the states of a
+	// sequence (two, used in turn).
+	tables [3]*timeTable
+	// node holds, per fault kind, the timings of a node's devices as its
+	// bus (or line) fault sees them, which every element of the node
+	// shares but for the devices on a close-in fault's own branch.
+	node [4]*timeTable
+	// swept marks the sweeps done at the current node.
+	swept  map[sweepKey]bool
+	seq    *seqState
+	search *searchBuf
+	// states remember the network states (open branch ends) the sequences
+	// of one element's faults reach: the four fault kinds usually open the
+	// same devices, and a state's responses serve them all.
+	states   [stateCacheSize]*stateEntry
+	nextSlot int
+}
+
+// columnCacheSize is how many impedance-matrix columns a worker remembers:
+// the fault nodes and opened branch ends of the faults it judges in turn,
+// which lie near one another.
+const columnCacheSize = 24
+
+// stateCacheSize is how many network states a worker remembers.
+const stateCacheSize = 4
+
+// stateEntry is one remembered network state.
+type stateEntry struct {
+	key   string
+	valid bool
+	sol   faults.Solution
+	sc    *faults.Scratch
+	slots slots
+	probe *probe
+}
+
+// forgetStates empties the state cache (a new element or case).
+func (ws *workspace) forgetStates() {
+	for _, e := range ws.states {
+		e.valid = false
+	}
+}
+
+// openingKey names a set of openings.
+func openingKey(o faults.Opening) string {
+	ends := append([]faults.Point(nil), o.Ends...)
+	sort.Slice(ends, func(i, j int) bool { return pointIndex(ends[i]) < pointIndex(ends[j]) })
+	b := make([]byte, 0, 8*len(ends)+8)
+	for _, pt := range ends {
+		b = strconv.AppendInt(b, int64(pointIndex(pt)), 36)
+		b = append(b, ',')
+	}
+	b = append(b, '|')
+	for _, i := range o.Sources {
+		b = strconv.AppendInt(b, int64(i), 36)
+		b = append(b, ',')
+	}
+	b = append(b, '|')
+	for _, i := range o.Generators {
+		b = strconv.AppendInt(b, int64(i), 36)
+		b = append(b, ',')
+	}
+	return string(b)
+}
+
+// state returns the probe of fault place pl (case cs) in the network with
+// opening o, from the cache or solved now; ok is false when the fault is
+// not energised there.
+func (x *netIndex) state(ws *workspace, pl faults.Place, cs faults.Case, o faults.Opening) (*probe, error) {
+	key := openingKey(o)
+	for _, e := range ws.states {
+		if e.valid && e.key == key {
+			return e.probe, nil
+		}
+	}
+	sol, err := x.eng.SolveOpenWith(x.eng.CaseFault(pl, faults.LLL, cs), o, ws.cols)
+	if err != nil {
+		return nil, err
+	}
+	e := ws.states[ws.nextSlot]
+	ws.nextSlot = (ws.nextSlot + 1) % stateCacheSize
+	e.key, e.valid, e.sol = key, true, sol.Use(e.sc)
+	e.probe = x.newProbe(&e.slots, e.sol, o.Ends)
+	e.probe.off = o
+	return e.probe, nil
 }
 
 func (x *netIndex) newWorkspace() *workspace {
 	np := 2 * x.n.BranchCount()
 	mk := func() slots { return slots{stamp: make([]uint32, np), resp: make([]faults.Response, np)} }
-	return &workspace{sc: x.eng.NewScratch(), scOpen: x.eng.NewScratch(), intact: mk(), open: mk()}
+	ws := &workspace{sc: x.eng.NewScratch(), cols: x.eng.NewColumns(columnCacheSize), intact: mk(), seq: x.newSeqState(), search: x.newSearchBuf(), swept: map[sweepKey]bool{}}
+	for i := range ws.tables {
+		ws.tables[i] = x.newTimeTable()
+	}
+	for i := range ws.node {
+		ws.node[i] = x.newTimeTable()
+	}
+	for i := range ws.states {
+		ws.states[i] = &stateEntry{sc: x.eng.NewScratch(), slots: mk()}
+	}
+	return ws
 }
 
 // newProbe starts a probe of solution sol (already attached to a scratch
@@ -208,8 +334,9 @@ func (x *netIndex) newProbe(w *slots, sol faults.Solution, open []faults.Point) 
 	for _, k := range faults.Kinds {
 		s := sol.WithKind(k, x.eng.CaseFault(sol.Fault().Place, k, sol.Fault().Case).ZOhm)
 		fc := s.FaultCurrents()
+		base := x.eng.BaseCurrentA(s.FaultBus())
 		for q := range p.seqMax {
-			p.seqMax[q] = math.Max(p.seqMax[q], cmplx.Abs(fc.Seq[q]))
+			p.seqMax[q] = math.Max(p.seqMax[q], cmplx.Abs(fc.Seq[q])/base)
 		}
 	}
 	return p
@@ -226,24 +353,48 @@ func (p *probe) at(pt faults.Point) faults.Response {
 	return (*p.resp)[i]
 }
 
-// bound is an upper bound on any current (phase or residual) at a point
-// over every fault kind, in amperes: |Ix| ≤ Σ|k_q|·|I_q| and |3I0| =
+// bounds are upper bounds on a point's phase and residual currents over
+// every fault kind, in amperes: |Ix| ≤ Σ|k_q|·|I_q| and |3I0| =
 // 3|k_0||I_0|.
-func (p *probe) bound(r faults.Response) float64 {
-	var sum float64
-	for q, k := range r.Coefficients() {
-		sum += cmplx.Abs(k) * p.seqMax[q]
+func (p *probe) bounds(r faults.Response) (phase, residual float64) {
+	k := r.Coefficients()
+	for q := range k {
+		phase += cmplx.Abs(k[q]) * p.seqMax[q]
 	}
-	return 3 * sum
+	return phase, 3 * cmplx.Abs(k[0]) * p.seqMax[0]
+}
+
+// removed reports whether a source or generator is out of the probe's
+// network state (taken out by its own protection).
+func (p *probe) removed(in infeedRef) bool {
+	list := p.off.Generators
+	if in.source {
+		list = p.off.Sources
+	}
+	for _, i := range list {
+		if i == in.index {
+			return true
+		}
+	}
+	return false
+}
+
+// couldOperate reports whether a point at bus k carries, for some fault
+// kind, current enough to be worth following: at least the bus's
+// exploration threshold of phase or residual current.
+func (p *probe) couldOperate(r faults.Response, k int) bool {
+	ph, res := p.bounds(r)
+	return ph*p.x.ratio[k] >= p.x.tauPhase[k] || res*p.x.ratio[k] >= p.x.tauGround[k]
 }
 
 // explore walks out from the fault node over branches that could carry
 // current enough to operate a device, computing the responses of both
 // ends of every branch at each bus it reaches. A branch is followed when
-// the bound on its current, as current·kV at the far bus, reaches the far
-// bus's threshold.
+// the bound on its phase or residual current, as current·kV, reaches the
+// far bus's threshold for that quantity.
 func (p *probe) explore(start ...int) {
-	n := p.x.n
+	x := p.x
+	n := x.n
 	queue := append([]int(nil), start...)
 	for _, k := range start {
 		p.seenBus[k] = true
@@ -251,15 +402,18 @@ func (p *probe) explore(start ...int) {
 	for len(queue) > 0 {
 		k := queue[0]
 		queue = queue[1:]
-		for _, b := range p.x.adj[k] {
+		for _, b := range x.adj[k] {
 			y := farBus(n, b, k)
 			rn := p.at(faults.Point{Branch: b, End: endAt(n, b, k)})
 			rf := p.at(faults.Point{Branch: b, End: endAt(n, b, y)})
 			if p.seenBus[y] {
 				continue
 			}
-			flow := math.Max(p.bound(rn)*p.x.ratio[k], p.bound(rf)*p.x.ratio[y])
-			if flow >= p.x.tau[y] {
+			phN, resN := p.bounds(rn)
+			phF, resF := p.bounds(rf)
+			ph := math.Max(phN*x.ratio[k], phF*x.ratio[y])
+			res := math.Max(resN*x.ratio[k], resF*x.ratio[y])
+			if ph >= x.tauPhase[y] || res >= x.tauGround[y] {
 				p.seenBus[y] = true
 				queue = append(queue, y)
 			}

@@ -53,7 +53,7 @@ func (c *checker) maxFault(i int, q Quantity, places []faults.Place) (largest, e
 			if err != nil {
 				return worst, err
 			}
-			ph, res := Measured(sol.At(c.s.Devices[i].Point))
+			ph, res := c.effective(i, sol)
 			a := ph
 			if q == Residual {
 				a = res

@@ -6,29 +6,85 @@ import (
 	"tripgrade/faults"
 )
 
-// devState is one device's progress towards operating during a fault.
-// Inverse-time relays integrate dt/t(I) (the usual model of an induction
-// disc or a numerical relay's timer: with the current changing in steps,
-// a relay trips when the sum of each step's share of its operating time
-// reaches one); a relay whose current falls below its pickup resets at
-// once (numerical relays' instantaneous reset, an assumption). A fuse's
+// A device's progress towards operating during a fault. Inverse-time
+// relays integrate dt/t(I) (the usual model of an induction disc or a
+// numerical relay's timer: with the current changing in steps, a relay
+// trips when the sum of each step's share of its operating time reaches
+// one); a relay whose current falls below its pickup resets at once
+// (numerical relays' instantaneous reset, an assumption). A fuse's
 // clearing and melting are integrated the same way.
-type devState struct {
-	prog, progUp float64
-	tripAt       float64 // NaN until the device has tripped
-	open         bool
-	firstA       float64 // its current in the intact network
+//
+// seqState holds that progress for every device a sequence touches, in
+// arrays of the worker's reused from fault to fault.
+type seqState struct {
+	prog, progUp []float64
+	tripAt       []float64 // NaN until the device has tripped
+	open         []bool
+	firstA       []float64 // its current in the intact network
+	proj         []float64 // its upstream-time projection in the current state (+Inf: none)
+	stamp        []uint32
+	gen          uint32
+	ids          []int // devices touched, in order
 }
+
+func (x *netIndex) newSeqState() *seqState {
+	nd := len(x.s.Devices)
+	return &seqState{prog: make([]float64, nd), progUp: make([]float64, nd), tripAt: make([]float64, nd),
+		open: make([]bool, nd), firstA: make([]float64, nd), proj: make([]float64, nd), stamp: make([]uint32, nd)}
+}
+
+func (st *seqState) reset() {
+	st.ids = st.ids[:0]
+	st.gen++
+	if st.gen == 0 {
+		clear(st.stamp)
+		st.gen = 1
+	}
+}
+
+// touch starts tracking device d (firstA its intact current).
+func (st *seqState) touch(d int, firstA float64) {
+	if st.stamp[d] == st.gen {
+		return
+	}
+	st.stamp[d] = st.gen
+	st.ids = append(st.ids, d)
+	st.prog[d], st.progUp[d], st.tripAt[d], st.open[d], st.firstA[d], st.proj[d] = 0, 0, math.NaN(), false, firstA, math.Inf(1)
+}
+
+// candidate reports whether a device is followed through a sequence: it
+// operates in the intact network. A device that does not may come to
+// operate as others open and currents move to it; the search for who must
+// clear the fault in each state finds those on the paths that feed it.
+func (x *netIndex) candidate(d int, tm *timing) bool {
+	return !math.IsInf(tm.trip, 1) || !math.IsInf(tm.up, 1)
+}
+
+// followFactor bounds which devices a sequence follows: those that, in the
+// intact network, operate within followFactor times the must-clear
+// devices' clearing time (plus a margin). An opening moves current
+// between paths, raising a remaining device's current by a factor of two
+// or so in a ring or between parallel circuits, which shortens an inverse
+// time by less than that; a device four times slower than the clearing
+// it waits for cannot catch up before the fault is isolated (an
+// assumption, stated in the README).
+const followFactor = 4
 
 // seqLimitS is how long after the fault a sequence is followed before the
 // fault counts as not cleared.
 func seqLimitS(crit Criteria) float64 { return math.Max(10*crit.MaxClearingS, 30) }
 
+// isolatedShare is the share of its first current below which a fault
+// counts as extinguished.
+const isolatedShare = 1e-9
+
 // sequence follows a fault fed from more than one side: devices trip in
 // time order, each opening its branch end, and after every opening the
-// network is solved again for the devices that remain. It returns when
-// the fault is isolated (+Inf when it never is) and the openings, and
-// records every device's margin over the device whose opening relieved it.
+// network is solved again for the devices that remain (those the intact
+// network's exploration found, and any the search for who must clear the
+// fault reaches). It returns when the fault is isolated (+Inf when it
+// never is) and the openings, and records every device's margin over the
+// device whose opening relieved it.
 //
 // A source or generator whose own protection the study declares, feeding
 // the fault with no device of the study between, is taken out at the
@@ -36,213 +92,209 @@ func seqLimitS(crit Criteria) float64 { return math.Max(10*crit.MaxClearingS, 30
 // left fed only by undeclared sources or generators with no device
 // between, the sequence stops and returns their names: the rest of the
 // clearing is outside the study.
-func (x *netIndex) sequence(ws *workspace, t *tally, crit Criteria, v0 *view, devs0 []int, times0 map[int]timing, cl0 clearing, ne nodeElem, k faults.Kind, key faultKey) (float64, []event, []int, []string, error) {
+func (x *netIndex) sequence(ws *workspace, t *tally, crit Criteria, v0 *view, tt0 *timeTable, cl0 clearing, ne nodeElem, k faults.Kind, key faultKey) (float64, []event, []int, []string, error) {
 	eng := x.eng
 	cs := v0.cs
-	state := map[int]*devState{}
-	get := func(d int) *devState {
-		s, ok := state[d]
-		if !ok {
-			s = &devState{tripAt: math.NaN()}
-			state[d] = s
+	st := ws.seq
+	st.reset()
+	horizon := 0.0 // the intact network's clearing time by the must-clear devices
+	for _, d := range cl0.must {
+		if tm := tt0.get(d); !math.IsInf(tm.trip, 1) {
+			horizon = math.Max(horizon, tm.trip+x.breaker(d))
 		}
-		return s
 	}
-	for _, d := range devs0 {
-		get(d).firstA = phaseOf(times0[d].seen)
+	horizon = followFactor*horizon + crit.MarginS
+	for i, d := range tt0.ids {
+		if x.candidate(d, &tt0.rows[i]) && tt0.rows[i].up <= horizon {
+			st.touch(d, x.governA(d, tt0.rows[i].seen))
+		}
+	}
+	for _, d := range cl0.must {
+		st.touch(d, x.governA(d, tt0.get(d).seen))
 	}
 	var opening faults.Opening
 	var evs []event
 	T := 0.0
-	devs, times, must, failed, own := devs0, times0, cl0.must, cl0.failed, cl0.own
+	tt, must, failed, own := tt0, cl0.must, cl0.failed, cl0.own
 	size0 := faultSize(v0.kinds[k])
-	isMust := func(d int) bool {
-		for _, m := range must {
-			if m == d {
-				return true
-			}
-		}
-		return false
-	}
-	projected := map[int]float64{} // upstream-time projections of the current state
 	limit := seqLimitS(crit)
-	for iter := 0; iter < 2*len(devs0)+16; iter++ {
-		// The next opening.
-		next := math.Inf(1)
-		for d, s := range state {
-			if s.open {
+	next := 1      // the sequence table to fill next
+	lastDev := 0.0 // when the last device of the study opened
+	for iter := 0; iter < 2*len(tt0.ids)+16; iter++ {
+		// The next opening: a device that must clear the fault in this
+		// state. A device that trips out of turn is reported (unwanted) and
+		// the sequence goes on as if it had not opened: every device is
+		// judged against the clearing its protection is meant to give.
+		nextT := math.Inf(1)
+		for _, d := range must {
+			if st.isOpen(d) {
 				continue
 			}
-			tm, ok := times[d]
-			var at float64
-			switch {
-			case !math.IsNaN(s.tripAt):
-				at = s.tripAt + x.breaker(d)
-			case ok && !math.IsInf(tm.trip, 1):
-				at = T + (1-s.prog)*tm.trip + x.breaker(d)
-			default:
-				continue
+			switch tm := tt.get(d); {
+			case st.stamp[d] == st.gen && !math.IsNaN(st.tripAt[d]):
+				nextT = math.Min(nextT, math.Max(T, st.tripAt[d]+x.breaker(d)))
+			case !math.IsInf(tm.trip, 1):
+				prog := 0.0
+				if st.stamp[d] == st.gen {
+					prog = st.prog[d]
+				}
+				nextT = math.Min(nextT, T+(1-prog)*tm.trip+x.breaker(d))
 			}
-			next = math.Min(next, at)
 		}
 		ownAt := math.Inf(1)
 		if len(own) > 0 {
 			ownAt = math.Max(T, crit.MaxClearingS)
 		}
-		if ownAt < next {
-			next = ownAt
-		}
-		if math.IsInf(next, 1) || next > limit {
+		nextT = math.Min(nextT, ownAt)
+		if math.IsInf(nextT, 1) || nextT > limit {
 			return math.Inf(1), evs, failed, nil, nil
 		}
 		// Advance every device to it.
-		clear(projected)
-		for _, d := range devs {
-			s := get(d)
-			if s.open {
+		for _, d := range st.ids {
+			if st.open[d] {
 				continue
 			}
-			tm := times[d]
-			if !math.IsInf(tm.up, 1) && !isMust(d) {
-				projected[d] = T + (1-s.progUp)*tm.up
+			tm := tt.get(d)
+			st.proj[d] = math.Inf(1)
+			if !math.IsInf(tm.up, 1) && !contains(must, d) {
+				st.proj[d] = T + (1-st.progUp[d])*tm.up
 			}
-			if math.IsNaN(s.tripAt) {
+			if math.IsNaN(st.tripAt[d]) {
 				if math.IsInf(tm.trip, 1) {
-					s.prog = 0
-				} else if p := s.prog + (next-T)/tm.trip; p >= 1-1e-12 {
-					s.tripAt = T + (1-s.prog)*tm.trip
-					s.prog = 1
-					if !isMust(d) {
-						x.unwanted(t, crit, d, s.tripAt, times, state, must, T, ne, key)
+					st.prog[d] = 0
+				} else if p := st.prog[d] + (nextT-T)/tm.trip; p >= 1-1e-12 {
+					st.tripAt[d] = T + (1-st.prog[d])*tm.trip
+					st.prog[d] = 1
+					if !contains(must, d) {
+						x.unwanted(t, crit, d, st.tripAt[d], tt, st, must, T, ne, key)
 					}
 				} else {
-					s.prog = p
+					st.prog[d] = p
 				}
 			}
 			if math.IsInf(tm.up, 1) {
-				s.progUp = 0
+				st.progUp[d] = 0
 			} else {
-				s.progUp += (next - T) / tm.up
+				st.progUp[d] += (nextT - T) / tm.up
 			}
 		}
 		// Open what opens now.
 		first := -1
-		for d, s := range state {
-			if s.open || math.IsNaN(s.tripAt) || s.tripAt+x.breaker(d) > next*(1+1e-12)+1e-12 {
+		for _, d := range st.ids {
+			if st.open[d] || math.IsNaN(st.tripAt[d]) || !contains(must, d) || st.tripAt[d]+x.breaker(d) > nextT*(1+1e-12)+1e-12 {
 				continue
 			}
-			s.open = true
+			st.open[d] = true
 			opening.Ends = append(opening.Ends, x.s.Devices[d].Point)
-			evs = append(evs, event{dev: d, atS: next, beforeA: phaseOf(times[d].seen), afterA: s.firstA, unwanted: !isMust(d)})
+			evs = append(evs, event{dev: d, atS: nextT, beforeA: x.governA(d, tt.get(d).seen), afterA: st.firstA[d]})
+			lastDev = nextT
 			if first < 0 || d < first {
 				first = d
 			}
 		}
-		if next == ownAt {
+		if nextT == ownAt {
 			for _, in := range own {
 				if in.source {
 					opening.Sources = append(opening.Sources, in.index)
 				} else {
 					opening.Generators = append(opening.Generators, in.index)
 				}
-				evs = append(evs, event{dev: -1, infeed: in.name, atS: next})
+				evs = append(evs, event{dev: -1, infeed: in.name, atS: nextT})
 			}
 		}
 		sortEvents(evs)
-		T = next
+		T = nextT
 		relieve := func(d int) {
-			if first < 0 || d == first || isMust(d) {
+			if first < 0 || d == first || contains(must, d) || math.IsInf(st.proj[d], 1) {
 				return
 			}
-			if p, ok := projected[d]; ok && !math.IsNaN(state[first].tripAt) {
-				x.offerRelief(t, crit, d, first, p, state[first].tripAt, times, ne, key)
-			}
+			x.offerRelief(t, crit, d, first, st.proj[d], st.tripAt[first], tt, ne, key)
 		}
-		sol, err := eng.SolveOpen(eng.CaseFault(ne.place, faults.LLL, cs), opening)
+		p, err := x.state(ws, ne.place, cs, opening)
 		if err != nil {
 			return 0, nil, nil, nil, err
 		}
+		sol := p.sol
 		// Isolated: cut off from every source, or left with no current of
 		// this kind (an earth fault that has lost its last path to earth).
 		if !sol.Energised() || faultSize(sol.WithKind(k, eng.CaseFault(ne.place, k, cs).ZOhm)) <= isolatedShare*size0 {
-			for _, d := range devs {
+			for _, d := range st.ids {
 				relieve(d)
+			}
+			// A fault isolated when a declared infeed's own protection
+			// removed it: the study's devices are judged on their part,
+			// the infeed's own protection is taken to act within the
+			// maximum clearing time (the declaration's meaning).
+			if len(evs) > 0 && evs[len(evs)-1].dev < 0 && lastDev > 0 {
+				return lastDev, evs, nil, nil, nil
 			}
 			return T, evs, nil, nil, nil
 		}
-		// The new state.
-		sol = sol.Use(ws.scOpen)
-		p := x.newProbe(&ws.open, sol, opening.Ends)
-		i, j, _ := sol.Node()
-		p.explore(i, j)
-		v := &view{p: p, el: v0.el, cs: cs}
+		// The new state: the same devices, seen through the changed network.
+		v := &view{p: p, buf: ws.search, el: v0.el, cs: cs}
 		for _, kk := range faults.Kinds {
 			v.kinds[kk] = sol.WithKind(kk, eng.CaseFault(ne.place, kk, cs).ZOhm)
 		}
-		newDevs := p.devices()
-		newTimes := make(map[int]timing, len(newDevs))
-		for _, d := range newDevs {
-			if s, ok := state[d]; ok && s.open {
+		nt := ws.tables[next]
+		next = 3 - next
+		nt.reset(v, k)
+		for _, d := range st.ids {
+			if st.open[d] {
 				continue
 			}
-			newTimes[d] = x.timeOf(d, v.seen(d, k), Nominal)
-			get(d)
-		}
-		for _, d := range devs {
-			if _, still := newTimes[d]; !still || math.IsInf(newTimes[d].trip, 1) && math.IsInf(newTimes[d].up, 1) {
+			if tm := nt.get(d); math.IsInf(tm.trip, 1) && math.IsInf(tm.up, 1) {
 				relieve(d)
 			}
 		}
-		ops := func(d int) bool { tm, ok := newTimes[d]; return ok && !math.IsInf(tm.trip, 1) }
-		cl := v.search(ops, nil)
-		devs, times, must, failed, own = newDevs, newTimes, cl.must, cl.failed, cl.own
+		cl := v.search(func(d int) bool { return !st.isOpen(d) && nt.operates(d) }, nil)
+		tt, must, failed, own = nt, cl.must, cl.failed, cl.own
+		for i, d := range nt.ids {
+			if x.candidate(d, &nt.rows[i]) && (contains(must, d) || nt.rows[i].up <= T+horizon) {
+				st.touch(d, 0)
+			}
+		}
 		if len(must) == 0 && len(failed) == 0 && len(own) == 0 && len(cl.direct) > 0 {
 			return T, evs, nil, cl.direct, nil
-		}
-		for d, s := range state {
-			if _, ok := times[d]; !ok && !s.open {
-				times[d] = timing{trip: noTime, up: noTime}
-			}
 		}
 	}
 	return math.Inf(1), evs, failed, nil, nil
 }
 
-// isolatedShare is the share of its first current below which a fault
-// counts as extinguished.
-const isolatedShare = 1e-9
+// isOpen reports whether a tracked device has opened.
+func (st *seqState) isOpen(d int) bool { return st.stamp[d] == st.gen && st.open[d] }
 
 // offerRelief records device d's margin over device m, whose opening
 // stopped d from operating: d would have operated at projS, m tripped at
 // mTrip.
-func (x *netIndex) offerRelief(t *tally, crit Criteria, d, m int, projS, mTrip float64, times map[int]timing, ne nodeElem, key faultKey) {
+func (x *netIndex) offerRelief(t *tally, crit Criteria, d, m int, projS, mTrip float64, tt *timeTable, ne nodeElem, key faultKey) {
+	t.ops[d].count++
 	margin, req := x.marginOf(crit, d, m, projS, mTrip)
+	if !t.ops[d].worse(margin-req, key) {
+		return
+	}
 	r := opRecord{slack: margin - req, margin: margin, required: req, key: key, place: ne.place, scale: 1,
 		relief: m, dS: projS, reliefS: mTrip}
-	if tm, ok := times[d]; ok {
-		r.dA, r.dQty = x.timers[d].governingSeen(&tm.seen)
-		r.forward = x.forward(d, &tm.seen)
-	}
-	if tm, ok := times[m]; ok {
-		r.reliefA, r.reliefQty = x.timers[m].governingSeen(&tm.seen)
-	}
+	sd := tt.get(d).seen
+	r.dA, r.dQty = x.timers[d].governingSeen(&sd)
+	r.forward = x.forward(d, &sd)
+	sm := tt.get(m).seen
+	r.reliefA, r.reliefQty = x.timers[m].governingSeen(&sm)
 	t.ops[d].offer(r)
 }
 
 // unwanted records a device that trips during a fault's sequence while it
 // is not one that must clear it: its margin over the must-clear device
 // that would trip first.
-func (x *netIndex) unwanted(t *tally, crit Criteria, d int, tripS float64, times map[int]timing, state map[int]*devState, must []int, now float64, ne nodeElem, key faultKey) {
+func (x *netIndex) unwanted(t *tally, crit Criteria, d int, tripS float64, tt *timeTable, st *seqState, must []int, now float64, ne nodeElem, key faultKey) {
 	m, mS := -1, math.Inf(1)
 	for _, c := range must {
-		s := state[c]
-		tm, ok := times[c]
-		if s == nil || !ok || math.IsInf(tm.trip, 1) {
+		tm := tt.get(c)
+		if st.stamp[c] != st.gen || math.IsInf(tm.trip, 1) {
 			continue
 		}
-		at := s.tripAt
+		at := st.tripAt[c]
 		if math.IsNaN(at) {
-			at = now + (1-s.prog)*tm.trip
+			at = now + (1-st.prog[c])*tm.trip
 		}
 		if at < mS {
 			m, mS = c, at
@@ -251,14 +303,18 @@ func (x *netIndex) unwanted(t *tally, crit Criteria, d int, tripS float64, times
 	if m < 0 {
 		return
 	}
+	t.ops[d].count++
 	margin, req := x.marginOf(crit, d, m, tripS, mS)
+	if !t.ops[d].worse(margin-req, key) {
+		return
+	}
 	r := opRecord{slack: margin - req, margin: margin, required: req, key: key, place: ne.place, scale: 1,
 		relief: m, dS: tripS, reliefS: mS, tripped: true}
-	tm := times[d]
-	r.dA, r.dQty = x.timers[d].governingSeen(&tm.seen)
-	r.forward = x.forward(d, &tm.seen)
-	tmm := times[m]
-	r.reliefA, r.reliefQty = x.timers[m].governingSeen(&tmm.seen)
+	sd := tt.get(d).seen
+	r.dA, r.dQty = x.timers[d].governingSeen(&sd)
+	r.forward = x.forward(d, &sd)
+	sm := tt.get(m).seen
+	r.reliefA, r.reliefQty = x.timers[m].governingSeen(&sm)
 	t.ops[d].offer(r)
 }
 
@@ -271,4 +327,9 @@ func sortEvents(evs []event) {
 	}
 }
 
-func phaseOf(s Seen) float64 { return s.PhaseA() }
+// governA returns the current that sets device d's time for what it sees
+// (its phase current, or what its ground stages measure).
+func (x *netIndex) governA(d int, s Seen) float64 {
+	a, _ := x.timers[d].governingSeen(&s)
+	return a
+}

@@ -40,7 +40,8 @@ const kneeOffset = 1e-7
 // sample is one fault as two devices see it: the checked (downstream)
 // device and the other device or the protected equipment.
 type sample struct {
-	dp, dr, up, ur float64 // device's and other's phase and residual currents
+	dp, dr, up, ur float64 // device's and other's phase and ground currents
+	dd, ud         Dirs    // how their directional elements decided
 	kind           faults.Kind
 	cs             faults.Case
 	place          string

@@ -5,7 +5,6 @@ import (
 	"math/cmplx"
 
 	"tripgrade/curves"
-	"tripgrade/faults"
 )
 
 // Band selects a device's nominal time or an edge of its tolerance band.
@@ -126,6 +125,44 @@ const (
 func (t *Timer) relaySeen(s *Seen, b Band, which int) (float64, curves.Status) {
 	phaseA, residualA := s.PhaseA(), s.groundA(t.Dev)
 	if !t.directional {
+		return t.groups(phaseA, residualA, Dirs{}, b, which)
+	}
+	var d Dirs
+	d.Known = true
+	pd, gd := t.Directions(s)
+	for p, dir := range pd {
+		a := cmplx.Abs(s.I[p])
+		switch dir {
+		case Forward:
+			d.Fwd = math.Max(d.Fwd, a)
+		case Reverse:
+			d.Rev = math.Max(d.Rev, a)
+		}
+	}
+	if phaseA > 0 {
+		d.Fwd, d.Rev = d.Fwd/phaseA, d.Rev/phaseA
+	}
+	d.Ground = gd
+	return t.groups(phaseA, residualA, d, b, which)
+}
+
+// Dirs say how a directional relay's elements decided for one fault, in a
+// form that scales with the fault's currents: the largest phase current
+// whose element looks forward (reverse), as a share of the largest phase
+// current, and the ground element's decision. The zero value (Known
+// false) stands for a device whose direction is not asked: every stage
+// sees its whole quantity.
+type Dirs struct {
+	Known    bool
+	Fwd, Rev float64
+	Ground   Direction
+}
+
+// groups times the relay's stage groups: non-directional stages on the
+// whole phase (ground) current, directional stages on what their direction
+// sees.
+func (t *Timer) groups(phaseA, groundA float64, d Dirs, b Band, which int) (float64, curves.Status) {
+	if !t.directional || !d.Known {
 		ph, gr := t.Phase[b], t.Ground[b]
 		if which&phaseStages == 0 {
 			ph = nil
@@ -133,20 +170,13 @@ func (t *Timer) relaySeen(s *Seen, b Band, which int) (float64, curves.Status) {
 		if which&groundStages == 0 {
 			gr = nil
 		}
-		return fastest(ph, phaseA, gr, residualA)
+		return fastest(ph, phaseA, gr, groundA)
 	}
-	var quantity [3]float64 // the phase current each direction's stages see
-	quantity[NonDirectional] = phaseA
-	pd, gd := t.Directions(s)
-	for p, d := range pd {
-		if d != NonDirectional {
-			quantity[d] = math.Max(quantity[d], cmplx.Abs(s.I[p]))
-		}
-	}
+	quantity := [3]float64{NonDirectional: phaseA, Forward: d.Fwd * phaseA, Reverse: d.Rev * phaseA}
 	var ground [3]float64
-	ground[NonDirectional] = residualA
-	if gd != NonDirectional {
-		ground[gd] = residualA
+	ground[NonDirectional] = groundA
+	if d.Ground != NonDirectional {
+		ground[d.Ground] = groundA
 	}
 	best, status := math.Inf(1), curves.Undefined
 	anyNoTrip, any := false, false
@@ -180,8 +210,55 @@ func (t *Timer) relaySeen(s *Seen, b Band, which int) (float64, curves.Status) {
 	return math.NaN(), curves.Undefined
 }
 
-// Measured returns the current each quantity of the device sees.
-func Measured(c faults.Currents) (phaseA, residualA float64) { return c.PhaseMaxA(), c.ResidualA() }
+// OperateDir is Operate for a relay whose elements decided d: directional
+// stages see only what their direction sees.
+func (t *Timer) OperateDir(phaseA, groundA float64, d Dirs, b Band) (float64, curves.Status) {
+	if t.Dev.Kind == Fuse {
+		return t.Dev.Clear.Time(phaseA)
+	}
+	return t.groups(phaseA, groundA, d, b, allStages)
+}
+
+// MeltDir is Melt with the relay's directions.
+func (t *Timer) MeltDir(phaseA, groundA float64, d Dirs, b Band) (float64, curves.Status) {
+	if t.Dev.Kind == Fuse {
+		return t.Dev.Melt.Time(phaseA)
+	}
+	return t.OperateDir(phaseA, groundA, d, b)
+}
+
+// ClearingDir is Clearing with the relay's directions.
+func (t *Timer) ClearingDir(phaseA, groundA float64, d Dirs, b Band) (float64, curves.Status) {
+	x, st := t.OperateDir(phaseA, groundA, d, b)
+	if t.Dev.Kind == Relay && st == curves.Operates {
+		x += t.Dev.BreakerS
+	}
+	return x, st
+}
+
+// effective returns the phase and ground currents a device's stage groups
+// respond to for a fault whose elements decided d: the whole current for
+// a group with a non-directional stage, else the current its directions
+// see (the larger, for stages of both directions).
+func (t *Timer) effective(phaseA, groundA float64, d Dirs) (float64, float64) {
+	if !t.directional || !d.Known {
+		return phaseA, groundA
+	}
+	ph, gr := 0.0, 0.0
+	for _, st := range t.Dev.Stages {
+		switch {
+		case st.Measures == Phase && st.Direction == NonDirectional:
+			ph = math.Max(ph, phaseA)
+		case st.Measures == Phase && st.Direction == Forward:
+			ph = math.Max(ph, d.Fwd*phaseA)
+		case st.Measures == Phase:
+			ph = math.Max(ph, d.Rev*phaseA)
+		case st.Direction == NonDirectional || st.Direction == d.Ground:
+			gr = groundA
+		}
+	}
+	return ph, gr
+}
 
 // Operate returns the relay's operating time (without the breaker) in a
 // band, or for a fuse its total clearing time, at the given currents.
