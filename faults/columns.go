@@ -1,33 +1,30 @@
 package faults
 
+import "tripgrade/faults/sparse"
+
 // Columns remembers columns of the bus impedance matrices, Z(x, u) for a
 // few buses u and the buses x asked about: the entries a sequence of
 // faults near one another keeps asking for (the fault's own node, the ends
-// of the branches opened during a fault). It belongs to one goroutine;
-// attach it to a solution with UseColumns. Each entry is one sparse dot
-// product of the factor's elimination-tree paths when first asked.
+// of the branches opened during a fault). Each column is evaluated lazily
+// by partial backward substitution (sparse.Column): an entry costs only
+// the part of its elimination-tree path no earlier entry of the column
+// has computed. It belongs to one goroutine; attach it to a solution with
+// UseColumns.
 type Columns struct {
-	keys  []colKey
-	vals  [][]complex128
-	stamp [][]uint32
-	gen   []uint32
-	next  int
+	per  int
+	sets map[*seqNet]*columnSet
 }
 
-type colKey struct {
-	net *seqNet
-	u   int
+// columnSet is one sequence network's columns, reused round robin.
+type columnSet struct {
+	bus  []int // the bus each column is of; −1 unused
+	cols []*sparse.Column
+	next int
 }
 
-// NewColumns returns a cache of up to n columns for the engine's network.
+// NewColumns returns a cache of up to n columns per sequence network.
 func (e *Engine) NewColumns(n int) *Columns {
-	nb := len(e.net.Buses)
-	c := &Columns{keys: make([]colKey, n), vals: make([][]complex128, n), stamp: make([][]uint32, n), gen: make([]uint32, n)}
-	for i := range c.vals {
-		c.vals[i] = make([]complex128, nb)
-		c.stamp[i] = make([]uint32, nb)
-	}
-	return c
+	return &Columns{per: max(n, 1), sets: map[*seqNet]*columnSet{}}
 }
 
 // z returns Z(x, u) of sequence network sn.
@@ -35,28 +32,35 @@ func (c *Columns) z(sn *seqNet, x, u int) complex128 {
 	if c == nil {
 		return sn.z(x, u)
 	}
+	rx, ru := sn.row[x], sn.row[u]
+	if rx < 0 || ru < 0 {
+		return 0
+	}
+	set := c.sets[sn]
+	if set == nil {
+		set = &columnSet{bus: make([]int, c.per), cols: make([]*sparse.Column, c.per)}
+		for i := range set.bus {
+			set.bus[i] = -1
+		}
+		c.sets[sn] = set
+	}
 	slot := -1
-	for i, k := range c.keys {
-		if k.net == sn && k.u == u && c.gen[i] != 0 {
+	for i, b := range set.bus {
+		if b == u {
 			slot = i
 			break
 		}
 	}
 	if slot < 0 {
-		slot = c.next
-		c.next = (c.next + 1) % len(c.keys)
-		c.keys[slot] = colKey{sn, u}
-		c.gen[slot]++
-		if c.gen[slot] == 0 {
-			clear(c.stamp[slot])
-			c.gen[slot] = 1
+		slot = set.next
+		set.next = (set.next + 1) % len(set.bus)
+		if set.cols[slot] == nil {
+			set.cols[slot] = sn.fac.NewColumn()
 		}
+		set.cols[slot].Reset(int(ru))
+		set.bus[slot] = u
 	}
-	if c.stamp[slot][x] != c.gen[slot] {
-		c.vals[slot][x] = sn.z(x, u)
-		c.stamp[slot][x] = c.gen[slot]
-	}
-	return c.vals[slot][x]
+	return set.cols[slot].At(int(rx))
 }
 
 // UseColumns returns a solution of the intact network with c attached as
