@@ -99,9 +99,20 @@ type opRecord struct {
 
 // worse reports whether a figure of the given slack at the given fault
 // would replace the record (the details of a record are costly to build).
+// Figures are compared at a nanosecond, then by fault: a total order, so
+// the record kept does not depend on which worker judged which fault.
 func (r *opRecord) worse(slack float64, key faultKey) bool {
-	tol := tieTolerance * math.Max(1, math.Abs(r.slack))
-	return !r.valid || slack < r.slack-tol || (math.Abs(slack-r.slack) <= tol && key.less(r.key))
+	a, b := toNanosecond(slack), toNanosecond(r.slack)
+	return !r.valid || a < b || (a == b && key.less(r.key))
+}
+
+// toNanosecond rounds a time in seconds to the nanosecond, for comparing
+// figures whose last bits depend on the order of the arithmetic.
+func toNanosecond(s float64) float64 {
+	if math.IsInf(s, 0) || math.IsNaN(s) {
+		return s
+	}
+	return math.Round(s*1e9) / 1e9
 }
 
 // offer keeps o when it is worse than the record (the count of faults is
@@ -127,6 +138,7 @@ type clearRecord struct {
 	board    int
 	count    int
 	noDevice bool // fed, but no device of the study acts on any side
+	above    int  // the fuse whose last tabulated clearing time is isoS (its current is above its tables), or −1
 	// undef is the must-clear device whose curve gives no time at the
 	// fault's current (isoS is then NaN) when undefSet; unjudged counts
 	// the element's faults left unjudged so.
@@ -135,26 +147,36 @@ type clearRecord struct {
 	unjudged int
 }
 
+// noteUndef names device d as one whose curve gives no time; of several,
+// the first in study order, so that the finding does not depend on which
+// worker judged which fault.
+func (r *clearRecord) noteUndef(d int) {
+	if !r.undefSet || d < r.undef {
+		r.undef, r.undefSet = d, true
+	}
+}
+
 func (r *clearRecord) offer(o clearRecord) {
 	if math.IsNaN(o.isoS) {
 		// A fault whose must-clear device's curve gives no time: counted,
 		// and named, apart from the judged ones.
 		r.unjudged++
-		if !r.undefSet {
-			r.undef, r.undefSet = o.undef, true
-		}
+		r.noteUndef(o.undef)
 		return
 	}
 	c := r.count + 1
-	worse := o.isoS > r.isoS*(1+tieTolerance) || (math.IsInf(o.isoS, 1) && !math.IsInf(r.isoS, 1))
-	tie := !worse && (o.isoS == r.isoS || math.Abs(o.isoS-r.isoS) <= tieTolerance*r.isoS)
+	a, b := toNanosecond(o.isoS), toNanosecond(r.isoS)
+	worse, tie := a > b, a == b
 	board := -1
 	if r.valid {
 		board = r.board
 	}
 	if !r.valid || worse || (tie && o.key.less(r.key)) {
+		// The unjudged faults are the element's, not the record's.
+		unjudged, undef, undefSet := r.unjudged, r.undef, r.undefSet
 		*r = o
 		r.valid = true
+		r.unjudged, r.undef, r.undefSet = unjudged, undef, undefSet
 	}
 	if board >= 0 && r.board < 0 {
 		r.board = board
@@ -205,8 +227,8 @@ func (t *tally) merge(o *tally) {
 			t.clears[i].count = n
 		}
 		t.clears[i].unjudged += oc.unjudged
-		if oc.undefSet && !t.clears[i].undefSet {
-			t.clears[i].undef, t.clears[i].undefSet = oc.undef, true
+		if oc.undefSet {
+			t.clears[i].noteUndef(oc.undef)
 		}
 	}
 	for i, names := range o.outside {
@@ -346,10 +368,18 @@ func (p *probe) devices() []int {
 // (a relay's operating time, a fuse's clearing time), the time that counts
 // when it is the upstream device of a margin (a relay's operating time, a
 // fuse's melting time), and what it sees.
+//
+// A fuse's tables end somewhere. Below the first current of its clearing
+// table it is taken not to operate (its tables start at its minimum
+// melting current); above the last, it clears within the last clearing
+// time (above: trip is that upper bound) and melts at some time below the
+// last melting time that the table does not tell (up is then 0, so that
+// nothing is graded against it as if it were slow).
 type timing struct {
 	trip, up float64
 	seen     Seen
-	undef    bool
+	undef    bool // the curve gives no time (a current that is not a number)
+	above    bool // a fuse above its tables: trip is an upper bound, the melting time unknown
 }
 
 func (x *netIndex) timeOf(d int, s Seen, band Band) timing {
@@ -358,7 +388,17 @@ func (x *netIndex) timeOf(d int, s Seen, band Band) timing {
 	if tr, st := tm.OperateSeen(&s, band); st == curves.Operates {
 		t.trip = tr
 	} else if st == curves.Undefined {
-		t.undef = true
+		if tm.Dev.Kind == Fuse && !math.IsNaN(s.PhaseA()) {
+			if lo, hi := tm.Dev.Clear.Span(); s.PhaseA() > hi {
+				pts := tm.Dev.Clear.Points()
+				t.trip, t.up, t.above = pts[len(pts)-1].TimeS, 0, true
+			} else if s.PhaseA() < lo {
+				return t
+			}
+		}
+		if !t.above {
+			t.undef = true
+		}
 	}
 	if tm.Dev.Kind == Relay {
 		t.up = t.trip

@@ -135,6 +135,9 @@ func (x *netIndex) clearedNote(r clearRecord) string {
 	if len(r.sequence) > 0 {
 		return "isolated by " + x.sequenceText(r.sequence)
 	}
+	if r.above >= 0 && r.valid {
+		return fmt.Sprintf("at most: %s's current is above its clearing table's last point, whose time is taken", x.s.Devices[r.above].Name)
+	}
 	return "" // the column names who clears it
 }
 
@@ -189,6 +192,11 @@ func (x *netIndex) discriminationFindings(t *tally) []Finding {
 		}
 		if r.tripped {
 			f.Note += "; it trips before the fault is isolated"
+		}
+		if dev := x.s.Devices[d]; dev.Kind == Fuse {
+			if _, hi := dev.Melt.Span(); r.dA > hi {
+				f.Note += fmt.Sprintf("; its current is above its melting table's last point (%s A), where the table gives no time: taken to melt at once", fmtA(hi))
+			}
 		}
 		f.Note += fmt.Sprintf("; %d faults where it operates for another device's fault", r.count)
 		out = append(out, f)

@@ -73,9 +73,9 @@ func (tt *timeTable) compute(d int) timing {
 		c := tt.v.at(x.s.Devices[d].Point).Currents(tt.v.kinds[tt.k])
 		var ph float64
 		for _, i := range c.Seq {
-			ph += cmplx.Abs(i)
+			ph += abs(i)
 		}
-		if ph < lim.phaseA && 3*cmplx.Abs(c.Seq[0]) < lim.groundA {
+		if ph < lim.phaseA && 3*abs(c.Seq[0]) < lim.groundA {
 			return timing{trip: noTime, up: noTime}
 		}
 	}
@@ -124,7 +124,7 @@ func (x *netIndex) judge(ws *workspace, t *tally, crit Criteria, v *view, devs [
 	if len(cl.must) == 0 && len(cl.failed) == 0 {
 		return nil // fed only along paths without any device of the study
 	}
-	rec := clearRecord{key: key, place: ne.place, must: cl.must, failed: cl.failed, board: cl.board, isoS: math.Inf(1)}
+	rec := clearRecord{key: key, place: ne.place, must: cl.must, failed: cl.failed, board: cl.board, isoS: math.Inf(1), above: -1}
 	if cl.sides <= 1 && len(cl.failed) == 0 && len(cl.direct) == 0 && len(cl.own) == 0 && onePoint(x, cl.must) {
 		// One side: the fastest device there isolates the fault.
 		m := cl.must[0]
@@ -134,6 +134,9 @@ func (x *netIndex) judge(ws *workspace, t *tally, crit Criteria, v *view, devs [
 			}
 		}
 		rec.isoS = tt.get(m).trip + x.breaker(m)
+		if tt.get(m).above {
+			rec.above = m
+		}
 		if tt.get(m).undef {
 			rec.isoS, rec.undef, rec.undefSet = math.NaN(), m, true
 		}
