@@ -109,14 +109,20 @@ func NewSeen(c faults.Currents, v, pre faults.Voltages) Seen {
 
 // PhaseA returns the largest phase current.
 func (s *Seen) PhaseA() float64 {
-	return math.Max(cmplx.Abs(s.I[0]), math.Max(cmplx.Abs(s.I[1]), cmplx.Abs(s.I[2])))
+	return math.Sqrt(math.Max(abs2(s.I[0]), math.Max(abs2(s.I[1]), abs2(s.I[2]))))
 }
 
 // Residual returns 3I0 = Ia+Ib+Ic.
 func (s *Seen) Residual() complex128 { return s.I[0] + s.I[1] + s.I[2] }
 
 // ResidualA returns |3I0|.
-func (s *Seen) ResidualA() float64 { return cmplx.Abs(s.Residual()) }
+func (s *Seen) ResidualA() float64 { return abs(s.Residual()) }
+
+// abs2 is |z|², and abs |z|, without math.Hypot's guard against overflow,
+// which currents in amperes and voltages in volts never come near.
+func abs2(z complex128) float64 { return real(z)*real(z) + imag(z)*imag(z) }
+
+func abs(z complex128) float64 { return math.Sqrt(abs2(z)) }
 
 // groundA returns the current a device's ground stages measure: the
 // neutral current for a relay with a neutral CT, else |3I0|.

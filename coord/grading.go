@@ -183,9 +183,7 @@ func (c *checker) grading(p Pair) (Finding, error) {
 		consider(s)
 	}
 	du, dd := &c.s.Devices[p.Upstream], &c.s.Devices[p.Downstream]
-	for _, s := range sweep(pts, [4][]float64{knees(dd, Phase), knees(dd, Residual), knees(du, Phase), knees(du, Residual)}, false) {
-		consider(s)
-	}
+	sweepEach(pts, [4][]float64{knees(dd, Phase), knees(dd, Residual), knees(du, Phase), knees(du, Residual)}, false, consider)
 	var uncovered []string
 	if undefD.points > 0 {
 		uncovered = append(uncovered, undefD.text(dd.Name, curveName(g.d, false)))

@@ -359,9 +359,9 @@ func (p *probe) at(pt faults.Point) faults.Response {
 func (p *probe) bounds(r faults.Response) (phase, residual float64) {
 	k := r.Coefficients()
 	for q := range k {
-		phase += cmplx.Abs(k[q]) * p.seqMax[q]
+		phase += abs(k[q]) * p.seqMax[q]
 	}
-	return phase, 3 * cmplx.Abs(k[0]) * p.seqMax[0]
+	return phase, 3 * abs(k[0]) * p.seqMax[0]
 }
 
 // removed reports whether a source or generator is out of the probe's

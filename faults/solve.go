@@ -310,7 +310,7 @@ func (s Solution) response(pt Point, want [3]complex128, voltages bool) Response
 	for q := range r.k {
 		if want[q] != 0 && !s.open[q] {
 			r.k[q] = s.branchCurrent(q, pt, from, to)
-			if cmplx.Abs(r.k[q]) < negligibleShare {
+			if k := r.k[q]; real(k)*real(k)+imag(k)*imag(k) < negligibleShare*negligibleShare {
 				r.k[q] = 0
 			}
 		}
