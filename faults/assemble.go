@@ -31,6 +31,13 @@ type seqData struct {
 	shunt  []complex128
 	branch []block
 	series []complex128 // series impedance of each line (0 for transformers)
+	shunts []elementY   // each element's part of shunt, to explain a singular matrix
+}
+
+// addShunt adds an element's shunt admittance y at bus.
+func (d *seqData) addShunt(bus int, ref ElementRef, y complex128) {
+	d.shunt[bus] += y
+	d.shunts = append(d.shunts, elementY{bus: bus, ref: ref, y: cmplx.Abs(y)})
 }
 
 func newSeqData(nb, nbr int) *seqData {
@@ -68,8 +75,9 @@ func assemble(n *Network, set Settings, cs Case) (caseData, error) {
 			z1 = zFromPower(set.VoltageFactor(kv, cs), kv, st.SCMVA, st.XR)
 		}
 		z1pu := z1 / complex(zb(s.Bus), 0)
-		d[pos].shunt[s.Bus] += 1 / z1pu
-		d[neg].shunt[s.Bus] += 1 / z1pu
+		ref := ElementRef{"source", s.Name}
+		d[pos].addShunt(s.Bus, ref, 1/z1pu)
+		d[neg].addShunt(s.Bus, ref, 1/z1pu)
 		if s.Earthed {
 			z0 := st.Z0Ohm
 			if z0 == 0 {
@@ -82,7 +90,7 @@ func assemble(n *Network, set Settings, cs Case) (caseData, error) {
 			if z0 == 0 {
 				return d, fmt.Errorf("source %q: earthed but has no zero-sequence impedance", s.Name)
 			}
-			d[zero].shunt[s.Bus] += complex(zb(s.Bus), 0) / z0
+			d[zero].addShunt(s.Bus, ref, complex(zb(s.Bus), 0)/z0)
 		}
 	}
 
@@ -105,14 +113,15 @@ func assemble(n *Network, set Settings, cs Case) (caseData, error) {
 			x2 = g.XdPct
 		}
 		scale := complex(k*zr/100/zb(g.Bus), 0)
-		d[pos].shunt[g.Bus] += 1 / (complex(r, g.XdPct) * scale)
-		d[neg].shunt[g.Bus] += 1 / (complex(r, x2) * scale)
+		ref := ElementRef{"generator", g.Name}
+		d[pos].addShunt(g.Bus, ref, 1/(complex(r, g.XdPct)*scale))
+		d[neg].addShunt(g.Bus, ref, 1/(complex(r, x2)*scale))
 		if !g.Earth.Isolated {
 			z0 := complex(r, g.X0Pct)*scale + 3*g.Earth.ZOhm/complex(zb(g.Bus), 0)
 			if z0 == 0 {
 				return d, fmt.Errorf("generator %q: earthed star point with zero zero-sequence impedance", g.Name)
 			}
-			d[zero].shunt[g.Bus] += 1 / z0
+			d[zero].addShunt(g.Bus, ref, 1/z0)
 		}
 	}
 
@@ -153,7 +162,7 @@ func assemble(n *Network, set Settings, cs Case) (caseData, error) {
 		if z == 0 {
 			return d, fmt.Errorf("earthing %q: zero-sequence impedance Z0 + 3Zn must not be zero", e.Name)
 		}
-		d[zero].shunt[e.Bus] += complex(zb(e.Bus), 0) / z
+		d[zero].addShunt(e.Bus, ElementRef{"earthing", e.Name}, complex(zb(e.Bus), 0)/z)
 	}
 	return d, nil
 }
