@@ -44,6 +44,13 @@ func loadStudy(path string, stderr io.Writer) (l loaded, ok bool) {
 func prepare(path string, s *coord.Study, stderr io.Writer) (loaded, bool) {
 	eng, topo, err := coord.Prepare(s)
 	if err != nil {
+		var list study.ErrorList
+		if errors.As(study.Locate(path, err), &list) {
+			for _, e := range list {
+				fmt.Fprintln(stderr, e)
+			}
+			return loaded{}, false
+		}
 		fmt.Fprintf(stderr, "%s: %v\n", path, err)
 		return loaded{}, false
 	}

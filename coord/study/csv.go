@@ -8,7 +8,6 @@ import (
 	"io"
 	"io/fs"
 	"path/filepath"
-	"strconv"
 	"strings"
 )
 
@@ -16,13 +15,14 @@ import (
 // stage, for relays whose settings live in a spreadsheet. The first row
 // names the columns; "relay" is required, the rest are the stage keys of
 // the study file (measures, curve, pickup_a, tms, …) and the setting-range
-// columns below. Empty cells are "not given".
+// columns below. Empty cells are "not given". The table is held to the
+// same rules as the study file: every column once, finite numbers only.
 
 // csvColumns maps a column name to the raw stage field it fills.
-var csvColumns = map[string]func(r *rawStage, text string) error{
-	"label":              func(r *rawStage, t string) error { r.Label = t; return nil },
-	"measures":           func(r *rawStage, t string) error { r.Measures = t; return nil },
-	"curve":              func(r *rawStage, t string) error { r.Curve = t; return nil },
+var csvColumns = map[string]func(r *rawStage, text string, c *cellReader) error{
+	"label":              func(r *rawStage, t string, _ *cellReader) error { r.Label = t; return nil },
+	"measures":           func(r *rawStage, t string, _ *cellReader) error { r.Measures = t; return nil },
+	"curve":              func(r *rawStage, t string, _ *cellReader) error { r.Curve = t; return nil },
 	"pickup_a":           numberInto(func(r *rawStage) **float64 { return &r.PickupA }),
 	"pickup_secondary_a": numberInto(func(r *rawStage) **float64 { return &r.PickupSecondaryA }),
 	"tms":                numberInto(func(r *rawStage) **float64 { return &r.TMS }),
@@ -41,11 +41,35 @@ var csvColumns = map[string]func(r *rawStage, text string) error{
 	"multiplier_range":   rangeInto(func(r *rawStage) *[]float64 { return &r.MultiplierRange }),
 }
 
-func numberInto(field func(*rawStage) **float64) func(*rawStage, string) error {
-	return func(r *rawStage, t string) error {
-		v, err := strconv.ParseFloat(t, 64)
+// cellReader reads the numbers of one table and remembers which decimal
+// marks it met, to say which was assumed where they disagree.
+type cellReader struct {
+	format     csvFormat
+	line       int
+	commaCells int      // numbers written with a decimal comma
+	grouped    []string // "line N: column "x" = 1.200", numbers that may hold a thousands group
+	column     string
+}
+
+func (c *cellReader) number(text string) (float64, error) {
+	v, mark, err := cellNumber(text, c.format)
+	if err != nil {
+		return 0, err
+	}
+	switch {
+	case mark == ',':
+		c.commaCells++
+	case mark == '.' && c.format.decimalComma && looksGrouped(text):
+		c.grouped = append(c.grouped, fmt.Sprintf("line %d: %s %q was read as %s", c.line, c.column, text, gText(v)))
+	}
+	return v, nil
+}
+
+func numberInto(field func(*rawStage) **float64) func(*rawStage, string, *cellReader) error {
+	return func(r *rawStage, t string, c *cellReader) error {
+		v, err := c.number(t)
 		if err != nil {
-			return fmt.Errorf("not a number: %q", t)
+			return err
 		}
 		*field(r) = &v
 		return nil
@@ -53,14 +77,17 @@ func numberInto(field func(*rawStage) **float64) func(*rawStage, string) error {
 }
 
 // rangeInto reads "min:max" or "min:max:step".
-func rangeInto(field func(*rawStage) *[]float64) func(*rawStage, string) error {
-	return func(r *rawStage, t string) error {
+func rangeInto(field func(*rawStage) *[]float64) func(*rawStage, string, *cellReader) error {
+	return func(r *rawStage, t string, c *cellReader) error {
 		parts := strings.Split(t, ":")
+		if len(parts) < 2 || len(parts) > 3 {
+			return fmt.Errorf("want min:max or min:max:step, got %q", clipText(t, maxEchoName))
+		}
 		vals := make([]float64, len(parts))
 		for i, p := range parts {
-			v, err := strconv.ParseFloat(strings.TrimSpace(p), 64)
+			v, err := c.number(strings.TrimSpace(p))
 			if err != nil {
-				return fmt.Errorf("want min:max or min:max:step, got %q", t)
+				return fmt.Errorf("want min:max or min:max:step of finite numbers, got %q (%v)", clipText(t, maxEchoName), err)
 			}
 			vals[i] = v
 		}
@@ -70,49 +97,174 @@ func rangeInto(field func(*rawStage) *[]float64) func(*rawStage, string) error {
 }
 
 // readSettingsCSV adds the stages of the settings table to the relays.
+// Whatever stops the table from being read is reported first and alone:
+// a relay left without stages by it is not reported again.
 func (b *builder) readSettingsCSV(dir fs.FS, name string, studyLine int) {
-	shown := filepath.Join(filepath.Dir(b.file), name) // the path as the user finds it
-	if dir == nil {
-		b.errorf(studyLine, "", "settings_csv = %q: this study was not read from a folder, so it cannot refer to other files", name)
+	shown := name // the path as the user finds it
+	if !filepath.IsAbs(name) {
+		shown = filepath.Join(filepath.Dir(b.file), name)
+	}
+	data, ok := b.settingsFile(dir, name, shown, studyLine)
+	if !ok {
+		b.csvUnread = true
 		return
+	}
+	tableErr := func(line int, format string, args ...any) {
+		b.failures++
+		b.errs = append(b.errs, &Error{File: shown, Line: line, Msg: message(format, args...)})
+	}
+	if why := notText(data); why != "" {
+		tableErr(1, "%s", why)
+		b.csvUnread = true
+		return
+	}
+	data = bytes.TrimPrefix(data, []byte("\uFEFF"))
+	header, headerAt := headerLine(data)
+	if header == "" {
+		tableErr(1, "the settings table is empty: it needs a header row naming its columns (relay, measures, curve, pickup_a, …) and a row per stage")
+		b.csvUnread = true
+		return
+	}
+	format, note := sniff(header)
+	if note != "" {
+		b.st.Notes = append(b.st.Notes, fmt.Sprintf("%s:%d: %s", shown, headerAt, note))
+	}
+	r := csv.NewReader(bytes.NewReader(data))
+	r.Comma = format.sep
+	r.TrimLeadingSpace = true
+	r.Comment = '#'
+	r.ReuseRecord = false
+	cols, ok := b.csvHeader(r, shown, tableErr)
+	if !ok {
+		b.csvUnread = true
+		return
+	}
+	cells := &cellReader{format: format}
+	rows := b.csvRows(r, shown, cols, cells, tableErr)
+	if rows == 0 && !b.csvUnread {
+		tableErr(headerAt, "the settings table has a header row but no rows of settings")
+		b.csvUnread = true
+	}
+	if len(cells.grouped) > 0 && cells.commaCells > 0 {
+		more := ""
+		if n := len(cells.grouped) - 1; n > 0 {
+			more = fmt.Sprintf(" (and %d more such cells)", n)
+		}
+		b.st.Notes = append(b.st.Notes, fmt.Sprintf("%s: %s, a decimal point, though the table writes decimal commas elsewhere; if a thousands separator was meant, write the digits only%s",
+			shown, cells.grouped[0], more))
+	}
+}
+
+// settingsFile reads the table, refusing what is not a regular file of a
+// sensible size.
+func (b *builder) settingsFile(dir fs.FS, name, shown string, studyLine int) ([]byte, bool) {
+	studyErr := func(format string, args ...any) {
+		b.errorf(studyLine, "[study]", "settings_csv = %q: %s", name, fmt.Sprintf(format, args...))
+	}
+	if dir == nil {
+		studyErr("this study was not read from a folder, so it cannot refer to other files")
+		return nil, false
+	}
+	info, err := fs.Stat(dir, name)
+	switch {
+	case errors.Is(err, fs.ErrNotExist):
+		studyErr("no such file (looked for %s)", shown)
+		return nil, false
+	case errors.Is(err, fs.ErrInvalid):
+		studyErr("this study is built in, so its table must sit beside it")
+		return nil, false
+	case err != nil:
+		studyErr("%v", unwrapPath(err))
+		return nil, false
+	case info.IsDir():
+		studyErr("%s is a folder, not a file", shown)
+		return nil, false
+	case !info.Mode().IsRegular():
+		studyErr("%s is not a regular file", shown)
+		return nil, false
+	case info.Size() > MaxTableBytes:
+		studyErr("the table is %s, more than the %s tripgrade reads", mib(info.Size()), mib(MaxTableBytes))
+		return nil, false
 	}
 	data, err := fs.ReadFile(dir, name)
 	if err != nil {
-		b.errorf(studyLine, "", "settings_csv = %q: %v", name, unwrapPath(err))
-		return
+		studyErr("%v", unwrapPath(err))
+		return nil, false
 	}
-	r := csv.NewReader(bytes.NewReader(data))
-	r.TrimLeadingSpace = true
-	r.Comment = '#'
+	return data, true
+}
+
+// csvColumn is one column of the header: its setting, or none.
+type csvColumn struct {
+	name string
+	set  func(*rawStage, string, *cellReader) error // nil: the relay column or an ignored one
+}
+
+// csvHeader reads and checks the header row. ok is false when the rows
+// cannot be read with it (no relay column, a column given twice).
+func (b *builder) csvHeader(r *csv.Reader, shown string, tableErr func(int, string, ...any)) (cols []csvColumn, ok bool) {
 	header, err := r.Read()
+	line, _ := r.FieldPos(0)
 	if err != nil {
-		b.errs = append(b.errs, &Error{File: shown, Line: 1, Msg: "cannot read the header row: " + err.Error()})
-		return
+		tableErr(max(line, 1), "cannot read the header row: %v", csvCause(err))
+		return nil, false
 	}
-	relayCol := -1
+	ok = true
+	seen := map[string]int{}
+	relay := false
+	b.csvBlamed = map[string]bool{}
 	for i, h := range header {
 		h = strings.TrimSpace(h)
-		header[i] = h
-		if h == "relay" {
-			relayCol = i
-			continue
+		c := csvColumn{name: h}
+		switch {
+		case h == "":
+		case h == "relay":
+			relay = true
+		default:
+			set, known := csvColumns[h]
+			if !known {
+				hint := suggestColumn(h)
+				if near := Closest(h, columnNames()); near != "" {
+					b.csvBlamed[near] = true
+				}
+				tableErr(line, "unknown column %q%s", h, hint)
+			}
+			c.set = set
 		}
-		if _, ok := csvColumns[h]; !ok {
-			b.errs = append(b.errs, &Error{File: shown, Line: 1, Msg: fmt.Sprintf("unknown column %q%s", h, suggestColumn(h))})
+		if first, dup := seen[h]; dup && h != "" {
+			tableErr(line, "column %q is given twice (columns %d and %d); give each setting once", h, first+1, i+1)
+			ok = false
 		}
+		seen[h] = i
+		cols = append(cols, c)
 	}
-	if relayCol < 0 {
-		b.errs = append(b.errs, &Error{File: shown, Line: 1, Msg: `the header row needs a "relay" column`})
-		return
+	if !relay {
+		tableErr(line, `the header row needs a "relay" column naming the relay of each row`)
+		ok = false
 	}
+	return cols, ok
+}
+
+// csvCause drops encoding/csv's own position, which the message gives.
+func csvCause(err error) error {
+	var pe *csv.ParseError
+	if errors.As(err, &pe) {
+		return pe.Err
+	}
+	return err
+}
+
+// csvRows reads every row and returns how many held settings.
+func (b *builder) csvRows(r *csv.Reader, shown string, cols []csvColumn, cells *cellReader, tableErr func(int, string, ...any)) int {
 	relays := map[string]int{}
 	for i, o := range b.relayRaw {
 		relays[b.st.Devices[o.device].Name] = i
 	}
+	rows := 0
 	for {
 		rec, err := r.Read()
 		if errors.Is(err, io.EOF) {
-			break
+			return rows
 		}
 		line, _ := r.FieldPos(0)
 		if err != nil {
@@ -120,46 +272,78 @@ func (b *builder) readSettingsCSV(dir fs.FS, name string, studyLine int) {
 			if errors.As(err, &pe) {
 				line = pe.Line
 			}
-			b.errs = append(b.errs, &Error{File: shown, Line: line, Msg: err.Error()})
+			tableErr(line, "%v", csvCause(err))
 			if pe == nil || !errors.Is(pe.Err, csv.ErrFieldCount) {
-				return
+				b.csvUnread = true
+				return rows
 			}
 			continue
 		}
-		b.csvRow(shown, line, header, rec, relayCol, relays)
+		if blankRow(rec) {
+			continue
+		}
+		rows++
+		cells.line = line
+		b.csvRow(shown, line, cols, rec, relays, cells)
 	}
 }
 
+func blankRow(rec []string) bool {
+	for _, f := range rec {
+		if strings.TrimSpace(f) != "" {
+			return false
+		}
+	}
+	return true
+}
+
 // csvRow converts one row into a stage of its relay.
-func (b *builder) csvRow(file string, line int, header, rec []string, relayCol int, relays map[string]int) {
-	relay := strings.TrimSpace(rec[relayCol])
+func (b *builder) csvRow(file string, line int, cols []csvColumn, rec []string, relays map[string]int, cells *cellReader) {
+	relay := ""
+	for i, c := range cols {
+		if c.name == "relay" {
+			relay = strings.TrimSpace(rec[i])
+		}
+	}
 	w := where{file: file, line: line, element: fmt.Sprintf("relay %q", relay)}
-	k, ok := relays[relay]
 	if relay == "" {
 		w.element = ""
 		b.fail(w, "", "the relay cell is empty")
 		return
 	}
+	k, ok := relays[relay]
 	if !ok {
-		b.fail(w, "", "no relay of that name in the study%s", b.closest(relay, b.deviceSeen))
-		return
-	}
-	var rs rawStage
-	before := len(b.errs)
-	for i, h := range header {
-		set, known := csvColumns[h]
-		text := strings.TrimSpace(rec[i])
-		if i == relayCol || !known || text == "" {
-			continue
+		switch {
+		case b.blamed["relay"]:
+			b.failures++ // the relays could not be read at all
+		case hiddenRune(relay) != "":
+			b.fail(w, "", "the relay cell contains %s; no relay has that name", hiddenRune(relay))
+		default:
+			b.fail(w, "", "no relay of that name in the study%s", b.closest(relay, b.deviceSeen))
 		}
-		if err := set(&rs, text); err != nil {
-			b.fail(w, h, "column %s: %v", h, err)
-		}
-	}
-	if len(b.errs) > before {
 		return
 	}
 	o := &b.relayRaw[k]
+	o.csvRows++
+	var rs rawStage
+	before := b.failures
+	for i, c := range cols {
+		text := strings.TrimSpace(rec[i])
+		if c.name == "" && text != "" {
+			b.fail(w, "", "a value (%q) in column %d, which has no name in the header", text, i+1)
+			continue
+		}
+		if c.set == nil || text == "" {
+			continue
+		}
+		cells.column = c.name
+		if err := c.set(&rs, text, cells); err != nil {
+			b.fail(w, c.name, "column %s: %v", c.name, err)
+		}
+	}
+	if b.failures > before {
+		return
+	}
 	if o.tomlStages > 0 {
 		b.fail(w, "", "its stages are already given in the study file; give them in one place only")
 		return
@@ -170,6 +354,26 @@ func (b *builder) csvRow(file string, line int, header, rec []string, relayCol i
 	if st, ok := b.stage(w, rs, d.CT); ok {
 		d.Stages = append(d.Stages, st)
 	}
+}
+
+// hiddenRune describes the first character of s that a reader cannot
+// see, or returns "".
+func hiddenRune(s string) string {
+	for _, r := range s {
+		if what := deceptive(r); what != "" {
+			return fmt.Sprintf("%U, %s", r, what)
+		}
+	}
+	return ""
+}
+
+func columnNames() []string {
+	names := []string{"relay"}
+	for k := range csvColumns {
+		names = append(names, k)
+	}
+	sortStrings(names)
+	return names
 }
 
 func suggestColumn(h string) string {

@@ -77,6 +77,7 @@ type relayOrigin struct {
 	where      where
 	tomlStages int
 	csvStages  int
+	csvRows    int // rows of the settings table naming the relay, read or not
 }
 
 func (b *builder) ct(w where, r rawRelay) coord.CT {
@@ -113,8 +114,11 @@ func parseCClass(s string) (float64, error) {
 
 // stage converts one stage's settings.
 func (b *builder) stage(w where, r rawStage, ct coord.CT) (coord.Stage, bool) {
-	before := len(b.errs)
+	before := b.failures
 	st := coord.Stage{Label: r.Label}
+	if r.Label != "" {
+		b.readable(w, "label", r.Label)
+	}
 	switch r.Measures {
 	case "phase":
 		st.Measures = coord.Phase
@@ -151,21 +155,21 @@ func (b *builder) stage(w where, r rawStage, ct coord.CT) (coord.Stage, bool) {
 		st.PickupRange = b.rangeOf(w, "pickup_range_secondary_a", r.PickupRangeSecA, ratio)
 	}
 	st.MultiplierRange = b.rangeOf(w, "multiplier_range", r.MultiplierRange, 1)
-	if len(b.errs) > before || shape == 0 {
+	if b.failures > before || shape == 0 {
 		return st, false
 	}
 	st.Curve, st.Multiplier, st.DelayS = b.characteristic(w, r, shape, st.PickupA)
 	if st.Label == "" {
 		st.Label = defaultLabel(st)
 	}
-	return st, len(b.errs) == before
+	return st, b.failures == before
 }
 
 // characteristic checks which keys the shape takes, then builds the
 // stage's curve from them.
 func (b *builder) characteristic(w where, r rawStage, shape curves.Shape, pickupA float64) (curves.Characteristic, float64, float64) {
 	set := curves.StageSettings{Shape: shape, PickupA: pickupA}
-	before := len(b.errs)
+	before := b.failures
 	if !shape.Dependent() {
 		b.notFor(w, shape, map[string]bool{"tms": r.TMS != nil, "td": r.TD != nil, "max_multiple": r.MaxMultiple != nil, "min_time_s": r.MinTimeS != nil})
 		b.noConstants(w, r, shape)
@@ -195,7 +199,7 @@ func (b *builder) characteristic(w where, r rawStage, shape curves.Shape, pickup
 		set.MaxMultiple = b.optional(w, "max_multiple", r.MaxMultiple, 0, 1, 1000, true)
 		set.MinTimeS = b.optional(w, "min_time_s", r.MinTimeS, 0, 0, 100, false)
 	}
-	if len(b.errs) > before {
+	if b.failures > before {
 		return nil, 0, 0
 	}
 	c, err := curves.NewStage(set)

@@ -66,6 +66,9 @@ func (b *builder) buildLoads() {
 // inconsistent phase shifts.
 func (b *builder) checkTopology() {
 	for _, isl := range b.net.Islands() {
+		if b.anyBadName(isl) {
+			continue // reported as the name's problem
+		}
 		first := isl[0]
 		line := 0
 		for i, r := range b.raw.Buses {
@@ -95,6 +98,18 @@ func (b *builder) checkTopology() {
 				"closes a loop whose transformer phase shifts disagree by %.0f° at bus %q; transformers in parallel must have the same clock number", se.Mismatch, se.Bus)
 		}
 	}
+}
+
+// anyBadName reports whether a bus of the list has a name already
+// reported unreadable: its island most likely comes from references that
+// were meant for it.
+func (b *builder) anyBadName(buses []string) bool {
+	for _, n := range buses {
+		if b.badNames[n] {
+			return true
+		}
+	}
+	return false
 }
 
 func (b *builder) branchPath(name string) string {

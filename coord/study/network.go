@@ -3,8 +3,6 @@ package study
 import (
 	"fmt"
 	"math"
-	"strings"
-	"unicode"
 
 	"tripgrade/coord"
 	"tripgrade/curves"
@@ -24,8 +22,11 @@ type builder struct {
 	branchSeen map[string]int // branch names → line, for duplicates
 	deviceSeen map[string]int // relay and fuse names → line
 	relayRaw   []relayOrigin
-	badRef     bool         // some element refers to a bus that does not exist
-	branchBad  map[int]bool // branches whose ends are already reported wrong
+	badRef     bool            // some element refers to a bus that does not exist
+	branchBad  map[int]bool    // branches whose ends are already reported wrong
+	badNames   map[string]bool // bus names reported unreadable
+	csvUnread  bool            // the settings table could not be read at all
+	csvBlamed  map[string]bool // settings a misspelt column of the table was meant to give
 }
 
 // where locates an element for messages: the indexed table path in the
@@ -37,34 +38,34 @@ type where struct {
 	line          int
 }
 
+// fail reports a problem of the element at w, on the line of key. A key
+// whose value was already refused (or that an unknown key was probably
+// meant to be) gets no second message: whatever else is wrong with it
+// follows from the first.
 func (b *builder) fail(w where, key, format string, args ...any) {
 	if w.file != "" {
-		b.errs = append(b.errs, &Error{File: w.file, Line: w.line, Element: w.element, Msg: fmt.Sprintf(format, args...)})
+		b.failures++
+		if key != "" && b.csvBlamed[key] {
+			return
+		}
+		b.errs = append(b.errs, &Error{File: w.file, Line: w.line, Element: clipText(w.element, maxEchoElement), Msg: message(format, args...)})
+		return
+	}
+	if key != "" && b.blamed[join(w.path, key)] {
+		b.failures++
 		return
 	}
 	b.errorf(b.lines.key(w.path, key), w.element, format, args...)
 }
 
-// named checks an element's name: present, and unique in its namespace.
-func (b *builder) named(w where, name string, seen map[string]int, kind string) bool {
-	if strings.TrimSpace(name) == "" {
-		b.fail(w, "name", "name is missing")
-		return false
-	}
-	if strings.IndexFunc(name, unicode.IsControl) >= 0 {
-		b.fail(w, "name", "name %q contains a control character (a tab or line break?)", name)
-		return false
-	}
-	if first, dup := seen[name]; dup {
-		at := ""
-		if first > 0 {
-			at = fmt.Sprintf(" (line %d)", first)
+// blamedAny reports whether any of the keys of w had its value refused.
+func (b *builder) blamedAny(w where, keys ...string) bool {
+	for _, k := range keys {
+		if b.blamed[join(w.path, k)] {
+			return true
 		}
-		b.fail(w, "name", "duplicate name: another %s is called %q%s", kind, name, at)
-		return false
 	}
-	seen[name] = b.lines.table(w.path)
-	return true
+	return false
 }
 
 // busRef resolves a bus name given under key.
@@ -76,7 +77,9 @@ func (b *builder) busRef(w where, key, name string) (int, bool) {
 	}
 	k, ok := b.bus[name]
 	if !ok {
-		b.fail(w, key, "%s = %q: no bus of that name%s", key, name, b.closest(name, b.bus))
+		if !b.blamed["bus"] { // else the buses could not be read at all
+			b.fail(w, key, "%s = %q: no bus of that name%s", key, name, b.closest(name, b.bus))
+		}
 		b.badRef = true
 	}
 	return k, ok
@@ -100,16 +103,23 @@ func (b *builder) positive(w where, key string, p *float64) float64 {
 		b.fail(w, key, "%s must be > 0 (got %g)", key, *p)
 		return math.NaN()
 	}
+	if !b.withinLimit(w, key, *p) {
+		return math.NaN()
+	}
 	return *p
 }
 
 // optional returns *p or def, requiring lo <= *p <= hi when given
-// (strictly above lo when open is true).
+// (strictly above lo when open is true). An infinite hi stands for the
+// key's physical limit (limits.go).
 func (b *builder) optional(w where, key string, p *float64, def, lo, hi float64, open bool) float64 {
 	if p == nil {
 		return def
 	}
 	v := *p
+	if math.IsInf(hi, 1) && !(v < lo || (open && v == lo)) && !b.withinLimit(w, key, v) {
+		return def
+	}
 	if v < lo || v > hi || (open && v == lo) {
 		op := "≥"
 		if open {
@@ -146,7 +156,7 @@ func (b *builder) buildBuses() {
 		}
 		b.net.Buses = append(b.net.Buses, faults.Bus{Name: r.Name, KV: kv})
 	}
-	if len(b.raw.Buses) == 0 {
+	if len(b.raw.Buses) == 0 && !b.blamed["bus"] {
 		b.errorf(0, "", "the study has no [[bus]]")
 	}
 }
@@ -169,7 +179,7 @@ func (b *builder) buildSources() {
 		s.Earthed = boolOr(r.Earthed, true)
 		switch {
 		case s.Earthed && !z0Given:
-			b.fail(w, "name", "an earthed source needs its zero-sequence impedance: z0_z1, or r0_ohm_max/x0_ohm_max (say earthed = false if it has no zero-sequence path)")
+			b.fail(w, "z0_z1", "an earthed source needs its zero-sequence impedance: z0_z1, or r0_ohm_max/x0_ohm_max (say earthed = false if it has no zero-sequence path)")
 		case s.Earthed:
 			s.Z0Z1 = b.optional(w, "z0_z1", r.Z0Z1, 0, 0, math.Inf(1), true)
 			s.X0R0 = b.optional(w, "x0_r0", r.X0R0, 0, 0, math.Inf(1), true)
@@ -202,8 +212,8 @@ func (b *builder) strength(w where, cs string, mva, r, x *float64, xr float64) f
 		return faults.Strength{SCMVA: b.positive(w, mvaKey, mva), XR: xr}
 	case r != nil || x != nil:
 		return faults.Strength{Z1Ohm: b.ohms(w, "r1_ohm_"+cs, "x1_ohm_"+cs, r, x)}
-	default:
-		b.fail(w, "name", "the %s-case strength is missing: give %s (or r1_ohm_%s and x1_ohm_%s)", longCase(cs), mvaKey, cs, cs)
+	case !b.blamedAny(w, "r1_ohm_"+cs, "x1_ohm_"+cs):
+		b.fail(w, mvaKey, "the %s-case strength is missing: give %s (or r1_ohm_%s and x1_ohm_%s)", longCase(cs), mvaKey, cs, cs)
 	}
 	return faults.Strength{}
 }

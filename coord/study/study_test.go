@@ -8,6 +8,7 @@ import (
 	"testing"
 
 	"tripgrade/coord"
+	"tripgrade/coord/study/internal/tomltext"
 	"tripgrade/curves"
 	"tripgrade/faults"
 )
@@ -159,11 +160,18 @@ func TestConversion(t *testing.T) {
 	}
 }
 
-// TestLineIndex: the scanner finds tables and keys of arrays of tables,
-// nested ones, and keys after values that span lines.
+// TestLineIndex: the decoder records the lines of tables and keys of
+// arrays of tables, nested ones, and keys after values that span lines.
 func TestLineIndex(t *testing.T) {
 	src := "[study]\nname = \"x\" # comment with = sign\n\n[[relay]]\nname = \"a\"\n  [[relay.stage]]\n  curve = \"iec-si\"\n  [[relay.stage]]\n  tms = 0.1\n[[relay]]\nname = \"b\"\n[[fuse]]\nmelt = [\n  [1, 2],\n  [3, 4],\n]\nrating_a = 5\n"
-	ix := indexLines(src)
+	root, err := tomltext.Parse([]byte(src), tomltext.Limits{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	d := newDecoder("x.toml", root)
+	var raw rawFile
+	d.table(root, "", "", &raw)
+	ix := d.lines
 	cases := []struct {
 		path, key string
 		want      int
