@@ -4,8 +4,6 @@ import (
 	"bytes"
 	"fmt"
 	"io"
-	"os"
-	"path/filepath"
 	"strings"
 
 	"tripgrade/coord"
@@ -104,17 +102,36 @@ func checkLoaded(l loaded, o *checkOptions, stdout, stderr io.Writer) int {
 }
 
 // writeOutputs writes the table in every chosen format and the
-// time-current plots to the output folder.
+// time-current plots to the output folder, creating it when missing, and
+// removes the files an earlier run wrote there that this one does not
+// (outFolder).
 func writeOutputs(l loaded, res *coord.Result, tab *report.Findings, o *checkOptions, stderr io.Writer) error {
-	if err := os.MkdirAll(o.outDir, 0o755); err != nil {
+	out, err := openOutFolder(o.outDir)
+	if err != nil {
+		return err
+	}
+	charts, err := plotCharts(l, res)
+	if err != nil {
+		return err
+	}
+	var names []string
+	for _, f := range o.formats {
+		names = append(names, "findings."+findingWriters[f].ext)
+	}
+	for _, c := range charts {
+		names = append(names, chartFile(c))
+	}
+	if err := out.plan(names); err != nil {
 		return err
 	}
 	for _, f := range o.formats {
 		w := findingWriters[f]
-		path := filepath.Join(o.outDir, "findings."+w.ext)
-		if err := writeTo(path, func(b *bytes.Buffer) error { return w.write(tab, b) }); err != nil {
+		if err := out.write("findings."+w.ext, func(b *bytes.Buffer) error { return w.write(tab, b) }); err != nil {
 			return err
 		}
 	}
-	return writePlots(l, res, o.outDir)
+	if err := writePlots(out, charts); err != nil {
+		return err
+	}
+	return out.finish()
 }

@@ -90,7 +90,7 @@ func TestCheckOutDir(t *testing.T) {
 	}
 	entries, _ := os.ReadDir(dir)
 	for _, e := range entries {
-		if strings.HasPrefix(e.Name(), ".") {
+		if strings.HasSuffix(e.Name(), ".tmp") {
 			t.Errorf("temporary file %s left behind", e.Name())
 		}
 	}

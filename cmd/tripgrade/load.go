@@ -37,7 +37,16 @@ func loadStudy(path string, stderr io.Writer) (l loaded, ok bool) {
 		}
 		return l, false
 	}
+	printNotes(s, stderr)
 	return prepare(path, s, stderr)
+}
+
+// printNotes tells what loading the study assumed where its input left a
+// choice; the reports repeat it.
+func printNotes(s *coord.Study, stderr io.Writer) {
+	for _, n := range s.Notes {
+		fmt.Fprintf(stderr, "note: %s\n", n)
+	}
 }
 
 // prepare builds the fault engine and the zones of a checked study.

@@ -3,7 +3,6 @@ package main
 import (
 	"bytes"
 	"fmt"
-	"path/filepath"
 
 	"tripgrade/coord"
 	"tripgrade/coord/tcc"
@@ -18,17 +17,24 @@ func newAtlas(l loaded, res *coord.Result) (*tcc.Atlas, error) {
 	return tcc.NewAtlas(tcc.Input{Study: l.study, Topology: l.topo, Result: res, Levels: levels})
 }
 
-// writePlots writes a PNG time–current chart for every coordination path
-// and every failing pair to outDir, as DIR/<chart name>.png (see
-// tcc.Atlas.Charts for the names), each file atomically.
-func writePlots(l loaded, res *coord.Result, outDir string) error {
+// plotCharts returns the time–current charts of every coordination path
+// and every failing pair (see tcc.Atlas.Charts for their names).
+func plotCharts(l loaded, res *coord.Result) ([]*tcc.Chart, error) {
 	a, err := newAtlas(l, res)
 	if err != nil {
-		return fmt.Errorf("plots: %w", err)
+		return nil, fmt.Errorf("plots: %w", err)
 	}
-	for _, c := range a.Charts() {
-		path := filepath.Join(outDir, c.Name+"."+tcc.PNG.Ext())
-		if err := writeTo(path, func(b *bytes.Buffer) error { return c.Render(b, tcc.PNG, tcc.Settings{}) }); err != nil {
+	return a.Charts(), nil
+}
+
+// chartFile is the file name of a chart in the output folder.
+func chartFile(c *tcc.Chart) string { return c.Name + "." + tcc.PNG.Ext() }
+
+// writePlots writes each chart as a PNG into the output folder, each file
+// atomically.
+func writePlots(out *outFolder, charts []*tcc.Chart) error {
+	for _, c := range charts {
+		if err := out.write(chartFile(c), func(b *bytes.Buffer) error { return c.Render(b, tcc.PNG, tcc.Settings{}) }); err != nil {
 			return err
 		}
 	}
