@@ -114,7 +114,7 @@ func (b *builder) readSettingsCSV(dir fs.FS, name string, studyLine int) {
 		b.errs = append(b.errs, &Error{File: shown, Line: line, Msg: message(format, args...)})
 	}
 	if why := notText(data); why != "" {
-		tableErr(1, "%s", why)
+		tableErr(1, "%s", verbatim(why))
 		b.csvUnread = true
 		return
 	}
@@ -128,6 +128,13 @@ func (b *builder) readSettingsCSV(dir fs.FS, name string, studyLine int) {
 	format, note := sniff(header)
 	if note != "" {
 		b.st.Notes = append(b.st.Notes, fmt.Sprintf("%s:%d: %s", shown, headerAt, note))
+		// Problems found with that assumption come with it.
+		before := b.failures
+		defer func() {
+			if b.failures > before {
+				b.errs = append(b.errs, &Error{File: shown, Line: headerAt, Msg: "note: " + note})
+			}
+		}()
 	}
 	r := csv.NewReader(bytes.NewReader(data))
 	r.Comma = format.sep
@@ -159,7 +166,7 @@ func (b *builder) readSettingsCSV(dir fs.FS, name string, studyLine int) {
 // sensible size.
 func (b *builder) settingsFile(dir fs.FS, name, shown string, studyLine int) ([]byte, bool) {
 	studyErr := func(format string, args ...any) {
-		b.errorf(studyLine, "[study]", "settings_csv = %q: %s", name, fmt.Sprintf(format, args...))
+		b.errorf(studyLine, "[study]", "settings_csv = %q: %s", name, verbatim(fmt.Sprintf(format, args...)))
 	}
 	if dir == nil {
 		studyErr("this study was not read from a folder, so it cannot refer to other files")
@@ -277,6 +284,13 @@ func (b *builder) csvRows(r *csv.Reader, shown string, cols []csvColumn, cells *
 				b.csvUnread = true
 				return rows
 			}
+			// The row is not read, but its relay is not reported again
+			// for having no stages.
+			for i, c := range cols {
+				if k, ok := relays[cellAt(rec, i)]; ok && c.name == "relay" {
+					b.relayRaw[k].csvRows++
+				}
+			}
 			continue
 		}
 		if blankRow(rec) {
@@ -286,6 +300,13 @@ func (b *builder) csvRows(r *csv.Reader, shown string, cols []csvColumn, cells *
 		cells.line = line
 		b.csvRow(shown, line, cols, rec, relays, cells)
 	}
+}
+
+func cellAt(rec []string, i int) string {
+	if i < len(rec) {
+		return strings.TrimSpace(rec[i])
+	}
+	return ""
 }
 
 func blankRow(rec []string) bool {
@@ -313,6 +334,11 @@ func (b *builder) csvRow(file string, line int, cols []csvColumn, rec []string, 
 	}
 	k, ok := relays[relay]
 	if !ok {
+		// The row was most likely meant for the relay it nearly names:
+		// that relay is not reported again for having no stages.
+		if near := Closest(visibleOnly(relay), b.relayNames()); near != "" {
+			b.relayRaw[relays[near]].csvRows++
+		}
 		switch {
 		case b.blamed["relay"]:
 			b.failures++ // the relays could not be read at all
@@ -354,6 +380,24 @@ func (b *builder) csvRow(file string, line int, cols []csvColumn, rec []string, 
 	if st, ok := b.stage(w, rs, d.CT); ok {
 		d.Stages = append(d.Stages, st)
 	}
+}
+
+// visibleOnly drops the characters of s that a reader cannot see.
+func visibleOnly(s string) string {
+	return strings.Map(func(r rune) rune {
+		if deceptive(r) != "" {
+			return -1
+		}
+		return r
+	}, s)
+}
+
+func (b *builder) relayNames() []string {
+	names := make([]string, len(b.relayRaw))
+	for i, o := range b.relayRaw {
+		names[i] = b.st.Devices[o.device].Name
+	}
+	return names
 }
 
 // hiddenRune describes the first character of s that a reader cannot

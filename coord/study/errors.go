@@ -102,8 +102,12 @@ func clipText(s string, n int) string {
 	return s[:i] + "…"
 }
 
-// message formats a problem, shortening long text arguments and the
-// result.
+// verbatim marks text of our own passed as an argument of a message,
+// which message does not shorten as it does user text.
+type verbatim string
+
+// message formats a problem, shortening long text arguments (user text)
+// and the result.
 func message(format string, args ...any) string {
 	for i, a := range args {
 		if s, ok := a.(string); ok && len(s) > maxEchoName {

@@ -13,6 +13,7 @@ import (
 func (b *builder) named(w where, name string, seen map[string]int, kind string) bool {
 	if strings.TrimSpace(name) == "" {
 		b.fail(w, "name", "name is missing")
+		b.badNames[name] = true // an island of it follows from this
 		return false
 	}
 	readable := b.readable(w, "name", name)

@@ -15,6 +15,20 @@ import (
 
 var update = flag.Bool("update", false, "rewrite the golden files under testdata/errors")
 
+// loadAndPrepare loads a study and, when it loads, builds its fault
+// engine, with the engine's errors located in the file as the command
+// line reports them.
+func loadAndPrepare(path string) error {
+	s, err := Load(path)
+	if err != nil {
+		return err
+	}
+	if _, _, err := coord.Prepare(s); err != nil {
+		return Locate(path, err)
+	}
+	return nil
+}
+
 // TestErrorsGolden loads each broken study under testdata/errors and
 // compares every message with its golden file: the messages are the
 // user interface of bad input, so any change to them must be deliberate.
@@ -25,7 +39,7 @@ func TestErrorsGolden(t *testing.T) {
 	}
 	for _, f := range files {
 		t.Run(filepath.Base(f), func(t *testing.T) {
-			_, err := Load(f)
+			err := loadAndPrepare(f)
 			list, ok := err.(ErrorList)
 			if !ok {
 				t.Fatalf("got %v (%T), want an ErrorList", err, err)
@@ -54,7 +68,7 @@ func TestErrorsGolden(t *testing.T) {
 func TestEveryProblemHasALine(t *testing.T) {
 	files, _ := filepath.Glob("../../testdata/errors/*.toml")
 	for _, f := range files {
-		_, err := Load(f)
+		err := loadAndPrepare(f)
 		for _, e := range err.(ErrorList) {
 			if e.Line == 0 && e.Element == "" {
 				t.Errorf("%s: %q has neither a line nor an element", f, e.Msg)

@@ -38,9 +38,13 @@ func suggest(name string, known map[string]int) string {
 	return ""
 }
 
-// editDistance is the Levenshtein distance between a and b, in runes.
+// editDistance is the number of single-rune insertions, deletions,
+// substitutions and swaps of neighbours that turn a into b (the optimal
+// string alignment distance: Levenshtein's, with a swapped pair such as
+// "tsm" for "tms" counted as one slip of the keyboard).
 func editDistance(a, b string) int {
 	ra, rb := []rune(a), []rune(b)
+	prev2 := make([]int, len(rb)+1)
 	prev := make([]int, len(rb)+1)
 	cur := make([]int, len(rb)+1)
 	for j := range prev {
@@ -54,8 +58,11 @@ func editDistance(a, b string) int {
 				cost = 0
 			}
 			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
+			if i > 1 && j > 1 && ra[i-1] == rb[j-2] && ra[i-2] == rb[j-1] {
+				cur[j] = min(cur[j], prev2[j-2]+1)
+			}
 		}
-		prev, cur = cur, prev
+		prev2, prev, cur = prev, cur, prev2
 	}
 	return prev[len(rb)]
 }

@@ -103,6 +103,9 @@ func (p *parser) near() string {
 	if p.eof() {
 		return "the end of the file"
 	}
+	if c := p.src[p.pos]; c == '\n' || c == '\r' {
+		return "the end of the line"
+	}
 	end := p.pos
 	for end < len(p.src) && end-p.pos < 24 && p.src[end] != '\n' && p.src[end] != '\r' {
 		end++
