@@ -42,8 +42,7 @@ func (b *builder) point(w where, branch, at string) (faults.Point, bool) {
 
 func (b *builder) buildRelays() {
 	for i, r := range b.raw.Relays {
-		path := fmt.Sprintf("relay[%d]", i)
-		w := where{path: path, element: fmt.Sprintf("relay %q", r.Name)}
+		w := at("relay", i, r.Name)
 		b.named(w, r.Name, b.deviceSeen, "relay or fuse")
 		d := coord.Device{Name: r.Name, Kind: coord.Relay}
 		d.Point, _ = b.point(w, r.Branch, r.At)
@@ -60,7 +59,7 @@ func (b *builder) buildRelays() {
 		}
 		d.MaxLoadA = b.optional(w, "max_load_a", r.MaxLoadA, 0, 0, math.Inf(1), true)
 		for j, rs := range r.Stages {
-			sw := where{path: fmt.Sprintf("%s.stage[%d]", path, j), element: fmt.Sprintf("relay %q stage %d", r.Name, j+1)}
+			sw := where{path: w.path + ".stage[" + strconv.Itoa(j) + "]", element: w.element + " stage " + strconv.Itoa(j+1)}
 			if st, ok := b.stage(sw, rs, d.CT); ok {
 				d.Stages = append(d.Stages, st)
 			}
@@ -171,7 +170,7 @@ func (b *builder) characteristic(w where, r rawStage, shape curves.Shape, pickup
 	set := curves.StageSettings{Shape: shape, PickupA: pickupA}
 	before := b.failures
 	if !shape.Dependent() {
-		b.notFor(w, shape, map[string]bool{"tms": r.TMS != nil, "td": r.TD != nil, "max_multiple": r.MaxMultiple != nil, "min_time_s": r.MinTimeS != nil})
+		b.notFor(w, shape, given{"tms", r.TMS}, given{"td", r.TD}, given{"max_multiple", r.MaxMultiple}, given{"min_time_s", r.MinTimeS})
 		b.noConstants(w, r, shape)
 		if shape == curves.ShapeDefinite && r.DelayS == nil {
 			b.fail(w, "delay_s", "a definite-time stage needs delay_s")
@@ -234,15 +233,21 @@ func (b *builder) userLaw(w where, r rawStage, shape curves.Shape) curves.Law {
 }
 
 func (b *builder) noConstants(w where, r rawStage, shape curves.Shape) {
-	b.notFor(w, shape, map[string]bool{"k": r.K != nil, "alpha": r.Alpha != nil, "c": r.C != nil,
-		"a": r.A != nil, "b": r.B != nil, "p": r.P != nil, "tr": r.TR != nil})
+	b.notFor(w, shape, given{"k", r.K}, given{"alpha", r.Alpha}, given{"c", r.C},
+		given{"a", r.A}, given{"b", r.B}, given{"p", r.P}, given{"tr", r.TR})
+}
+
+// given is an optional key of a stage and its value, nil when not given.
+type given struct {
+	key string
+	v   *float64
 }
 
 // notFor reports keys given that the shape does not use.
-func (b *builder) notFor(w where, shape curves.Shape, given map[string]bool) {
-	for _, k := range []string{"tms", "td", "max_multiple", "min_time_s", "k", "alpha", "c", "a", "b", "p", "tr"} {
-		if given[k] {
-			b.fail(w, k, "%s does not apply to a %s stage", k, shape)
+func (b *builder) notFor(w where, shape curves.Shape, keys ...given) {
+	for _, k := range keys {
+		if k.v != nil {
+			b.fail(w, k.key, "%s does not apply to a %s stage", k.key, shape)
 		}
 	}
 }

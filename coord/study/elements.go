@@ -3,6 +3,7 @@ package study
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 
 	"tripgrade/coord"
@@ -12,7 +13,7 @@ import (
 func (b *builder) buildEarthings() {
 	seen := map[string]int{}
 	for i, r := range b.raw.Earthings {
-		w := where{path: fmt.Sprintf("earthing[%d]", i), element: fmt.Sprintf("earthing %q", r.Name)}
+		w := at("earthing", i, r.Name)
 		b.named(w, r.Name, seen, "earthing")
 		bus, _ := b.busRef(w, "bus", r.Bus)
 		switch r.Kind {
@@ -37,7 +38,7 @@ func (b *builder) buildEarthings() {
 func (b *builder) buildLoads() {
 	seen := map[string]int{}
 	for i, r := range b.raw.Loads {
-		w := where{path: fmt.Sprintf("load[%d]", i), element: fmt.Sprintf("load %q", r.Name)}
+		w := at("load", i, r.Name)
 		if r.Name == "" {
 			w.element = fmt.Sprintf("load %d", i+1)
 		} else {
@@ -71,10 +72,8 @@ func (b *builder) checkTopology() {
 		}
 		first := isl[0]
 		line := 0
-		for i, r := range b.raw.Buses {
-			if r.Name == first {
-				line = b.lines.table(fmt.Sprintf("bus[%d]", i))
-			}
+		if k, ok := b.bus[first]; ok {
+			line = b.lines.table("bus[" + strconv.Itoa(k) + "]")
 		}
 		list := isl
 		more := ""

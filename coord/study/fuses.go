@@ -9,7 +9,7 @@ import (
 
 func (b *builder) buildFuses() {
 	for i, r := range b.raw.Fuses {
-		w := where{path: fmt.Sprintf("fuse[%d]", i), element: fmt.Sprintf("fuse %q", r.Name)}
+		w := at("fuse", i, r.Name)
 		b.named(w, r.Name, b.deviceSeen, "relay or fuse")
 		d := coord.Device{Name: r.Name, Kind: coord.Fuse}
 		d.Point, _ = b.point(w, r.Branch, r.At)

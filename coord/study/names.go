@@ -19,13 +19,14 @@ func (b *builder) named(w where, name string, seen map[string]int, kind string) 
 	readable := b.readable(w, "name", name)
 	if first, dup := seen[name]; dup {
 		at := ""
-		if first > 0 {
-			at = fmt.Sprintf(" (line %d)", first)
+		if line := b.lines.table(b.namePaths[first]); line > 0 {
+			at = fmt.Sprintf(" (line %d)", line)
 		}
 		b.fail(w, "name", "duplicate name: another %s is called %q%s", kind, name, at)
 		return false
 	}
-	seen[name] = b.lines.table(w.path)
+	seen[name] = len(b.namePaths) // the line is looked up only for a message
+	b.namePaths = append(b.namePaths, w.path)
 	if !readable {
 		b.badNames[name] = true
 	}

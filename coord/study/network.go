@@ -1,8 +1,8 @@
 package study
 
 import (
-	"fmt"
 	"math"
+	"strconv"
 
 	"tripgrade/coord"
 	"tripgrade/curves"
@@ -19,14 +19,16 @@ type builder struct {
 	bus    map[string]int // bus name → index
 	branch map[string]int // line or transformer name → branch index
 
-	branchSeen map[string]int // branch names → line, for duplicates
-	deviceSeen map[string]int // relay and fuse names → line
-	relayRaw   []relayOrigin
-	badRef     bool            // some element refers to a bus that does not exist
-	branchBad  map[int]bool    // branches whose ends are already reported wrong
-	badNames   map[string]bool // bus names reported unreadable
-	csvUnread  bool            // the settings table could not be read at all
-	csvBlamed  map[string]bool // settings a misspelt column of the table was meant to give
+	branchSeen  map[string]int // branch names, for duplicates (values index namePaths)
+	deviceSeen  map[string]int // relay and fuse names, likewise
+	relayRaw    []relayOrigin
+	badRef      bool            // some element refers to a bus that does not exist
+	branchBad   map[int]bool    // branches whose ends are already reported wrong
+	badNames    map[string]bool // bus names reported unreadable
+	csvUnread   bool            // the settings table could not be read at all
+	csvBlamed   map[string]bool // settings a misspelt column of the table was meant to give
+	suggestions int             // "did you mean" searches so far (closest)
+	namePaths   []string        // where each named element is; the seen maps hold indexes into it
 }
 
 // where locates an element for messages: the indexed table path in the
@@ -36,6 +38,12 @@ type where struct {
 	path, element string
 	file          string // set for rows of another file
 	line          int
+}
+
+// at locates the i-th element of the array of tables key (bus, line, …),
+// named name.
+func at(key string, i int, name string) where {
+	return where{path: key + "[" + strconv.Itoa(i) + "]", element: key + " " + strconv.Quote(name)}
 }
 
 // fail reports a problem of the element at w, on the line of key. A key
@@ -85,13 +93,20 @@ func (b *builder) busRef(w where, key, name string) (int, bool) {
 	return k, ok
 }
 
+// closest proposes the name nearest to an unknown one, as a message
+// suffix. A suggestion costs a pass over every name, so a file with
+// thousands of unknown names gets one for the first maxSuggestions only:
+// every problem is still reported, and the load stays fast.
 func (b *builder) closest(name string, names map[string]int) string {
-	set := make(map[string]int, len(names))
-	for n := range names {
-		set[n] = 0
+	if b.suggestions >= maxSuggestions {
+		return ""
 	}
-	return suggest(name, set)
+	b.suggestions++
+	return suggest(name, names)
 }
+
+// maxSuggestions bounds the "did you mean" searches of one load.
+const maxSuggestions = 100
 
 // positive returns *p, requiring it present and > 0.
 func (b *builder) positive(w where, key string, p *float64) float64 {
@@ -145,7 +160,7 @@ func boolOr(p *bool, def bool) bool {
 func (b *builder) buildBuses() {
 	seen := map[string]int{}
 	for i, r := range b.raw.Buses {
-		w := where{path: fmt.Sprintf("bus[%d]", i), element: fmt.Sprintf("bus %q", r.Name)}
+		w := at("bus", i, r.Name)
 		ok := b.named(w, r.Name, seen, "bus")
 		kv := b.positive(w, "kv", r.KV)
 		if kv > 2000 {
@@ -164,7 +179,7 @@ func (b *builder) buildBuses() {
 func (b *builder) buildSources() {
 	seen := map[string]int{}
 	for i, r := range b.raw.Sources {
-		w := where{path: fmt.Sprintf("source[%d]", i), element: fmt.Sprintf("source %q", r.Name)}
+		w := at("source", i, r.Name)
 		b.named(w, r.Name, seen, "source")
 		bus, _ := b.busRef(w, "bus", r.Bus)
 		s := faults.Source{Name: r.Name, Bus: bus}
@@ -238,7 +253,7 @@ func (b *builder) ohms(w where, rKey, xKey string, r, x *float64) complex128 {
 func (b *builder) buildGenerators() {
 	seen := map[string]int{}
 	for i, r := range b.raw.Generators {
-		w := where{path: fmt.Sprintf("generator[%d]", i), element: fmt.Sprintf("generator %q", r.Name)}
+		w := at("generator", i, r.Name)
 		b.named(w, r.Name, seen, "generator")
 		bus, ok := b.busRef(w, "bus", r.Bus)
 		g := faults.Generator{Name: r.Name, Bus: bus}

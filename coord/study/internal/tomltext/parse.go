@@ -72,6 +72,7 @@ type parser struct {
 	root  *Tab
 	cur   *Tab // the table key/value lines go to
 	slab  []Value
+	keys  []string // parts of the keys being read, a stack shared by nested inline tables
 }
 
 func (p *parser) fail(line int, format string, args ...any) {
@@ -217,17 +218,16 @@ func (p *parser) enter() {
 	}
 }
 
-// key reads a bare, quoted or dotted key.
-func (p *parser) key() []string {
-	var parts []string
+// key reads a bare, quoted or dotted key onto the key stack from base.
+func (p *parser) key(base int) {
 	for {
-		parts = append(parts, p.simpleKey())
-		if len(parts) > p.lim.MaxDepth {
+		p.keys = append(p.keys, p.simpleKey())
+		if len(p.keys)-base > p.lim.MaxDepth {
 			p.fail(p.line, "a key of more than %d dotted parts", p.lim.MaxDepth)
 		}
 		p.skipSpace()
 		if p.eof() || p.src[p.pos] != '.' {
-			return parts
+			return
 		}
 		p.pos++
 		p.skipSpace()
@@ -267,13 +267,16 @@ func (p *parser) simpleKey() string {
 // keyValue reads key = value into t, creating the tables of a dotted key.
 func (p *parser) keyValue(t *Tab) {
 	line := p.line
-	parts := p.key()
+	base := len(p.keys)
+	defer func() { p.keys = p.keys[:base] }()
+	p.key(base)
 	if p.eof() || p.src[p.pos] != '=' {
-		p.fail(line, "expected = after the key %s, found %s", quoteKey(parts), p.near())
+		p.fail(line, "expected = after the key %s, found %s", quoteKey(p.keys[base:]), p.near())
 	}
 	p.pos++
 	p.skipSpace()
 	v := p.value()
+	parts := p.keys[base:] // after the value, whose inline tables grow the stack
 	for i, k := range parts[:len(parts)-1] {
 		e := t.Get(k)
 		if e == nil {
@@ -312,7 +315,9 @@ func (p *parser) header() {
 		p.pos++
 	}
 	p.skipSpace()
-	parts := p.key()
+	p.keys = p.keys[:0]
+	p.key(0)
+	parts := p.keys
 	closing := "]"
 	if array {
 		closing = "]]"

@@ -112,6 +112,9 @@ func (t *Tab) Get(key string) *Entry {
 }
 
 func (t *Tab) add(key string, line int, v *Value) {
+	if t.Entries == nil {
+		t.Entries = make([]Entry, 0, 8)
+	}
 	t.Entries = append(t.Entries, Entry{Key: key, Line: line, Value: v})
 	switch {
 	case t.index != nil:
