@@ -86,6 +86,9 @@ func New(n *Network, set Settings) (*Engine, error) {
 				}
 				return nil, fmt.Errorf("%s case, %s sequence: %w", cs, seqName[s], err)
 			}
+			if err := sn.checkCondition(n, cs, s); err != nil {
+				return nil, err
+			}
 			e.cases[cs][s] = sn
 		}
 		if cs == Max {

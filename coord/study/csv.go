@@ -211,11 +211,11 @@ type csvColumn struct {
 // cannot be read with it (no relay column, a column given twice).
 func (b *builder) csvHeader(r *csv.Reader, shown string, tableErr func(int, string, ...any)) (cols []csvColumn, ok bool) {
 	header, err := r.Read()
-	line, _ := r.FieldPos(0)
 	if err != nil {
-		tableErr(max(line, 1), "cannot read the header row: %v", csvCause(err))
+		tableErr(csvLine(err, 1), "cannot read the header row: %v", csvCause(err))
 		return nil, false
 	}
+	line, _ := r.FieldPos(0)
 	ok = true
 	seen := map[string]int{}
 	relay := false
@@ -252,6 +252,15 @@ func (b *builder) csvHeader(r *csv.Reader, shown string, tableErr func(int, stri
 	return cols, ok
 }
 
+// csvLine is the line of a reading error, or def.
+func csvLine(err error, def int) int {
+	var pe *csv.ParseError
+	if errors.As(err, &pe) && pe.Line > 0 {
+		return pe.Line
+	}
+	return def
+}
+
 // csvCause drops encoding/csv's own position, which the message gives.
 func csvCause(err error) error {
 	var pe *csv.ParseError
@@ -273,13 +282,10 @@ func (b *builder) csvRows(r *csv.Reader, shown string, cols []csvColumn, cells *
 		if errors.Is(err, io.EOF) {
 			return rows
 		}
-		line, _ := r.FieldPos(0)
 		if err != nil {
 			var pe *csv.ParseError
-			if errors.As(err, &pe) {
-				line = pe.Line
-			}
-			tableErr(line, "%v", csvCause(err))
+			errors.As(err, &pe)
+			tableErr(csvLine(err, 1), "%v", csvCause(err))
 			if pe == nil || !errors.Is(pe.Err, csv.ErrFieldCount) {
 				b.csvUnread = true
 				return rows
@@ -293,6 +299,7 @@ func (b *builder) csvRows(r *csv.Reader, shown string, cols []csvColumn, cells *
 			}
 			continue
 		}
+		line, _ := r.FieldPos(0) // Read returned fields, so there is a first one
 		if blankRow(rec) {
 			continue
 		}
