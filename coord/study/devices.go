@@ -136,6 +136,14 @@ func (b *builder) stage(w where, r rawStage, ct coord.CT) (coord.Stage, bool) {
 	}
 	st.Shape = shape
 	ratio := ct.PrimaryA / ct.SecondaryA
+	if !(ratio > 0) || math.IsInf(ratio, 0) {
+		// The CT is reported wrong; secondary amperes cannot be converted,
+		// and what follows from that is not reported again.
+		if r.PickupSecondaryA != nil || r.PickupRangeSecA != nil {
+			b.failures++
+			return st, false
+		}
+	}
 	switch {
 	case r.PickupA != nil && r.PickupSecondaryA != nil:
 		b.fail(w, "pickup_a", "give pickup_a (primary) or pickup_secondary_a, not both")
