@@ -125,3 +125,14 @@ func listDir(t *testing.T, dir string) []string {
 	sort.Strings(out)
 	return out
 }
+
+// TestPanicIsOneLine: a bug shows as one line and exit status 3, never as
+// a stack trace a pipeline would take for bad input.
+func TestPanicIsOneLine(t *testing.T) {
+	t.Setenv("TRIPGRADE_TRACE", "")
+	var errOut strings.Builder
+	code := runGuardedWith(func() int { panic("boom") }, &errOut)
+	if code != exitBug || strings.Count(errOut.String(), "\n") != 1 || !strings.Contains(errOut.String(), "internal error") {
+		t.Errorf("exit %d, stderr %q", code, errOut.String())
+	}
+}
