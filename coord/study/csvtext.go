@@ -200,3 +200,81 @@ func looksGrouped(text string) bool {
 	}
 	return plainDecimal(t)
 }
+
+// csvColumns maps a column name to the raw stage field it fills.
+var csvColumns = map[string]func(r *rawStage, text string, c *cellReader) error{
+	"label":              func(r *rawStage, t string, _ *cellReader) error { r.Label = t; return nil },
+	"measures":           func(r *rawStage, t string, _ *cellReader) error { r.Measures = t; return nil },
+	"curve":              func(r *rawStage, t string, _ *cellReader) error { r.Curve = t; return nil },
+	"pickup_a":           numberInto(func(r *rawStage) **float64 { return &r.PickupA }),
+	"pickup_secondary_a": numberInto(func(r *rawStage) **float64 { return &r.PickupSecondaryA }),
+	"tms":                numberInto(func(r *rawStage) **float64 { return &r.TMS }),
+	"td":                 numberInto(func(r *rawStage) **float64 { return &r.TD }),
+	"delay_s":            numberInto(func(r *rawStage) **float64 { return &r.DelayS }),
+	"max_multiple":       numberInto(func(r *rawStage) **float64 { return &r.MaxMultiple }),
+	"min_time_s":         numberInto(func(r *rawStage) **float64 { return &r.MinTimeS }),
+	"k":                  numberInto(func(r *rawStage) **float64 { return &r.K }),
+	"alpha":              numberInto(func(r *rawStage) **float64 { return &r.Alpha }),
+	"c":                  numberInto(func(r *rawStage) **float64 { return &r.C }),
+	"a":                  numberInto(func(r *rawStage) **float64 { return &r.A }),
+	"b":                  numberInto(func(r *rawStage) **float64 { return &r.B }),
+	"p":                  numberInto(func(r *rawStage) **float64 { return &r.P }),
+	"tr":                 numberInto(func(r *rawStage) **float64 { return &r.TR }),
+	"pickup_range_a":     rangeInto(func(r *rawStage) *[]float64 { return &r.PickupRangeA }),
+	"multiplier_range":   rangeInto(func(r *rawStage) *[]float64 { return &r.MultiplierRange }),
+}
+
+// cellReader reads the numbers of one table and remembers which decimal
+// marks it met, to say which was assumed where they disagree.
+type cellReader struct {
+	format     csvFormat
+	line       int
+	commaCells int      // numbers written with a decimal comma
+	grouped    []string // "line N: column "x" = 1.200", numbers that may hold a thousands group
+	column     string
+}
+
+func (c *cellReader) number(text string) (float64, error) {
+	v, mark, err := cellNumber(text, c.format)
+	if err != nil {
+		return 0, err
+	}
+	switch {
+	case mark == ',':
+		c.commaCells++
+	case mark == '.' && c.format.decimalComma && looksGrouped(text):
+		c.grouped = append(c.grouped, fmt.Sprintf("line %d: %s %q was read as %s", c.line, c.column, text, gText(v)))
+	}
+	return v, nil
+}
+
+func numberInto(field func(*rawStage) **float64) func(*rawStage, string, *cellReader) error {
+	return func(r *rawStage, t string, c *cellReader) error {
+		v, err := c.number(t)
+		if err != nil {
+			return err
+		}
+		*field(r) = &v
+		return nil
+	}
+}
+
+// rangeInto reads "min:max" or "min:max:step".
+func rangeInto(field func(*rawStage) *[]float64) func(*rawStage, string, *cellReader) error {
+	return func(r *rawStage, t string, c *cellReader) error {
+		parts := strings.Split(t, ":")
+		if len(parts) < 2 || len(parts) > 3 {
+			return fmt.Errorf("want min:max or min:max:step, got %q", clipText(t, maxEchoName))
+		}
+		vals := make([]float64, len(parts))
+		for i, p := range parts {
+			v, err := c.number(strings.TrimSpace(p))
+			if err != nil {
+				return fmt.Errorf("want min:max or min:max:step of finite numbers, got %q (%v)", clipText(t, maxEchoName), err)
+			}
+			vals[i] = v
+		}
+		*field(r) = vals
+		return nil
+	}
+}
