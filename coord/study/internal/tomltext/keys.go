@@ -204,4 +204,3 @@ func clip(s string) string {
 	}
 	return s[:end] + "…"
 }
-
