@@ -79,7 +79,7 @@ func (b *builder) readSettingsCSV(dir fs.FS, name string, studyLine int) {
 		if n := len(cells.grouped) - 1; n > 0 {
 			more = fmt.Sprintf(" (and %d more such cells)", n)
 		}
-		b.st.Notes = append(b.st.Notes, fmt.Sprintf("%s: %s, a decimal point, though the table writes decimal commas elsewhere; if a thousands separator was meant, write the digits only%s",
+		b.st.Notes = append(b.st.Notes, fmt.Sprintf("%s:%s, a decimal point, though the table writes decimal commas elsewhere; if a thousands separator was meant, write the digits only%s",
 			shown, cells.grouped[0], more))
 	}
 }

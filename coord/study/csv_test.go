@@ -96,7 +96,7 @@ func TestAmbiguousTablesSayWhatWasAssumed(t *testing.T) {
 	if p := s.Devices[0].Stages[0].PickupA; p != 1.2 {
 		t.Errorf("pickup %g, want 1.2 (a decimal point)", p)
 	}
-	if len(s.Notes) != 1 || !strings.Contains(s.Notes[0], `line 2: pickup_a "1.200" was read as 1.2`) || !strings.Contains(s.Notes[0], "decimal commas") {
+	if len(s.Notes) != 1 || !strings.Contains(s.Notes[0], `s.csv:2: pickup_a "1.200" was read as 1.2`) || !strings.Contains(s.Notes[0], "decimal commas") {
 		t.Errorf("notes %q", s.Notes)
 	}
 	_, err = parseWithTable(t, "relay;measures;curve;pickup_a;tms,\nR1;phase;iec-si;300;0,1\nR2;phase;iec-si;300;0,1\n")

@@ -230,7 +230,7 @@ type cellReader struct {
 	format     csvFormat
 	line       int
 	commaCells int      // numbers written with a decimal comma
-	grouped    []string // "line N: column "x" = 1.200", numbers that may hold a thousands group
+	grouped    []string // "N: x "1.200" was read as 1.2": line and cell of numbers that may hold a thousands group
 	column     string
 }
 
@@ -243,7 +243,7 @@ func (c *cellReader) number(text string) (float64, error) {
 	case mark == ',':
 		c.commaCells++
 	case mark == '.' && c.format.decimalComma && looksGrouped(text):
-		c.grouped = append(c.grouped, fmt.Sprintf("line %d: %s %q was read as %s", c.line, c.column, text, gText(v)))
+		c.grouped = append(c.grouped, fmt.Sprintf("%d: %s %q was read as %s", c.line, c.column, text, gText(v)))
 	}
 	return v, nil
 }
