@@ -65,12 +65,12 @@ func (e *ConditionError) Error() string {
 		if e.Region > 1 {
 			part = fmt.Sprintf("the %d buses around it", e.Region)
 		}
-		return fmt.Sprintf("%s: %s hang on %s, whose admittance is %.1e times smaller than that of %s among them, more than the arithmetic can bear; check their impedances (a figure in the wrong unit?)",
-			where, part, e.Elements[1], e.Spread, e.Elements[0])
+		return fmt.Sprintf("%s: %s hang on %s, whose admittance is %s times smaller than that of %s among them, more than the arithmetic can bear; check their impedances (a figure in the wrong unit?)",
+			where, part, e.Elements[1], spreadText(e.Spread), e.Elements[0])
 	}
 	if len(e.Elements) >= 2 && e.Spread > conditionLimit {
-		return fmt.Sprintf("%s: at and next to it, %s and %s differ in admittance by a factor of %.1e, more than the arithmetic can bear; check their impedances (a figure in the wrong unit?)",
-			where, e.Elements[0], e.Elements[len(e.Elements)-1], e.Spread)
+		return fmt.Sprintf("%s: at and next to it, %s and %s differ in admittance by a factor of %s, more than the arithmetic can bear; check their impedances (a figure in the wrong unit?)",
+			where, e.Elements[0], e.Elements[len(e.Elements)-1], spreadText(e.Spread))
 	}
 	if len(e.Elements) == 0 {
 		return where + ": nothing connects it to the rest of the network in this sequence"
@@ -85,6 +85,14 @@ func (e *ConditionError) Error() string {
 		names[i] = r.String()
 	}
 	return fmt.Sprintf("%s: a part of the network has no impedance to the rest there (elements at and next to the bus: %s%s)", where, strings.Join(names, ", "), more)
+}
+
+// spreadText prints a ratio of admittances, which may exceed any number.
+func spreadText(r float64) string {
+	if math.IsInf(r, 1) || math.IsNaN(r) {
+		return "more than 1e+308"
+	}
+	return fmt.Sprintf("%.1e", r)
 }
 
 // conditionError explains a failed pivot at bus k of sequence network d.
