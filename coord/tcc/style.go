@@ -25,6 +25,42 @@ var deviceColours = [...]color.NRGBA{
 	{0x00, 0x00, 0x00, 0xFF}, // black
 }
 
+// deviceDashes are the line patterns that tell apart devices drawn in one
+// colour: solid first, so that up to six devices differ by colour alone.
+var deviceDashes = [...][]vg.Length{
+	nil,
+	{vg.Points(7), vg.Points(3)},
+	{vg.Points(12), vg.Points(3), vg.Points(2), vg.Points(3)},
+	{vg.Points(2), vg.Points(2.2)},
+	{vg.Points(16), vg.Points(4)},
+	{vg.Points(9), vg.Points(2.5), vg.Points(2), vg.Points(2.5), vg.Points(2), vg.Points(2.5)},
+}
+
+// dashNames describe deviceDashes in the key.
+var dashNames = [...]string{"solid", "dashed", "dash-dot", "dotted", "long dashes", "dash-dot-dot"}
+
+// Style is a device's look on a chart: one of the palette's colours and
+// one of the line patterns. No two devices drawn on one chart share both.
+type Style struct {
+	Colour, Dash int
+}
+
+// styleCount is how many distinct device looks there are: the most
+// devices one chart draws.
+const styleCount = len(deviceColours) * len(deviceDashes)
+
+// styleOf returns look k: the colours in order, solid, then each again
+// with the next pattern.
+func styleOf(k int) Style {
+	return Style{Colour: k % len(deviceColours), Dash: k / len(deviceColours)}
+}
+
+// colour returns the style's colour.
+func (s Style) colour() color.NRGBA { return deviceColours[s.Colour] }
+
+// dashes returns the style's line pattern (nil: solid).
+func (s Style) dashes() []vg.Length { return deviceDashes[s.Dash] }
+
 // Colours of what is not a device.
 var (
 	failColour      = color.NRGBA{0xD5, 0x5E, 0x00, 0xFF} // Okabe & Ito vermillion
@@ -34,14 +70,15 @@ var (
 	gridMinor       = color.NRGBA{0xEB, 0xEB, 0xEB, 0xFF}
 	inkColour       = color.NRGBA{0x1A, 0x1A, 0x1A, 0xFF}
 	paperColour     = color.NRGBA{0xFF, 0xFF, 0xFF, 0xFF}
-	labelBacking    = color.NRGBA{0xFF, 0xFF, 0xFF, 0xD8}
+	labelBacking    = color.NRGBA{0xFF, 0xFF, 0xFF, 0xE0}
 )
 
 // Line widths and sizes in points (1/72 in); at the default 160 dpi a
 // point is 2.2 pixels.
 const (
-	curveWidth     = 1.7 // a relay's phase and ground curves, a fuse's clearing curve
+	curveWidth     = 1.7 // a relay's curve, a fuse's clearing curve
 	meltWidth      = 0.9 // a fuse's minimum-melting curve
+	seenWidth      = 1.0 // an upstream curve as it responds to the worst fault's kind
 	markWidth      = 0.7 // fault-level and load lines
 	damageWidth    = 1.3
 	bracketWidth   = 1.6
@@ -51,22 +88,23 @@ const (
 	axisTextSize   = 9
 	titleTextSize  = 13
 	subtitleSize   = 9
+	footerSize     = 6.5
 	dotRadius      = 2.2
 	bandAlpha      = 0x30 // tolerance band shading
 	fuseBandAlpha  = 0x22 // shading between a fuse's melting and clearing curves
 	levelLineAlpha = 0x90
 )
 
-// Dash patterns.
+// Dash patterns of what is not a device.
 var (
-	groundDashes = []vg.Length{vg.Points(6), vg.Points(3)}
-	minDashes    = []vg.Length{vg.Points(1), vg.Points(2)}
-	loadDashes   = []vg.Length{vg.Points(7), vg.Points(2), vg.Points(1.5), vg.Points(2)}
-	linkDashes   = []vg.Length{vg.Points(1.5), vg.Points(1.5)}
+	minDashes  = []vg.Length{vg.Points(1), vg.Points(2)}
+	loadDashes = []vg.Length{vg.Points(7), vg.Points(2), vg.Points(1.5), vg.Points(2)}
+	linkDashes = []vg.Length{vg.Points(1.5), vg.Points(1.5)}
 )
 
 // sans is the typeface of every text: Liberation Sans, which gonum/plot
-// embeds, so a plot looks the same on every machine.
+// embeds. Text is drawn as glyph outlines (see outlined), so the picture
+// does not depend on the fonts of the machine that shows it.
 var sans = font.Font{Typeface: "Liberation", Variant: "Sans"}
 
 // textStyle returns a text style of the given size and colour.
@@ -84,48 +122,52 @@ func withAlpha(c color.NRGBA, a uint8) color.NRGBA {
 	return c
 }
 
-// colourFor returns the colour of palette slot k.
-func colourFor(k int) color.NRGBA { return deviceColours[k%len(deviceColours)] }
-
-// assignColours gives every device of a study a palette slot, the same in
-// every chart of the study. Devices are taken in study order and each gets
-// the first slot not already held by a device it is drawn with (they share
-// a path or a failing pair); when all are held it gets the slot held by
-// the fewest of them. So devices drawn together differ in colour whenever
-// the palette allows, and a device keeps its colour from chart to chart.
-func assignColours(nDevices int, groups [][]int) []int {
-	together := make([]map[int]bool, nDevices)
-	for i := range together {
-		together[i] = map[int]bool{}
-	}
+// assignStyles gives every device of a study a look, the same in every
+// chart of the study where it can be. Devices are taken in study order;
+// each gets the first look whose colour no device it is drawn with holds
+// yet, or failing that the first look none of them holds, or failing that
+// (more than styleCount devices drawn together) look 0; Chart.styles
+// settles what remains within one chart. So devices drawn together differ
+// in colour wherever the palette allows, and a device keeps its colour
+// from chart to chart.
+func assignStyles(nDevices int, groups [][]int) []int {
+	together := make([][]int, nDevices)
 	for _, g := range groups {
 		for _, a := range g {
 			for _, b := range g {
 				if a != b {
-					together[a][b] = true
+					together[a] = append(together[a], b)
 				}
 			}
 		}
 	}
 	slot := make([]int, nDevices)
 	for i := range slot {
-		var held [len(deviceColours)]int
-		for j := range together[i] {
+		var heldLook [styleCount]bool
+		var heldColour [len(deviceColours)]bool
+		for _, j := range together[i] {
 			if j < i {
-				held[slot[j]]++
+				heldLook[slot[j]] = true
+				heldColour[styleOf(slot[j]).Colour] = true
 			}
 		}
-		best := 0
-		for k := range held {
-			if held[k] < held[best] {
-				best = k
-			}
-			if held[k] == 0 {
-				best = k
-				break
-			}
-		}
-		slot[i] = best
+		slot[i] = firstFree(heldLook[:], heldColour[:])
 	}
 	return slot
+}
+
+// firstFree returns the first look with a colour not held, else the first
+// look not held, else 0.
+func firstFree(heldLook, heldColour []bool) int {
+	for k := range heldLook {
+		if !heldLook[k] && !heldColour[styleOf(k).Colour] {
+			return k
+		}
+	}
+	for k := range heldLook {
+		if !heldLook[k] {
+			return k
+		}
+	}
+	return 0
 }
