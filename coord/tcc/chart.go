@@ -148,6 +148,7 @@ func (c *Chart) factor(i int) float64 { return c.atlas.refer(i, c.refBus) }
 // axisLabel names the current axis: the voltage, and how currents of other
 // voltages were brought to it.
 func (c *Chart) axisLabel() string {
+	c.build()
 	s := "current (A at " + fmtKV(c.refKV) + " kV"
 	if c.referred {
 		s += ", referred by winding ratios"

@@ -9,6 +9,7 @@ import (
 	"io"
 	"math"
 	"os"
+	"path/filepath"
 	"slices"
 	"strings"
 	"testing"
@@ -29,7 +30,7 @@ func loadAtlas(t *testing.T, path string, edit func(string) string) *Atlas {
 	if edit != nil {
 		text = edit(text)
 	}
-	s, err := study.Parse(path, []byte(text), nil)
+	s, err := study.Parse(path, []byte(text), os.DirFS(filepath.Dir(path)))
 	if err != nil {
 		t.Fatal(err)
 	}

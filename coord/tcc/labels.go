@@ -40,9 +40,9 @@ type label struct {
 
 func (l label) size() (w, h vg.Length) {
 	for k, s := range l.lines {
-		r := l.styles[k].Rectangle(s)
-		w = max(w, r.Size().X)
-		h += r.Size().Y
+		lw, lh := measure(l.styles[k], s)
+		w = max(w, lw)
+		h += lh
 	}
 	return w + 2*labelPad, h + 2*labelPad
 }
@@ -348,10 +348,8 @@ func drawLabels(dc draw.Canvas, lay *layout) {
 		dc.FillPolygon(labelBacking, []vg.Point{b.Min, {X: b.Max.X, Y: b.Min.Y}, b.Max, {X: b.Min.X, Y: b.Max.Y}})
 		y := b.Max.Y - labelPad
 		for k, s := range pl.lines {
-			sty := pl.styles[k]
-			sty.XAlign, sty.YAlign = draw.XLeft, draw.YTop
-			dc.FillText(sty, vg.Point{X: b.Min.X + labelPad, Y: y}, s)
-			y -= sty.Rectangle(s).Size().Y
+			r := putText(dc, pl.styles[k], vg.Point{X: b.Min.X + labelPad, Y: y}, 0, 1, s)
+			y = r.Min.Y
 		}
 	}
 }

@@ -70,10 +70,17 @@ type extreme struct {
 	max bool
 }
 
+// residueShare is the share of a device's largest fault current below
+// which a smaller figure of the same kind is the rounding residue of a
+// solve, not a current: no fault level is a millionth of another at one
+// device. (The engine already returns exactly 0 for such residue; this
+// keeps an axis from stretching to 1e-12 A should one ever get through.)
+const residueShare = 1e-6
+
 // levelsOf returns the fault levels of kind q that device i sees over its
 // zone: the largest (maximum case) and the smallest (minimum case), each
 // only when some fault drives current of that kind through it (a current
-// of 0 is "none", never a level).
+// of 0, or residue next to the largest, is "none", never a level).
 func (a *Atlas) levelsOf(i int, q coord.Quantity) []extreme {
 	sum := a.in.Levels[i]
 	hi, lo := sum.PhaseMax, sum.PhaseMin
@@ -88,6 +95,9 @@ func (a *Atlas) levelsOf(i int, q coord.Quantity) []extreme {
 		if x.e.Found && x.e.A > 0 && !math.IsInf(x.e.A, 0) {
 			out = append(out, extreme{a: x.e.A, max: x.max})
 		}
+	}
+	if len(out) == 2 && out[1].a < residueShare*out[0].a {
+		out = out[:1]
 	}
 	return out
 }

@@ -20,19 +20,51 @@ import (
 // the box of the ink drawn.
 type outlined struct {
 	vg.CanvasSizer
-	// ink, when set, records the box of every text drawn, in canvas
-	// coordinates (tests read it).
-	ink *[]inkBox
+	// ink, when set, records the box of every text drawn (tests read it).
+	ink *inkRecorder
 }
 
 var _ vg.CanvasSizer = outlined{}
 
-// inkBox is the box of one drawn text: its advance width from the pen
-// position to the end, and the font's ascent and descent around the
-// baseline.
+// inkRecorder keeps the box of every text drawn in page coordinates: its
+// advance width from the pen position, and the font's ascent and descent
+// about the baseline. Texts drawn rotated (the time axis's name) are
+// counted but not boxed.
+type inkRecorder struct {
+	boxes   []inkBox
+	rotated int
+	stack   []int
+}
+
+// inkBox is the box of one drawn text.
 type inkBox struct {
 	text string
 	box  vg.Rectangle
+}
+
+// Rotate rotates the canvas and notes it.
+func (c outlined) Rotate(rad float64) {
+	if c.ink != nil && rad != 0 {
+		c.ink.rotated++
+	}
+	c.CanvasSizer.Rotate(rad)
+}
+
+// Push saves the canvas state.
+func (c outlined) Push() {
+	if c.ink != nil {
+		c.ink.stack = append(c.ink.stack, c.ink.rotated)
+	}
+	c.CanvasSizer.Push()
+}
+
+// Pop restores the state Push saved.
+func (c outlined) Pop() {
+	if c.ink != nil && len(c.ink.stack) > 0 {
+		c.ink.rotated = c.ink.stack[len(c.ink.stack)-1]
+		c.ink.stack = c.ink.stack[:len(c.ink.stack)-1]
+	}
+	c.CanvasSizer.Pop()
 }
 
 // FillString draws str with its baseline starting at pt.
@@ -44,9 +76,9 @@ func (c outlined) FillString(f font.Face, pt vg.Point, str string) {
 	if len(p) > 0 {
 		c.CanvasSizer.Fill(p)
 	}
-	if c.ink != nil {
+	if c.ink != nil && c.ink.rotated == 0 {
 		ext := f.Extents()
-		*c.ink = append(*c.ink, inkBox{text: str, box: vg.Rectangle{
+		c.ink.boxes = append(c.ink.boxes, inkBox{text: str, box: vg.Rectangle{
 			Min: vg.Point{X: pt.X, Y: pt.Y - ext.Descent},
 			Max: vg.Point{X: pt.X + w, Y: pt.Y + ext.Ascent},
 		}})

@@ -35,17 +35,14 @@ func (c *Chart) drawHeader(h draw.Canvas) {
 			verdict, col = fmt.Sprintf("grading: %d of %d pairs FAIL", fail, n), failColour
 		}
 		v := textStyle(titleTextSize-1, col, true)
-		v.XAlign, v.YAlign = draw.XRight, draw.YTop
 		verdictW = v.Width(verdict) + vg.Points(12)
-		h.FillText(v, vg.Point{X: h.Max.X, Y: h.Max.Y}, verdict)
+		putText(h, v, vg.Point{X: h.Max.X, Y: h.Max.Y}, 1, 1, verdict)
 	}
 	title := textStyle(titleTextSize, inkColour, true)
-	title.YAlign = draw.YTop
-	h.FillText(title, vg.Point{X: h.Min.X, Y: h.Max.Y},
+	putText(h, title, vg.Point{X: h.Min.X, Y: h.Max.Y}, 0, 1,
 		fitText(c.atlas.in.Study.Name+" · "+chartTitle(c.Kind), &title, width-verdictW, 9))
 	sub := textStyle(subtitleSize, inkColour, false)
-	sub.YAlign = draw.YBottom
-	h.FillText(sub, vg.Point{X: h.Min.X, Y: h.Min.Y + 4}, fitText(c.Subtitle, &sub, width, 6.5))
+	putText(h, sub, vg.Point{X: h.Min.X, Y: h.Min.Y + 4}, 0, 0, fitText(c.Subtitle, &sub, width, 6.5))
 }
 
 // fitText returns text as it fits in width: in sty's size, else in a
@@ -68,9 +65,7 @@ func fitText(text string, sty *draw.TextStyle, width vg.Length, minSize vg.Lengt
 // drawFooter writes the caution every report carries.
 func drawFooter(f draw.Canvas) {
 	sty := textStyle(footerSize, passColour, false)
-	sty.YAlign = draw.YBottom
-	f.FillText(sty, vg.Point{X: f.Min.X, Y: f.Min.Y},
-		fitText(caution, &sty, f.Max.X-f.Min.X, 5))
+	putText(f, sty, vg.Point{X: f.Min.X, Y: f.Min.Y}, 0, 0, fitText(caution, &sty, f.Max.X-f.Min.X, 5))
 }
 
 // caution is the warning every report of tripgrade carries (coord/report
@@ -101,17 +96,13 @@ func (c *Chart) drawPanel(dc draw.Canvas, lay *layout) {
 	}
 	y := dc.Max.Y
 	for k, r := range rows {
-		h := r.sty.Rectangle("Mg").Size().Y
+		h := rowHeight(r.sty)
 		if y-r.gap-h < dc.Min.Y || k < len(rows)-1 && y-r.gap-2*h < dc.Min.Y {
-			sty := r.sty
-			sty.YAlign = draw.YTop
-			dc.FillText(sty, vg.Point{X: dc.Min.X, Y: y - r.gap}, "… (the findings table has every figure)")
+			putText(dc, r.sty, vg.Point{X: dc.Min.X, Y: y - r.gap}, 0, 1, "… (the findings table has every figure)")
 			return
 		}
 		y -= r.gap
-		sty := r.sty
-		sty.YAlign = draw.YTop
-		dc.FillText(sty, vg.Point{X: dc.Min.X + r.indent, Y: y}, r.text)
+		putText(dc, r.sty, vg.Point{X: dc.Min.X + r.indent, Y: y}, 0, 1, r.text)
 		if r.swatch != nil {
 			r.swatch(dc, dc.Min.X, dc.Min.X+r.indent-vg.Points(3), y-h/2)
 		}
@@ -119,10 +110,17 @@ func (c *Chart) drawPanel(dc draw.Canvas, lay *layout) {
 	}
 }
 
+// rowHeight is the height of a line of the key: the font's ascent and
+// descent and a little leading.
+func rowHeight(sty draw.TextStyle) vg.Length {
+	_, h := measure(sty, "")
+	return h + sty.Font.Size*0.08
+}
+
 func panelHeight(rows []row) vg.Length {
 	var h vg.Length
 	for _, r := range rows {
-		h += r.gap + r.sty.Rectangle("Mg").Size().Y
+		h += r.gap + rowHeight(r.sty)
 	}
 	return h
 }

@@ -171,9 +171,8 @@ func (c *Chart) drawAll(full draw.Canvas) {
 	// The current axis's name, centred under the data area: gonum/plot
 	// would centre it on the arithmetic middle of a log axis, near its
 	// right end, and narrow the plot to make room for it there.
-	sty := textStyle(axisTextSize, inkColour, false)
-	sty.XAlign, sty.YAlign = draw.XCenter, draw.YBottom
-	plotArea.FillText(sty, vg.Point{X: (f.data.Min.X + f.data.Max.X) / 2, Y: plotArea.Min.Y}, c.axisLabel())
+	putText(plotArea, textStyle(axisTextSize, inkColour, false),
+		vg.Point{X: (f.data.Min.X + f.data.Max.X) / 2, Y: plotArea.Min.Y}, 0.5, 0, c.axisLabel())
 	c.drawHeader(header)
 	c.drawPanel(panel, f.lay)
 	drawFooter(footer)

@@ -116,6 +116,32 @@ func textStyle(size vg.Length, c color.Color, bold bool) draw.TextStyle {
 	return draw.TextStyle{Color: c, Font: f, Handler: plot.DefaultTextHandler}
 }
 
+// faceOf returns the font face of a text style.
+func faceOf(sty draw.TextStyle) font.Face {
+	return sty.Handler.Cache().Lookup(sty.Font, sty.Font.Size)
+}
+
+// measure returns the box of one line of text: its advance width and the
+// font's ascent plus descent, the box the outlines are drawn in.
+func measure(sty draw.TextStyle, s string) (w, h vg.Length) {
+	f := faceOf(sty)
+	ext := f.Extents()
+	return f.Width(s), ext.Ascent + ext.Descent
+}
+
+// putText draws one line of text so that its box (see measure) has the
+// point of it given by ax and ay (0: left or bottom edge, 1: right or top
+// edge, 0.5: middle) at pt, and returns the box.
+func putText(dc draw.Canvas, sty draw.TextStyle, pt vg.Point, ax, ay float64, s string) vg.Rectangle {
+	f := faceOf(sty)
+	ext := f.Extents()
+	w, h := f.Width(s), ext.Ascent+ext.Descent
+	lo := vg.Point{X: pt.X - vg.Length(ax)*w, Y: pt.Y - vg.Length(ay)*h}
+	dc.SetColor(sty.Color)
+	dc.FillString(f, vg.Point{X: lo.X, Y: lo.Y + ext.Descent}, s)
+	return vg.Rectangle{Min: lo, Max: vg.Point{X: lo.X + w, Y: lo.Y + h}}
+}
+
 // withAlpha returns c with the given opacity.
 func withAlpha(c color.NRGBA, a uint8) color.NRGBA {
 	c.A = a
