@@ -81,6 +81,7 @@ func around(pt vg.Point, r vg.Length) vg.Rectangle {
 type placer struct {
 	lay   *layout
 	taken []vg.Rectangle
+	occ   *occupancy
 }
 
 func (p *placer) inside(r vg.Rectangle) bool {
@@ -105,28 +106,55 @@ func (p *placer) free(r vg.Rectangle) bool {
 	return true
 }
 
-// place puts l in the first free candidate box and reports whether it
-// found one; a label without a free box is listed as dropped. target,
-// when given, is the point the label names: a label placed further than
-// leaderAfter from it gets a leader line.
-func (p *placer) place(l label, boxes []vg.Rectangle, target *vg.Point) bool {
-	for _, b := range boxes {
-		if !p.free(b) {
+// placeOpts say how a label prefers its place: it should hide no curve
+// of another owner than owner (anyOwner: of any owner), preferably within
+// within of near when near is given; with leader, a label placed further
+// than leaderAfter from near gets a line to it.
+type placeOpts struct {
+	owner  int
+	near   *vg.Point
+	within vg.Length
+	leader bool
+}
+
+// place puts l in a free candidate box and reports whether it found one;
+// a label without a free box is listed as dropped. It takes the first
+// free box that hides no curve (see placeOpts) near enough, failing that
+// the first free box.
+func (p *placer) place(l label, boxes []vg.Rectangle, o placeOpts) bool {
+	pick := -1
+	for k, b := range boxes {
+		if o.near != nil && o.within > 0 && dist(nearestOn(b, *o.near), *o.near) > o.within {
 			continue
 		}
-		p.taken = append(p.taken, b)
-		pl := placedLabel{label: l, box: b}
-		if target != nil {
-			if q := nearestOn(b, *target); dist(q, *target) > leaderAfter {
-				pl.leader = &[2]vg.Point{q, *target}
-			}
+		if p.free(b) && p.occ.count(b, o.owner) == 0 {
+			pick = k
+			break
 		}
-		p.lay.placed = append(p.lay.placed, pl)
-		return true
 	}
-	p.lay.dropped = append(p.lay.dropped, strings.Join(l.lines, " "))
-	return false
+	for k := 0; pick < 0 && k < len(boxes); k++ {
+		if p.free(boxes[k]) {
+			pick = k
+		}
+	}
+	if pick < 0 {
+		p.lay.dropped = append(p.lay.dropped, strings.Join(l.lines, " "))
+		return false
+	}
+	b := boxes[pick]
+	p.taken = append(p.taken, b)
+	pl := placedLabel{label: l, box: b}
+	if o.leader && o.near != nil {
+		if q := nearestOn(b, *o.near); dist(q, *o.near) > leaderAfter {
+			pl.leader = &[2]vg.Point{q, *o.near}
+		}
+	}
+	p.lay.placed = append(p.lay.placed, pl)
+	return true
 }
+
+// anyOwner counts the curves of every owner as hidden.
+const anyOwner = -2
 
 // leaderAfter is how far a label may sit from what it names before a line
 // joins them.
@@ -142,11 +170,11 @@ func dist(a, b vg.Point) vg.Length {
 
 // layoutLabels places the chart's labels in the data area dc whose
 // transform is at: margins first (failing ones first of all), then the
-// curves drawn as seen at a worst fault, device names, fault levels,
-// loads, inrush points and damage curves.
+// curves drawn as seen at a worst fault, device names, loads, fault levels,
+// inrush points and damage curves.
 func (c *Chart) layoutLabels(area vg.Rectangle, at func(Point) vg.Point) *layout {
 	lay := &layout{area: area, obstacles: c.marks(at)}
-	p := &placer{lay: lay}
+	p := &placer{lay: lay, occ: c.curveCells(area, at)}
 	for _, fail := range []bool{true, false} {
 		for _, m := range c.margins {
 			if m.drawable && (m.f.Verdict == coord.Fail) == fail {
@@ -155,11 +183,13 @@ func (c *Chart) layoutLabels(area vg.Rectangle, at func(Point) vg.Point) *layout
 		}
 	}
 	for _, s := range c.seen {
-		l := oneLine(s.label, c.looks[s.trace.Device].colour(), false)
-		p.placeAlong(l, s.trace.Runs, at)
+		p.placeSeen(c, s, at)
 	}
 	for _, i := range c.Devices {
 		p.placeName(c, i, at)
+	}
+	for _, v := range c.loads {
+		p.placeVertical(at(Point{v.a, 1}).X, oneLine(v.label, passColour, false))
 	}
 	for _, l := range c.levels {
 		if l.label != "" {
@@ -170,24 +200,52 @@ func (c *Chart) layoutLabels(area vg.Rectangle, at func(Point) vg.Point) *layout
 			p.placeVertical(at(Point{l.a, 1}).X, oneLine(l.label, col, false))
 		}
 	}
-	for _, v := range c.loads {
-		p.placeVertical(at(Point{v.a, 1}).X, oneLine(v.label, passColour, false))
-	}
 	for _, m := range c.inrush {
 		pt := at(Point{m.a, m.timeS})
 		l := oneLine(m.label, inkColour, false)
-		gap := vg.Points(5)
-		p.place(l, []vg.Rectangle{
-			l.box(vg.Point{X: pt.X + gap, Y: pt.Y}, 0, 0.5),
-			l.box(vg.Point{X: pt.X - gap, Y: pt.Y}, 1, 0.5),
-			l.box(vg.Point{X: pt.X, Y: pt.Y + gap}, 0.5, 0),
-			l.box(vg.Point{X: pt.X, Y: pt.Y - gap}, 0.5, 1),
-		}, nil)
+		var boxes []vg.Rectangle
+		for _, gap := range []vg.Length{5, 12, 24, 40} {
+			boxes = append(boxes,
+				l.box(vg.Point{X: pt.X + gap, Y: pt.Y}, 0, 0.5),
+				l.box(vg.Point{X: pt.X - gap, Y: pt.Y}, 1, 0.5),
+				l.box(vg.Point{X: pt.X, Y: pt.Y + gap}, 0.5, 0),
+				l.box(vg.Point{X: pt.X, Y: pt.Y - gap}, 0.5, 1),
+				l.box(vg.Point{X: pt.X + gap, Y: pt.Y + gap}, 0, 0),
+				l.box(vg.Point{X: pt.X - gap, Y: pt.Y - gap}, 1, 1),
+				l.box(vg.Point{X: pt.X + gap, Y: pt.Y - gap}, 0, 1),
+				l.box(vg.Point{X: pt.X - gap, Y: pt.Y + gap}, 1, 0))
+		}
+		p.place(l, boxes, placeOpts{owner: anyOwner, near: &pt, leader: true})
 	}
 	for _, d := range c.damages {
-		p.placeAlong(oneLine(d.label, equipmentColour, false), d.runs, at)
+		p.placeAlong(oneLine(d.label, equipmentColour, false), d.runs, at, damageOwner)
 	}
 	return lay
+}
+
+// damageOwner owns the damage curves in the occupancy grid.
+const damageOwner = -1
+
+// curveCells records where the chart's curves run.
+func (c *Chart) curveCells(area vg.Rectangle, at func(Point) vg.Point) *occupancy {
+	o := newOccupancy(area)
+	for _, t := range c.traces {
+		for _, run := range t.Runs {
+			o.add(t.Device, project(run, at))
+		}
+	}
+	for _, s := range c.seen {
+		for _, run := range s.trace.Runs {
+			o.add(s.trace.Device, project(run, at))
+		}
+	}
+	for _, d := range c.damages {
+		for _, run := range d.runs {
+			o.add(damageOwner, project(run, at))
+		}
+	}
+	o.seal()
+	return o
 }
 
 // marks returns the boxes of the marks no label may cover: every margin's
@@ -255,7 +313,32 @@ func (p *placer) placeMargin(c *Chart, m margin, at func(Point) vg.Point) {
 		return cmp.Compare(dist(nearestOn(a, g.mid), g.mid), dist(nearestOn(b, g.mid), g.mid))
 	})
 	mid := g.mid
-	p.place(l, boxes, &mid)
+	p.place(l, boxes, placeOpts{owner: anyOwner, near: &mid, within: 1.2 * h, leader: true})
+}
+
+// placeSeen writes the label of a curve drawn as seen at a pair's worst
+// fault beside the curve, as near the pair's bracket as it finds room.
+func (p *placer) placeSeen(c *Chart, s seenCurve, at func(Point) vg.Point) {
+	l := oneLine(s.label, c.looks[s.trace.Device].colour(), false)
+	var top vg.Point
+	for _, m := range c.margins {
+		if m.pair == s.pair {
+			top = c.bracketGeometry(m, at).e
+		}
+	}
+	gap := vg.Points(3)
+	var boxes []vg.Rectangle
+	for _, run := range s.trace.Runs {
+		for _, pt := range run {
+			q := at(pt)
+			boxes = append(boxes, l.box(vg.Point{X: q.X + gap, Y: q.Y + gap}, 0, 0),
+				l.box(vg.Point{X: q.X - gap, Y: q.Y - gap}, 1, 1))
+		}
+	}
+	slices.SortStableFunc(boxes, func(a, b vg.Rectangle) int {
+		return cmp.Compare(dist(nearestOn(a, top), top), dist(nearestOn(b, top), top))
+	})
+	p.place(l, boxes, placeOpts{owner: s.trace.Device, near: &top, within: 45})
 }
 
 // placeName writes a device's name beside its curve, trying points of the
@@ -285,7 +368,7 @@ func (p *placer) placeName(c *Chart, i int, at func(Point) vg.Point) {
 			l.box(vg.Point{X: pt.X + gap, Y: pt.Y - gap}, 0, 1),
 			l.box(vg.Point{X: pt.X - gap, Y: pt.Y + gap}, 1, 0))
 	}
-	p.place(l, boxes, nil)
+	p.place(l, boxes, placeOpts{owner: i})
 }
 
 // verticalLanes is how many rows below the top of the plot the labels of
@@ -303,11 +386,12 @@ func (p *placer) placeVertical(x vg.Length, l label) {
 		y := p.lay.area.Max.Y - vg.Points(1) - vg.Length(lane)*(h+vg.Points(0.5))
 		boxes = append(boxes, l.box(vg.Point{X: x + gap, Y: y}, 0, 1), l.box(vg.Point{X: x - gap, Y: y}, 1, 1))
 	}
-	p.place(l, boxes, nil)
+	p.place(l, boxes, placeOpts{owner: anyOwner})
 }
 
-// placeAlong writes a label beside a curve, trying points along it.
-func (p *placer) placeAlong(l label, runs [][]Point, at func(Point) vg.Point) {
+// placeAlong writes a label beside a curve of owner, trying points along
+// it.
+func (p *placer) placeAlong(l label, runs [][]Point, at func(Point) vg.Point, owner int) {
 	var boxes []vg.Rectangle
 	gap := vg.Points(3)
 	for _, run := range runs {
@@ -317,7 +401,7 @@ func (p *placer) placeAlong(l label, runs [][]Point, at func(Point) vg.Point) {
 				l.box(vg.Point{X: pt.X - gap, Y: pt.Y - gap}, 1, 1))
 		}
 	}
-	p.place(l, boxes, nil)
+	p.place(l, boxes, placeOpts{owner: owner})
 }
 
 // currentFor returns the lowest current at which the trace reaches timeS.

@@ -178,7 +178,11 @@ func (c *Chart) loadLines() []vline {
 	}
 	var out []vline
 	for _, g := range gs {
-		text := "load " + strings.Join(g.names, ", ") + " " + fmtA(g.a)
+		who := strings.Join(g.names, ", ")
+		if len(g.names) > 2 {
+			who = g.names[0] + " … " + g.names[len(g.names)-1] // devices in a row on the path
+		}
+		text := "load " + who + " " + fmtA(g.a)
 		if !c.within(g.a) {
 			c.offAxis = append(c.offAxis, text)
 			continue

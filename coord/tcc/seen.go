@@ -104,8 +104,10 @@ func (c *Chart) upstreamCurve(u int, q coord.Quantity) (curves.Characteristic, [
 
 // seenRange returns the currents over which a seen curve is drawn: the
 // downstream device's fault levels of the current that set its time (the
-// faults the pair is graded over), with some room, and the worst fault's,
-// within the axis.
+// faults the pair is graded over), with some room, but no further than a
+// factor of three either side of the worst fault, and within the axis. A
+// short stretch through the bracket is what the curve is for; drawn
+// across the whole chart it would be one more long line to tell apart.
 func (c *Chart) seenRange(m margin) (lo, hi float64) {
 	d := m.pair.Downstream
 	lo, hi = m.dA/2, m.dA*2
@@ -113,6 +115,7 @@ func (c *Chart) seenRange(m margin) (lo, hi float64) {
 		a := x.a * c.factor(d)
 		lo, hi = math.Min(lo, a/1.5), math.Max(hi, a*1.5)
 	}
+	lo, hi = math.Max(lo, m.dA/3), math.Min(hi, m.dA*3)
 	return math.Max(lo, c.xMin), math.Min(hi, c.xMax)
 }
 
