@@ -1,7 +1,9 @@
 package tcc
 
 import (
+	"cmp"
 	"image/color"
+	"slices"
 
 	stdfont "golang.org/x/image/font"
 
@@ -21,9 +23,14 @@ var deviceColours = [...]color.NRGBA{
 	{0xE6, 0x9F, 0x00, 0xFF}, // orange
 	{0x00, 0x9E, 0x73, 0xFF}, // bluish green
 	{0xCC, 0x79, 0xA7, 0xFF}, // reddish purple
-	{0x56, 0xB4, 0xE9, 0xFF}, // sky blue
 	{0x00, 0x00, 0x00, 0xFF}, // black
+	{0x56, 0xB4, 0xE9, 0xFF}, // sky blue
 }
+
+// akin pairs the palette's colours that are told apart least easily (blue
+// and sky blue differ in lightness more than in hue): two devices drawn
+// together get such a pair only when no other colour is free.
+var akin = map[int]int{0: 5, 5: 0}
 
 // deviceDashes are the line patterns that tell apart devices drawn in one
 // colour: solid first, so that up to six devices differ by colour alone.
@@ -149,42 +156,61 @@ func withAlpha(c color.NRGBA, a uint8) color.NRGBA {
 }
 
 // assignStyles gives every device of a study a look, the same in every
-// chart of the study where it can be. Devices are taken in study order;
-// each gets the first look whose colour no device it is drawn with holds
-// yet, or failing that the first look none of them holds, or failing that
-// (more than styleCount devices drawn together) look 0; Chart.styles
-// settles what remains within one chart. So devices drawn together differ
-// in colour wherever the palette allows, and a device keeps its colour
-// from chart to chart.
+// chart of the study where it can be. Devices are taken most-drawn-with
+// first (the order of Welsh and Powell's colouring; study order among
+// equals), and each gets the first look whose colour no device it is
+// drawn with holds yet, preferring colours not akin to theirs; failing
+// that the first look none of them holds; failing that (more than
+// styleCount devices drawn together) look 0, and Chart.styles settles what
+// remains within one chart. So devices drawn together differ in colour
+// wherever the palette allows, and a device keeps its colour from chart to
+// chart.
 func assignStyles(nDevices int, groups [][]int) []int {
-	together := make([][]int, nDevices)
+	together := make([]map[int]bool, nDevices)
+	for i := range together {
+		together[i] = map[int]bool{}
+	}
 	for _, g := range groups {
 		for _, a := range g {
 			for _, b := range g {
 				if a != b {
-					together[a] = append(together[a], b)
+					together[a][b] = true
 				}
 			}
 		}
 	}
+	order := make([]int, nDevices)
+	for i := range order {
+		order[i] = i
+	}
+	slices.SortStableFunc(order, func(a, b int) int { return cmp.Compare(len(together[b]), len(together[a])) })
 	slot := make([]int, nDevices)
-	for i := range slot {
+	done := make([]bool, nDevices)
+	for _, i := range order {
 		var heldLook [styleCount]bool
 		var heldColour [len(deviceColours)]bool
-		for _, j := range together[i] {
-			if j < i {
+		for j := range together[i] {
+			if done[j] {
 				heldLook[slot[j]] = true
 				heldColour[styleOf(slot[j]).Colour] = true
 			}
 		}
 		slot[i] = firstFree(heldLook[:], heldColour[:])
+		done[i] = true
 	}
 	return slot
 }
 
-// firstFree returns the first look with a colour not held, else the first
-// look not held, else 0.
+// firstFree returns the first look with a colour not held and not akin to
+// one held, else the first with a colour not held, else the first look
+// not held, else 0.
 func firstFree(heldLook, heldColour []bool) int {
+	for k := range heldLook {
+		c := styleOf(k).Colour
+		if a, ok := akin[c]; !heldLook[k] && !heldColour[c] && !(ok && heldColour[a]) {
+			return k
+		}
+	}
 	for k := range heldLook {
 		if !heldLook[k] && !heldColour[styleOf(k).Colour] {
 			return k
