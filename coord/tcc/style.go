@@ -161,7 +161,7 @@ func withAlpha(c color.NRGBA, a uint8) color.NRGBA {
 // equals), and each gets the first look whose colour no device it is
 // drawn with holds yet, preferring colours not akin to theirs; failing
 // that the first look none of them holds; failing that (more than
-// styleCount devices drawn together) look 0, and Chart.styles settles what
+// styleCount devices drawn together) look 0, and Chart.chartLooks settles what
 // remains within one chart. So devices drawn together differ in colour
 // wherever the palette allows, and a device keeps its colour from chart to
 // chart.
