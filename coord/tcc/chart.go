@@ -83,7 +83,7 @@ func (c *Chart) pathSubtitle(names []string) string {
 	n := a.in.Study.Network
 	switch {
 	case sp.kind == coord.Residual && !slices.Equal(sp.devices, []int(sp.path)):
-		s += "; of path " + whole[0] + " to " + whole[len(whole)-1] + ", the devices residual current reaches"
+		s += ": the ground stages on this part of the path that residual current reaches"
 	case sp.below >= 0 && sp.above >= 0:
 		s += "; part of path " + whole[0] + " to " + whole[len(whole)-1] + ", split at " + n.BranchName(sp.below) + " and " + n.BranchName(sp.above)
 	case sp.below >= 0 || sp.above >= 0:

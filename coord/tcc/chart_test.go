@@ -257,7 +257,7 @@ func TestFailingPairGetsItsChart(t *testing.T) {
 		m.dS != f.Fault.DeviceS || m.uS != f.Fault.OtherS {
 		t.Errorf("margin %+v, want the finding's point %+v with the upstream current ×3", m, *f.Fault)
 	}
-	if got := marginText(f); !strings.Contains(got, " < 0.30 s") {
+	if got := marginText(f); !strings.Contains(got, " < 0.30\u00a0s") {
 		t.Errorf("margin text %q, want it to say it is below 0.30 s", got)
 	}
 	var buf bytes.Buffer

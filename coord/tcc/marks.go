@@ -50,18 +50,19 @@ type margin struct {
 	drawable bool
 }
 
-// fmtA formats a current compactly: "97 A", "190 A", "5.58 kA", "1.16 MA";
-// a current that is not there is "none", never a figure.
+// fmtA formats a current compactly: "97 A", "190 A", "5.58 kA", "1.16 MA",
+// the figure and its unit joined by a no-break space; a current that is
+// not there is "none", never a figure.
 func fmtA(a float64) string {
 	switch {
 	case !(a > 0) || math.IsInf(a, 0):
 		return "none"
 	case a >= 999.5e3:
-		return fmt.Sprintf("%.3g MA", a/1e6)
+		return fmt.Sprintf("%.3g\u00a0MA", a/1e6)
 	case a >= 999.5:
-		return fmt.Sprintf("%.3g kA", a/1000)
+		return fmt.Sprintf("%.3g\u00a0kA", a/1000)
 	}
-	return fmt.Sprintf("%.3g A", a)
+	return fmt.Sprintf("%.3g\u00a0A", a)
 }
 
 // extreme is one fault level of a device in its own amperes.
@@ -103,12 +104,18 @@ func (a *Atlas) levelsOf(i int, q coord.Quantity) []extreme {
 }
 
 // faultLevels collects the drawn devices' fault levels of the chart's
-// kind that lie on the axis. Levels of several devices at one current
-// share one label; the rest are named in the key.
+// kind that lie on the axis, but not those of a last device that
+// continues on the next part's chart. Levels of several devices at one
+// current share one label; levels off the axis are named in the key.
 func (c *Chart) faultLevels() []level {
 	s := c.atlas.in.Study
 	var out []level
-	for _, i := range c.Devices {
+	for k, i := range c.Devices {
+		if c.spec.overlapTop && k == len(c.Devices)-1 && k > 0 {
+			// Its fault levels are those of the next part of the path,
+			// drawn on that part's chart.
+			continue
+		}
 		for _, x := range c.atlas.levelsOf(i, c.Kind) {
 			l := level{device: i, max: x.max, deviceA: x.a, a: x.a * c.factor(i)}
 			if !c.within(l.a) {
@@ -359,7 +366,7 @@ func marginText(f *coord.Finding) string {
 	for _, prec := range []int{2, 3} {
 		m, r := fmtS(f.Measured, prec), fmtS(f.Required, prec)
 		if m != r || prec == 3 {
-			return m + " s " + rel + " " + r + " s"
+			return nb(m+" s") + " " + rel + " " + nb(r+" s")
 		}
 	}
 	return ""

@@ -208,8 +208,8 @@ func (c *Chart) marginRows(m margin, size, swatchW, scale vg.Length, plain draw.
 			where += " (swept)"
 		}
 		add(where, plain, swatchW/2, 0, nil)
-		add(fmt.Sprintf("%s %s in %s s; %s %s in %s s", d, qtyA(r.DeviceA, r.DeviceQty), fmtS(r.DeviceS, 3),
-			u, qtyA(r.OtherA, r.OtherQty), fmtS(r.OtherS, 3)), plain, swatchW/2, 0, nil)
+		add(fmt.Sprintf("%s %s in %s; %s %s in %s", d, qtyA(r.DeviceA, r.DeviceQty), nb(fmtS(r.DeviceS, 3)+" s"),
+			u, qtyA(r.OtherA, r.OtherQty), nb(fmtS(r.OtherS, 3)+" s")), plain, swatchW/2, 0, nil)
 		for _, sc := range c.seen {
 			if sc.pair == m.pair {
 				add(fmt.Sprintf("%s sees %s × %s's current here (referred): its curve is drawn thin for this fault, through the bracket's top",
@@ -325,7 +325,7 @@ func (c *Chart) ownLevels(i int) string {
 // qtyA formats a device's current at a fault, marking a residual one.
 func qtyA(a float64, q coord.Quantity) string {
 	if q == coord.Residual {
-		return fmtA(a) + " 3I0"
+		return fmtA(a) + "\u00a03I0"
 	}
 	return fmtA(a)
 }
