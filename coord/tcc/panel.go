@@ -212,7 +212,7 @@ func (c *Chart) marginRows(m margin, size, swatchW, scale vg.Length, plain draw.
 			u, qtyA(r.OtherA, r.OtherQty), nb(fmtS(r.OtherS, 3)+" s")), plain, swatchW/2, 0, nil)
 		for _, sc := range c.seen {
 			if sc.pair == m.pair {
-				add(fmt.Sprintf("%s sees %s × %s's current here (referred): its curve is drawn thin for this fault, through the bracket's top",
+				add(fmt.Sprintf("%s sees %s × %s's current here (referred): thin curve through the bracket's top",
 					u, factorText(sc.factor, c.atlas.starDeltaBetween(m.pair.Upstream, m.pair.Downstream) >= 0), d),
 					plain, swatchW/2, 0, nil)
 			}
