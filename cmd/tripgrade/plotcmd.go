@@ -65,6 +65,9 @@ when written; 2 when the study, the device or the command line is wrong.`)
 		return c.fail(stderr, exitUsage, "%s", msg)
 	}
 	charts := a.PathCharts(i)
+	if len(charts) == 0 {
+		return c.fail(stderr, exitUsage, "device %q is on no chart: it has no phase stage, and no fault of its zone drives residual current through its ground stages", *device)
+	}
 	kinds := make([]coord.Quantity, len(charts))
 	for k, ch := range charts {
 		kinds[k] = ch.Kind

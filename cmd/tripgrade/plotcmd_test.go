@@ -103,6 +103,20 @@ func TestPlotDefaultOutIsTheSafeDeviceName(t *testing.T) {
 	}
 }
 
+// TestPlotDeviceOnNoChart: a relay whose only stage is a ground stage that
+// no residual current reaches (an unearthed system) is on no chart; the
+// command says so rather than write nothing and exit 0.
+func TestPlotDeviceOnNoChart(t *testing.T) {
+	path := studyCopy(t, func(s string) string {
+		s = strings.Replace(s, "z0_z1 = 1", "earthed = false", 1)
+		return strings.Replace(s, "  measures = \"phase\"\n  curve = \"iec-si\"\n  pickup_a = 100", "  measures = \"ground\"\n  curve = \"iec-si\"\n  pickup_a = 100", 1)
+	})
+	code, stdout, stderr := runArgs("plot", path, "--device", "R33", "--out", filepath.Join(t.TempDir(), "r33.png"))
+	if code != exitUsage || stdout != "" || !strings.Contains(stderr, `device "R33" is on no chart`) {
+		t.Errorf("exit %d, stdout %q, stderr %q; want exit %d and a word on why", code, stdout, stderr, exitUsage)
+	}
+}
+
 func TestPlotErrors(t *testing.T) {
 	cases := []struct {
 		name string
