@@ -156,4 +156,3 @@ func (t Trace) currentFor(timeS float64) (float64, bool) {
 	}
 	return 0, false
 }
-
