@@ -61,6 +61,11 @@ type Settings struct {
 	// low-voltage (≤ 1 kV) systems with a +10 % voltage tolerance
 	// (c_max 1.10, c_min 0.90) instead of +6 % (c_max 1.05, c_min 0.95).
 	LVTolerance10 bool
+	// MinTimeDelayS is the minimum time delay t_min of IEC 60909-0 for the
+	// symmetrical breaking current (shortest relay time plus breaker
+	// opening time); 0 means 0.02 s, the shortest the standard's factors
+	// cover and the one that gives the largest breaking current.
+	MinTimeDelayS float64
 	// EarthFaultOhm is the fault resistance of LG and LLG faults in the
 	// minimum case on systems above 1 kV (0: bolted). Maximum-case faults
 	// are always bolted.

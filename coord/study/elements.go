@@ -88,7 +88,9 @@ func (b *builder) checkTopology() {
 		if se, ok := err.(*faults.ShiftLoopError); ok {
 			path := b.branchPath(se.Branch)
 			kind := "line"
-			if strings.HasPrefix(path, "transformer") {
+			if strings.HasPrefix(path, "transformer3") {
+				kind = "transformer3"
+			} else if strings.HasPrefix(path, "transformer") {
 				kind = "transformer"
 			}
 			b.errorf(b.lines.table(path), fmt.Sprintf("%s %q", kind, se.Branch),
@@ -98,6 +100,9 @@ func (b *builder) checkTopology() {
 }
 
 func (b *builder) branchPath(name string) string {
+	if p, ok := b.starPath[name]; ok {
+		return p
+	}
 	k, ok := b.branch[name]
 	if !ok {
 		return ""
