@@ -78,8 +78,20 @@ func (b *builder) buildUnits() {
 		}
 		k, ok := b.branch[r.UnitTransformer]
 		nl := len(b.net.Lines)
-		if !ok || k < nl || k >= nl+len(b.net.Transformers) {
-			b.fail(w, "unit_transformer", "unit_transformer = %q: no two-winding transformer of that name%s", r.UnitTransformer, b.closest(r.UnitTransformer, b.branch))
+		_, three := b.unit3[r.UnitTransformer]
+		switch {
+		case ok && k < nl:
+			b.fail(w, "unit_transformer", "unit_transformer = %q is a line: name the generator's two-winding unit transformer", r.UnitTransformer)
+			continue
+		case three:
+			b.fail(w, "unit_transformer", "unit_transformer = %q is a three-winding transformer: a unit transformer has two windings here", r.UnitTransformer)
+			continue
+		case !ok:
+			names := map[string]int{}
+			for i, t := range b.net.Transformers {
+				names[t.Name] = i
+			}
+			b.fail(w, "unit_transformer", "unit_transformer = %q: no two-winding transformer of that name%s", r.UnitTransformer, b.closest(r.UnitTransformer, names))
 			continue
 		}
 		u := &faults.StationUnit{Transformer: k - nl}
