@@ -240,16 +240,16 @@ type (
 			PhaseFaultOhm   float64 `json:"phase_fault_ohm"`
 			EndTempC        float64 `json:"end_temp_c"`
 		} `json:"settings"`
-		Buses        []jsonBus         `json:"buses"`
-		Sources      []jsonSource      `json:"sources"`
+		Buses         []jsonBus          `json:"buses"`
+		Sources       []jsonSource       `json:"sources"`
 		Generators    []jsonGenerator    `json:"generators"`
 		Motors        []jsonMotor        `json:"motors"`
 		Lines         []jsonLine         `json:"lines"`
 		Transformers  []jsonTransformer  `json:"transformers"`
 		Transformers3 []jsonTransformer3 `json:"transformers3"`
 		Earthings     []jsonEarthing     `json:"earthings"`
-		Points       []jsonPoint       `json:"points"`
-		Places       []jsonPlace       `json:"places"`
+		Points        []jsonPoint        `json:"points"`
+		Places        []jsonPlace        `json:"places"`
 	}
 	jsonBus struct {
 		Name     string  `json:"name"`
@@ -306,14 +306,14 @@ type (
 	// windings HV, MV, LV, and the branch indices the engine gives its
 	// windings (its star point is the engine's; the script has none).
 	jsonTransformer3 struct {
-		Buses    [3]int         `json:"buses"`
-		KV       [3]float64     `json:"kv"`
-		Pairs    [3]jsonPair    `json:"pairs"` // HV–MV, HV–LV, MV–LV
-		Group    string         `json:"vector_group"`
-		Neutrals [3]jsonNeutral `json:"neutrals"`
-		Branches     [3]int `json:"branches"`
-		Star         int    `json:"star_bus"`
-		NotCorrected bool   `json:"not_corrected"`
+		Buses        [3]int         `json:"buses"`
+		KV           [3]float64     `json:"kv"`
+		Pairs        [3]jsonPair    `json:"pairs"` // HV–MV, HV–LV, MV–LV
+		Group        string         `json:"vector_group"`
+		Neutrals     [3]jsonNeutral `json:"neutrals"`
+		Branches     [3]int         `json:"branches"`
+		Star         int            `json:"star_bus"`
+		NotCorrected bool           `json:"not_corrected"`
 	}
 	jsonLine struct {
 		Name     string      `json:"name"`
