@@ -3,6 +3,7 @@ package faults_test
 import (
 	"fmt"
 	"math"
+	"runtime"
 	"testing"
 
 	"tripgrade/coord"
@@ -269,4 +270,54 @@ func twoWindingOhm(tr *faults.Transformer, kv float64) complex128 {
 func polar(mag, xr float64) complex128 {
 	r := mag / math.Sqrt(1+xr*xr)
 	return complex(r, r*xr)
+}
+
+// TestAllDutiesMatchDuty: the all-bus computation (a column of the bus
+// impedance matrix per machine bus) gives every bus the figures of the
+// single-bus one (transfer impedances one by one), on the test network and
+// on a generated network with three-winding transformers, motors and power
+// station units, and does not depend on the number of CPUs.
+func TestAllDutiesMatchDuty(t *testing.T) {
+	_, iec := iecTestNetwork(t)
+	net, _ := generateMachineNetwork(5, 300)
+	gen, err := faults.New(net, faults.Settings{MinTimeDelayS: 0.05})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, eng := range []*faults.Engine{iec, gen} {
+		all, err := eng.AllDuties()
+		if err != nil {
+			t.Fatal(err)
+		}
+		decayed := 0
+		for k, d := range all {
+			one, err := eng.Duty(k)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if eng.Network().Buses[k].Internal {
+				one = faults.Duty{Bus: k}
+			}
+			if d.IkA != one.IkA || d.PeakA != one.PeakA || d.SteadyA != one.SteadyA || math.Abs(d.BreakingA-one.BreakingA) > 1e-9*d.IkA {
+				t.Errorf("bus %s: AllDuties %+v, Duty %+v", eng.Network().Buses[k].Name, d, one)
+			}
+			if d.BreakingA < d.IkA {
+				decayed++
+			}
+		}
+		if decayed == 0 {
+			t.Error("no bus's breaking current decays: the comparison checks nothing")
+		}
+		prev := runtime.GOMAXPROCS(1)
+		one, err := eng.AllDuties()
+		runtime.GOMAXPROCS(prev)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for k := range all {
+			if one[k] != all[k] {
+				t.Errorf("bus %d: %+v on one CPU, %+v on %d", k, one[k], all[k], prev)
+			}
+		}
+	}
 }
