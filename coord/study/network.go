@@ -24,6 +24,7 @@ type builder struct {
 	unit3      map[string]int    // three-winding transformer name → index
 	unitRaw    []where           // each generator's place, for its unit transformer
 	starPath   map[string]string // star branch name → its transformer3's table path
+	starOf     map[string]string // star branch name → "transformer3 "T3": its HV winding"
 	branchSeen map[string]int    // branch names → line, for duplicates
 	deviceSeen map[string]int    // relay and fuse names → line
 	relayRaw   []relayOrigin

@@ -61,6 +61,7 @@ func (b *builder) buildTransformers3() {
 			}
 			b.st.Equipment = append(b.st.Equipment, nil)
 			b.starPath[b.net.BranchName(br)] = w.path
+			b.starOf[b.net.BranchName(br)] = fmt.Sprintf("its %s winding", faults.WindingName(wd))
 		}
 		if named {
 			b.unit3[r.Name] = k
