@@ -191,7 +191,7 @@ func transformer3Blocks(n *Network, set Settings, cs Case, t *Transformer3, v vi
 		un := n.Buses[t.Buses[w]].KV
 		tap := (t.KV[w] / un) / (t.KV[HV] / unStar)
 		if cmplx.Abs(z1[w]) < zeroStarShare*scale {
-			return blk, fmt.Errorf("transformer %q: the star branch of its %s winding has no impedance (the pair impedances add up exactly); the engine cannot represent it: check u_k of the three pairs", t.Name, WindingName(w))
+			return blk, fmt.Errorf("three-winding transformer %q: the star branch of its %s winding has no impedance (the pair impedances add up exactly); the engine cannot represent it: check u_k of the three pairs", t.Name, WindingName(w))
 		}
 		blk[w][pos] = seriesBlock(complex(1/zbStar, 0)*v.z(z1[w]), tap)
 		blk[w][neg] = blk[w][pos]
@@ -204,12 +204,12 @@ func transformer3Blocks(n *Network, set Settings, cs Case, t *Transformer3, v vi
 		case EarthedStar:
 			z := z0[w] + 3*t.Neutral[w].ZOhm*complex(ref*ref, 0)
 			if cmplx.Abs(z) < zeroStarShare*scale {
-				return blk, fmt.Errorf("transformer %q: the zero-sequence star branch of its %s winding has no impedance; check the zero-sequence data of the pairs", t.Name, WindingName(w))
+				return blk, fmt.Errorf("three-winding transformer %q: the zero-sequence star branch of its %s winding has no impedance; check the zero-sequence data of the pairs", t.Name, WindingName(w))
 			}
 			blk[w][zero] = seriesBlock(z/complex(zbStar, 0), tap)
 		case Delta:
 			if cmplx.Abs(z0[w]) < zeroStarShare*scale {
-				return blk, fmt.Errorf("transformer %q: the zero-sequence star branch of its %s (delta) winding has no impedance; check the zero-sequence data of the pairs", t.Name, WindingName(w))
+				return blk, fmt.Errorf("three-winding transformer %q: the zero-sequence star branch of its %s (delta) winding has no impedance; check the zero-sequence data of the pairs", t.Name, WindingName(w))
 			}
 			blk[w][zero] = block{tt: complex(zbStar, 0) / z0[w]}
 		}
