@@ -98,8 +98,8 @@ func (b *builder) checkTopology() {
 		if se, ok := err.(*faults.ShiftLoopError); ok {
 			path := b.branchPath(se.Branch)
 			element, what := fmt.Sprintf("line %q", se.Branch), "closes"
-			if winding, ok := b.starOf[se.Branch]; ok {
-				element, what = fmt.Sprintf("transformer3 %q", b.raw.Transf3[b.starIndex(path)].Name), winding+" closes"
+			if ref, ok := b.starOf[se.Branch]; ok {
+				element, what = fmt.Sprintf("transformer3 %q", ref.unit), "its "+ref.winding+" winding closes"
 			} else if strings.HasPrefix(path, "transformer") {
 				element = fmt.Sprintf("transformer %q", se.Branch)
 			}
@@ -126,14 +126,6 @@ func (b *builder) internal(name string) bool {
 		}
 	}
 	return false
-}
-
-// starIndex returns the index in the file's [[transformer3]] tables of a
-// table path "transformer3[i]".
-func (b *builder) starIndex(path string) int {
-	var i int
-	fmt.Sscanf(path, "transformer3[%d]", &i)
-	return i
 }
 
 func (b *builder) branchPath(name string) string {

@@ -21,12 +21,12 @@ type builder struct {
 	bus    map[string]int // bus name → index
 	branch map[string]int // line or transformer name → branch index
 
-	unit3      map[string]int    // three-winding transformer name → index
-	unitRaw    []where           // each generator's place, for its unit transformer
-	starPath   map[string]string // star branch name → its transformer3's table path
-	starOf     map[string]string // star branch name → "transformer3 "T3": its HV winding"
-	branchSeen map[string]int    // branch names → line, for duplicates
-	deviceSeen map[string]int    // relay and fuse names → line
+	unit3      map[string]int     // three-winding transformer name → index
+	unitRaw    []where            // each generator's place, for its unit transformer
+	starPath   map[string]string  // star branch name → its transformer3's table path
+	starOf     map[string]starRef // star branch name → its transformer and winding
+	branchSeen map[string]int     // branch names → line, for duplicates
+	deviceSeen map[string]int     // relay and fuse names → line
 	relayRaw   []relayOrigin
 	badRef     bool         // some element refers to a bus that does not exist
 	branchBad  map[int]bool // branches whose ends are already reported wrong

@@ -49,7 +49,7 @@ func Parse(name string, src []byte, dir fs.FS) (*coord.Study, error) {
 		branch:     map[string]int{},
 		unit3:      map[string]int{},
 		starPath:   map[string]string{},
-		starOf:     map[string]string{},
+		starOf:     map[string]starRef{},
 		deviceSeen: map[string]int{},
 		branchBad:  map[int]bool{},
 	}

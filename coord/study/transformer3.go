@@ -14,6 +14,10 @@ var (
 	pairKeys    = [3]string{faults.HVMV: "hv_mv", faults.HVLV: "hv_lv", faults.MVLV: "mv_lv"}
 )
 
+// starRef names the three-winding transformer and winding of a star
+// branch, for messages.
+type starRef struct{ unit, winding string }
+
 // buildTransformers3 reads the three-winding transformers. Each becomes
 // three star branches after the two-winding transformers, and an internal
 // star-point bus; devices name the transformer and the bus of the winding
@@ -61,7 +65,7 @@ func (b *builder) buildTransformers3() {
 			}
 			b.st.Equipment = append(b.st.Equipment, nil)
 			b.starPath[b.net.BranchName(br)] = w.path
-			b.starOf[b.net.BranchName(br)] = fmt.Sprintf("its %s winding", faults.WindingName(wd))
+			b.starOf[b.net.BranchName(br)] = starRef{unit: r.Name, winding: faults.WindingName(wd)}
 		}
 		if named {
 			b.unit3[r.Name] = k
