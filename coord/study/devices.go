@@ -18,9 +18,19 @@ func (b *builder) point(w where, branch, at string) (faults.Point, bool) {
 		b.fail(w, "branch", "branch is missing (the line or transformer the device looks into)")
 		return faults.Point{}, false
 	}
+	if k, ok := b.unit3[branch]; ok {
+		return b.point3(w, branch, at, k)
+	}
 	k, ok := b.branch[branch]
 	if !ok {
-		b.fail(w, "branch", "branch = %q: no line or transformer of that name%s", branch, b.closest(branch, b.branch))
+		known := make(map[string]int, len(b.branch)+len(b.unit3))
+		for n, v := range b.branch {
+			known[n] = v
+		}
+		for n, v := range b.unit3 {
+			known[n] = v
+		}
+		b.fail(w, "branch", "branch = %q: no line or transformer of that name%s", branch, b.closest(branch, known))
 		return faults.Point{}, false
 	}
 	if b.branchBad[k] {

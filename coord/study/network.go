@@ -21,8 +21,12 @@ type builder struct {
 	bus    map[string]int // bus name → index
 	branch map[string]int // line or transformer name → branch index
 
-	branchSeen map[string]int // branch names → line, for duplicates
-	deviceSeen map[string]int // relay and fuse names → line
+	unit3      map[string]int     // three-winding transformer name → index
+	unitRaw    []where            // each generator's place, for its unit transformer
+	starPath   map[string]string  // star branch name → its transformer3's table path
+	starOf     map[string]starRef // star branch name → its transformer and winding
+	branchSeen map[string]int     // branch names → line, for duplicates
+	deviceSeen map[string]int     // relay and fuse names → line
 	relayRaw   []relayOrigin
 	badRef     bool         // some element refers to a bus that does not exist
 	branchBad  map[int]bool // branches whose ends are already reported wrong
@@ -243,6 +247,13 @@ func (b *builder) buildGenerators() {
 		}
 		g.X2Pct = b.optional(w, "x2_pct", r.X2Pct, 0, 0, 100, true)
 		g.RPct = b.optional(w, "r_pct", r.RPct, 0, 0, 100, true)
+		if r.ROhm != nil {
+			if r.RPct != nil {
+				b.fail(w, "r_ohm", "give r_pct or r_ohm, not both")
+			} else if rOhm := b.optional(w, "r_ohm", r.ROhm, 0, 0, math.Inf(1), true); rOhm > 0 && g.MVA > 0 && g.KV > 0 {
+				g.RPct = rOhm / (g.KV * g.KV / g.MVA) * 100
+			}
+		}
 		g.PF = b.optional(w, "pf", r.PF, defaultGeneratorPF, 0, 1, true)
 		g.InMax = boolOr(r.InMax, true)
 		g.InMin = boolOr(r.AlwaysRunning, false)
@@ -259,6 +270,7 @@ func (b *builder) buildGenerators() {
 			b.fail(w, "neutral_ohm", "neutral_ohm is given but the generator is not earthed (add earthed = true)")
 		}
 		b.net.Generators = append(b.net.Generators, g)
+		b.unitRaw = append(b.unitRaw, w)
 	}
 }
 

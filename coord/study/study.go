@@ -48,6 +48,9 @@ func Parse(name string, src []byte, dir fs.FS) (*coord.Study, error) {
 		st:         &coord.Study{},
 		bus:        map[string]int{},
 		branch:     map[string]int{},
+		unit3:      map[string]int{},
+		starPath:   map[string]string{},
+		starOf:     map[string]starRef{},
 		deviceSeen: map[string]int{},
 		branchBad:  map[int]bool{},
 	}
@@ -68,6 +71,9 @@ func (b *builder) build(dir fs.FS) {
 	b.buildGenerators()
 	b.buildLines()
 	b.buildTransformers()
+	b.buildTransformers3()
+	b.buildUnits()
+	b.buildMotors()
 	b.buildEarthings()
 	b.buildLoads()
 	if len(b.raw.Sources) == 0 && len(b.raw.Generators) == 0 {
@@ -148,6 +154,7 @@ func (b *builder) buildStudy() {
 	}
 	b.voltageFactors(w, r)
 	b.st.Faults.EndTempC = b.optional(w, "conductor_end_temp_c", r.EndTempC, 0, 20, 400, false)
+	b.st.Faults.MinTimeDelayS = b.optional(w, "min_time_delay_s", r.MinTimeDelayS, 0, 0.02, 10, false)
 	for _, f := range r.LinePositions {
 		if !(f > 0 && f < 1) {
 			b.fail(w, "line_fault_positions", "line_fault_positions must lie strictly between 0 and 1 (got %g)", f)
