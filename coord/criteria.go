@@ -47,6 +47,13 @@ type Criteria struct {
 	// ShortDelayS: definite-time stages with a delay up to this are checked
 	// for reach like instantaneous stages.
 	ShortDelayS float64
+	// InstantaneousTimeS is the operating time of instantaneous stages
+	// (50, 50N), from fault inception to the trip output, for relays that
+	// do not give their own: numerical relays' instantaneous elements
+	// typically take one to two cycles (common practice: 0.02–0.04 s). It
+	// is added to a stage's intentional delay, so that margins and
+	// clearing times with an instantaneous stage are real times, not 0 s.
+	InstantaneousTimeS float64
 	// InrushMultiple and InrushTimeS place the transformer magnetising
 	// inrush point (common practice 8–12 × full-load current for 0.1 s).
 	InrushMultiple float64
@@ -71,6 +78,7 @@ func DefaultCriteria() Criteria {
 		LoadFactor:          1.25,
 		InstantaneousFactor: 1.25,
 		ShortDelayS:         0.1,
+		InstantaneousTimeS:  0.03,
 		InrushMultiple:      12,
 		InrushTimeS:         0.1,
 	}

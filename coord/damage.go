@@ -2,6 +2,7 @@ package coord
 
 import (
 	"fmt"
+	"math"
 
 	"tripgrade/curves"
 	"tripgrade/faults"
@@ -24,11 +25,22 @@ func (c *checker) owners() []int {
 	return own
 }
 
+// damageSubject is one piece of equipment as the damage check judges it:
+// its withstand, where its current is measured, the faults it carries
+// and what the note must say about the withstand.
+type damageSubject struct {
+	name      string
+	withstand curves.Characteristic
+	at        faults.Point
+	places    []faults.Place
+	note      string
+}
+
 // damage: for every transformer and cable with withstand data, the device
-// whose zone holds it clears every through-fault (transformer: faults at
-// its low-voltage terminals; cable: every fault of the zone that flows
-// through it) before the withstand time, over the solved faults and a
-// sweep between them.
+// whose zone holds it clears every through-fault before the withstand
+// time, over the solved faults and their sweep. A transformer is judged
+// on every fault of the device's zone beyond it, a cable on every fault of
+// the device's zone that flows through it.
 func (c *checker) damage() ([]Finding, error) {
 	n := c.s.Network
 	var out []Finding
@@ -46,39 +58,181 @@ func (c *checker) damage() ([]Finding, error) {
 			continue
 		}
 		down := c.topo.Downstream[b]
-		var withstand curves.Characteristic
-		var places []faults.Place
-		var at faults.Point
+		sub := damageSubject{name: name}
 		if eq.Damage[0] != nil {
-			side := 0
-			if down == faults.To {
-				side = 1
+			var err error
+			if sub, err = c.transformerSubject(b, eq, dev); err != nil {
+				return nil, err
 			}
-			withstand = eq.Damage[side]
-			places = []faults.Place{faults.AtBus(pointBus(n, faults.Point{Branch: b, End: down}))}
-			at = faults.Point{Branch: b, End: down}
 		} else {
-			withstand = eq.Cable
-			places = c.places[dev]
-			at = faults.Point{Branch: b, End: otherEnd(down)}
+			sub.withstand = eq.Cable
+			sub.places = c.places[dev]
+			sub.at = faults.Point{Branch: b, End: otherEnd(down)}
 		}
-		f, err := c.damageOf(dev, name, withstand, places, at)
+		f, err := c.damageOf(dev, sub)
 		if err != nil {
 			return nil, err
+		}
+		out = append(out, f)
+	}
+	// Three-winding transformers have no through-fault withstand curve
+	// here: say so rather than let their absence read as checked.
+	for i := range n.Transformers3 {
+		f := unchecked(Damage, "no through-fault withstand curve for a three-winding transformer: check its windings by hand")
+		f.Device, f.Other = "-", n.Transformers3[i].Name
+		if dev := own[n.StarBranch(i, faults.HV)]; dev >= 0 {
+			f.Device = c.s.Devices[dev].Name
 		}
 		out = append(out, f)
 	}
 	return out, nil
 }
 
-func (c *checker) damageOf(dev int, equip string, withstand curves.Characteristic, places []faults.Place, at faults.Point) (Finding, error) {
+// transformerSubject prepares a transformer for the damage check: its
+// withstand on the downstream side (for categories III and IV with the
+// source impedance of IEEE C57.109's mechanical part), measured at its
+// downstream terminal, over the faults of the device's zone beyond it.
+func (c *checker) transformerSubject(b int, eq *Equipment, dev int) (damageSubject, error) {
+	n := c.s.Network
+	down := c.topo.Downstream[b]
+	side := 0
+	if down == faults.To {
+		side = 1
+	}
+	sub := damageSubject{name: n.BranchName(b), withstand: eq.Damage[side], at: faults.Point{Branch: b, End: down}}
+	sub.note = fmt.Sprintf("IEEE C57.109 category %s", eq.Category)
+	if tf, ok := sub.withstand.(*curves.ThroughFault); ok && eq.Category >= curves.CategoryIII {
+		zs, bus, err := c.sourceZPct(b, otherEnd(down))
+		if err != nil {
+			return sub, err
+		}
+		set := tf.Settings()
+		set.SourceZPct = zs
+		withSource, err := curves.NewThroughFault(set)
+		if err != nil {
+			return sub, fmt.Errorf("transformer %q: through-fault withstand with the source impedance: %w", sub.name, err)
+		}
+		sub.withstand = withSource
+		sub.note += fmt.Sprintf(", source impedance %.3g %% on the rating (maximum-case Thevenin impedance at %s)", zs, n.Buses[bus].Name)
+	}
+	beyond := c.busesBeyond(b)
+	for _, pl := range c.places[dev] {
+		// A fault just inside the transformer at its terminal is the
+		// terminal bus's fault seen from the other side of the current
+		// transformer: at the downstream terminal only a backfeed (a
+		// parallel unit's share) would flow, not the winding current.
+		if pl.Branch == b {
+			continue
+		}
+		if beyond[c.eng.PlaceBus(pl)] {
+			sub.places = append(sub.places, pl)
+		}
+	}
+	return sub, nil
+}
+
+// sourceZPct returns the source impedance of transformer b seen from its
+// supply terminal (end e) in percent on the transformer's rating: the
+// maximum-case Thevenin impedance there, |Z| = c_max·Un/(√3·I"k3)
+// (IEC 60909-0), referred to the rated voltage of that winding. It is 0
+// when no current reaches that bus.
+func (c *checker) sourceZPct(b int, e faults.End) (float64, int, error) {
+	n := c.s.Network
+	bus := pointBus(n, faults.Point{Branch: b, End: e})
+	sol, err := c.sol.solve(faults.AtBus(bus), faults.LLL, faults.Max)
+	if err != nil {
+		return 0, bus, err
+	}
+	ia := sol.FaultCurrents().PhaseMaxA()
+	if !(ia > 0) {
+		return 0, bus, nil
+	}
+	kv := n.Buses[bus].KV
+	zOhm := c.s.Faults.VoltageFactor(kv, faults.Max) * kv * 1000 / (math.Sqrt(3) * ia)
+	tr := n.Transformer(b)
+	kvw := tr.KVFrom
+	if e == faults.To {
+		kvw = tr.KVTo
+	}
+	return zOhm / (kvw * kvw / tr.MVA) * 100, bus, nil
+}
+
+// busesBeyond returns the buses forward of branch b: its downstream bus
+// and everything reached from there away from the sources.
+func (c *checker) busesBeyond(b int) map[int]bool {
+	n := c.s.Network
+	t := c.topo
+	start := pointBus(n, faults.Point{Branch: b, End: t.Downstream[b]})
+	seen := map[int]bool{start: true}
+	queue := []int{start}
+	for len(queue) > 0 {
+		x := queue[0]
+		queue = queue[1:]
+		for _, br := range t.BranchesAt(x) {
+			if br == b || pointBus(n, faults.Point{Branch: br, End: otherEnd(t.Downstream[br])}) != x {
+				continue
+			}
+			if y := pointBus(n, faults.Point{Branch: br, End: t.Downstream[br]}); !seen[y] {
+				seen[y] = true
+				queue = append(queue, y)
+			}
+		}
+	}
+	return seen
+}
+
+// damageTally counts the points of a damage check that give no margin.
+type damageTally struct {
+	noTrip      int           // solved faults the device does not clear
+	undefined   undefinedSpan // the device's curve gives no time
+	below       int           // under the withstand curve's start (overload, not a through-fault)
+	beyond      undefinedSpan // above a transformer curve's end with no law to continue
+	extended    int           // above a transformer curve's end, by its I²t law
+	capped      bool          // a cable's adiabatic limit beyond its 5 s validity
+	endA, lowA  float64       // the transformer curve's span, for the note
+	transformer bool
+}
+
+// withstandAt returns the equipment's withstand time at a current, or ok
+// false when the curve gives none there (counted in the tally).
+func (tl *damageTally) withstandAt(w curves.Characteristic, a float64) (float64, bool) {
+	t, st := w.Time(a)
+	if st == curves.Operates {
+		return t, true
+	}
+	lo, hi := w.Span()
+	switch lim := w.(type) {
+	case *curves.ThroughFault:
+		if a > hi {
+			if t, ok := lim.BeyondEnd(a); ok {
+				tl.extended++
+				return t, true
+			}
+			tl.beyond.add(a)
+			return 0, false
+		}
+	case curves.I2tLimit:
+		if lim.MaxTimeS > 0 && a < lo && a > 0 {
+			// Beyond the adiabatic limit's validity (IEC 60364-4-43: 5 s)
+			// the cable withstands at least as long as the limit says; ask
+			// for clearing within the validity time, which is safe.
+			tl.capped = true
+			return lim.MaxTimeS, true
+		}
+	}
+	tl.below++
+	return 0, false
+}
+
+// damageOf judges one piece of equipment against the device that clears
+// its through-faults.
+func (c *checker) damageOf(dev int, sub damageSubject) (Finding, error) {
 	t := c.timers[dev]
 	d := &c.s.Devices[dev]
 	var pts []sample
 	for _, cs := range faults.Cases {
 		for _, k := range faults.Kinds {
-			var group []sample
-			for _, pl := range places {
+			for _, pl := range sub.places {
 				sol, err := c.sol.solve(pl, k, cs)
 				if err != nil {
 					return Finding{}, err
@@ -86,76 +240,96 @@ func (c *checker) damageOf(dev int, equip string, withstand curves.Characteristi
 				if !sol.Energised() {
 					continue
 				}
-				eqA := sol.At(at).PhaseMaxA()
+				eqA := sol.At(sub.at).PhaseMaxA()
 				if eqA <= 0 {
 					continue
 				}
 				dp, dr := Measured(sol.At(d.Point))
-				// The equipment current rides in the "upstream" slot so that
-				// sweep scales it with the device's currents.
-				group = append(group, sample{dp: dp, dr: dr, up: eqA, kind: k, cs: cs, place: PlaceName(c.s.Network, pl)})
+				// The equipment current rides in the other's phase slot so
+				// that the sweep scales it with the device's currents.
+				pts = append(pts, sample{dp: dp, dr: dr, up: eqA, kind: k, cs: cs, place: PlaceName(c.s.Network, pl), scale: 1})
 			}
-			pts = append(pts, group...)
-			pts = append(pts, sweep(group)...)
 		}
 	}
+	lo, hi := sub.withstand.Span()
+	tl := damageTally{lowA: lo, endA: hi}
+	_, tl.transformer = sub.withstand.(*curves.ThroughFault)
+	all := append(pts, sweep(pts, [4][]float64{knees(d, Phase), knees(d, Residual), {lo, hi}}, true)...)
 	var worst *sample
 	var worstT, worstW, worstMargin float64
-	noTrip, undefined := 0, 0
-	capped := false
-	for i := range pts {
-		s := pts[i]
-		tw, stw := withstand.Time(s.up)
-		if stw != curves.Operates {
-			lim, ok := withstand.(curves.I2tLimit)
-			if !ok || lim.MaxTimeS == 0 || lim.I2tA2S/(s.up*s.up) <= lim.MaxTimeS {
-				continue // outside the withstand curve's range (below 2× a transformer's rating)
-			}
-			// Beyond the adiabatic limit's validity (IEC 60364-4-43: 5 s)
-			// the cable withstands at least as long as the limit says; ask
-			// for clearing within the validity time, which is safe.
-			tw, capped = lim.MaxTimeS, true
+	for i := range all {
+		s := all[i]
+		tw, ok := tl.withstandAt(sub.withstand, s.up)
+		if !ok {
+			continue
 		}
 		tc, stc := t.Clearing(s.dp, s.dr, Nominal)
 		switch stc {
 		case curves.NoTrip:
-			noTrip++
+			// A swept point below the device's pickup is no fault of the
+			// study; the sensitivity checks judge what the device detects.
+			if !s.swept() {
+				tl.noTrip++
+			}
 			continue
 		case curves.Undefined:
-			undefined++
+			tl.undefined.add(s.key())
 			continue
 		}
 		if m := tw - tc; worst == nil || m < worstMargin-tieTolerance {
-			worst, worstT, worstW, worstMargin = &pts[i], tc, tw, m
+			worst, worstT, worstW, worstMargin = &all[i], tc, tw, m
 		}
+	}
+	return c.damageFinding(d, t, sub, worst, worstT, worstW, tl), nil
+}
+
+// damageFinding builds the finding of a damage check from its worst point
+// and the tally of the points that gave no margin.
+func (c *checker) damageFinding(d *Device, t *Timer, sub damageSubject, worst *sample, worstT, worstW float64, tl damageTally) Finding {
+	var gaps []string
+	if tl.undefined.points > 0 {
+		gaps = append(gaps, tl.undefined.text(d.Name, curveName(t, false)))
+	}
+	if tl.beyond.points > 0 {
+		gaps = append(gaps, fmt.Sprintf("%s above the end of its withstand curve (%s A), where the curve follows no law to continue", tl.beyond.text(sub.name, "current"), fmtA(tl.endA)))
 	}
 	if worst == nil {
 		why := "the device does not operate for any through-fault where the withstand curve is defined"
-		if undefined > 0 && noTrip == 0 {
-			why = "the device's curve is not defined at the through-fault currents (outside a table's points)"
+		if len(gaps) > 0 {
+			why = "no time at the through-fault currents: " + joinNotes(gaps...)
 		}
 		f := unchecked(Damage, why)
-		f.Device, f.Other = d.Name, equip
-		return f, nil
+		f.Device, f.Other = d.Name, sub.name
+		return f
 	}
 	f := atMost(Damage, worstT, worstW, "s")
-	f.Device, f.Other = d.Name, equip
-	ref := FaultRef{Kind: worst.kind, Case: worst.cs, Place: worst.place, Interpolated: worst.interpolated,
-		OtherA: worst.up, DeviceS: worstT, OtherS: worstW}
+	f.Device, f.Other = d.Name, sub.name
+	ref := FaultRef{Kind: worst.kind, Case: worst.cs, Place: worst.place, Interpolated: worst.swept(), Scale: worst.scale,
+		OtherA: worst.up, OtherQty: Phase, DeviceS: worstT, OtherS: worstW}
 	ref.DeviceA, ref.DeviceQty = governing(t, worst.dp, worst.dr)
 	f.Fault = &ref
-	f.Note = "clearing time against the withstand time at the equipment's current"
-	if noTrip > 0 {
-		f.Note += fmt.Sprintf("; the device does not operate at %d through-fault points where the withstand curve is defined", noTrip)
+	notes := []string{"clearing time against the withstand time at the equipment's current", sub.note}
+	if tl.extended > 0 {
+		notes = append(notes, fmt.Sprintf("above the curve's end at %s A (the largest through-fault current its impedances allow) its I²t law is continued (IEEE C57.109's own form)", fmtA(tl.endA)))
+	}
+	if tl.below > 0 && tl.transformer {
+		notes = append(notes, fmt.Sprintf("below %s A (2× rated) C57.109 sets no through-fault limit", fmtA(tl.lowA)))
+	}
+	if tl.noTrip > 0 {
+		notes = append(notes, fmt.Sprintf("the device does not operate at %d through-fault points where the withstand curve is defined", tl.noTrip))
 		if f.Verdict == Pass {
 			f.Verdict = Warn
 		}
 	}
-	if undefined > 0 {
-		f.Note += fmt.Sprintf("; %d points outside the device's curve were left out", undefined)
+	if len(gaps) > 0 {
+		notes = append(notes, "not checked: "+joinNotes(gaps...))
+		if f.Verdict == Pass {
+			f.Verdict = Warn
+		}
 	}
-	if capped {
-		f.Note += "; where the adiabatic withstand exceeds its 5 s validity, clearing within 5 s is asked"
+	if tl.capped {
+		notes = append(notes, "where the adiabatic withstand exceeds its 5 s validity, clearing within 5 s is asked")
 	}
-	return f, nil
+	f.Note = joinNotes(notes...)
+	return f
 }

@@ -13,14 +13,17 @@ type Verdict uint8
 
 // Verdicts. Warn covers both a figure worth a look that the criteria do not
 // fail, and a check that could not be made (the note says which).
+// Accepted is a failing or warning finding that a reviewer accepted with
+// an [[accept]] entry (see Accept): it is counted apart and fails nothing.
 const (
 	Pass Verdict = iota
 	Warn
 	Fail
+	Accepted
 )
 
-// String returns "PASS", "WARN" or "FAIL".
-func (v Verdict) String() string { return [...]string{"PASS", "WARN", "FAIL"}[v] }
+// String returns "PASS", "WARN", "FAIL" or "ACCEPTED".
+func (v Verdict) String() string { return [...]string{"PASS", "WARN", "FAIL", "ACCEPTED"}[v] }
 
 // CheckKind names a check.
 type CheckKind uint8
@@ -76,6 +79,9 @@ type Finding struct {
 	// Fault is the fault behind the figure, when there is one.
 	Fault *FaultRef
 	Note  string
+	// Acceptance is set when an [[accept]] entry covers the finding; the
+	// Verdict is then Accepted (see Accept).
+	Acceptance *Acceptance
 }
 
 // FaultRef describes the fault behind a figure.
@@ -83,9 +89,15 @@ type FaultRef struct {
 	Kind  faults.Kind
 	Case  faults.Case
 	Place string
-	// Interpolated is true for a point of the dense sweep between solved
-	// faults, whose currents are scaled from the nearest solved one.
+	// Interpolated is true for a point of the sweep, whose currents are
+	// those of the solved fault of this kind, case and place scaled by
+	// Scale (a fault of the same kind and place with more fault
+	// impedance; see sweep.go).
 	Interpolated bool
+	// Scale is the factor applied to the solved fault's currents at a
+	// point of the sweep; 1 (or 0 in a FaultRef built by hand) for a
+	// solved fault.
+	Scale float64
 	// Currents and times of the device checked and of the other device (0
 	// when not part of the check); a time is NaN when the device does not
 	// operate.
@@ -110,7 +122,8 @@ type Result struct {
 	Findings []Finding
 }
 
-// Counts returns the number of findings of each verdict.
+// Counts returns the number of findings of each verdict; accepted
+// findings are counted apart by Accepted.
 func (r *Result) Counts() (pass, warn, fail int) {
 	for _, f := range r.Findings {
 		switch f.Verdict {
@@ -176,6 +189,9 @@ func nonFinite(f Finding) string {
 	}
 	if ft := f.Fault; ft != nil {
 		figs = append(figs, figure{"device current", ft.DeviceA}, figure{"other current", ft.OtherA})
+		if ft.Interpolated {
+			figs = append(figs, figure{"sweep scale", ft.Scale})
+		}
 		if f.Check.Timed() {
 			figs = append(figs, figure{"device time", ft.DeviceS}, figure{"other time", ft.OtherS})
 		}

@@ -2,48 +2,18 @@ package coord
 
 import (
 	"fmt"
-	"math"
-	"sort"
+	"strings"
 
 	"tripgrade/curves"
 	"tripgrade/faults"
 )
 
-// sweepSteps is how many log-spaced points the grading check puts between
-// two neighbouring solved fault levels. Inverse-time curves are smooth in
-// log–log space, so two dozen points per interval put a sample within a
-// few per cent of current of any crossing.
-const sweepSteps = 24
-
-// sample is one fault as two devices see it.
-type sample struct {
-	dp, dr, up, ur float64 // downstream and upstream phase and residual currents
-	kind           faults.Kind
-	cs             faults.Case
-	place          string
-	interpolated   bool
-}
-
-// key is the current that orders samples along the downstream device's
-// curve.
-func (s sample) key() float64 {
-	if s.dp > 0 {
-		return s.dp
-	}
-	return s.dr
-}
-
-func (s sample) scaled(k float64) sample {
-	s.dp, s.dr, s.up, s.ur = s.dp*k, s.dr*k, s.up*k, s.ur*k
-	s.interpolated = true
-	return s
-}
-
 // gradeOutcome is the result of evaluating one sample.
 type gradeOutcome struct {
 	ok               bool // both devices operate: a margin exists
 	dNoTrip, uNoTrip bool
-	undefined        bool
+	undefined        bool // some curve gives no time
+	dUndefined       bool // the downstream device's curve gives no time
 	margin, required float64
 	tU, tD           float64
 }
@@ -52,6 +22,9 @@ type gradeOutcome struct {
 type grader struct {
 	c    *checker
 	u, d *Timer
+	// marginS is the pair's own required margin (from a [[pair]] entry or
+	// the upstream relay's margin_s), 0 when the criteria's applies.
+	marginS float64
 }
 
 func (g grader) eval(s sample) gradeOutcome {
@@ -74,7 +47,10 @@ func (g grader) eval(s sample) gradeOutcome {
 	case stD == curves.NoTrip:
 		o.dNoTrip = true
 		return o
-	case stD == curves.Undefined || stU == curves.Undefined:
+	case stD == curves.Undefined:
+		o.undefined, o.dUndefined = true, true
+		return o
+	case stU == curves.Undefined:
 		o.undefined = true
 		return o
 	case stU == curves.NoTrip:
@@ -86,6 +62,8 @@ func (g grader) eval(s sample) gradeOutcome {
 	switch {
 	case upFuse:
 		o.required = (1 - crit.FuseMeltRatio) * o.tU
+	case g.marginS > 0:
+		o.required = g.marginS
 	case downFuse:
 		o.required = crit.MarginFuseS
 	case crit.Components != nil:
@@ -97,20 +75,82 @@ func (g grader) eval(s sample) gradeOutcome {
 	return o
 }
 
+// pairMargin returns the margin a pair must keep when the study sets one
+// for it: a [[pair]] entry's margin_s first, then the upstream relay's
+// margin_s; 0 when the criteria's applies. The note says where it came
+// from.
+func (c *checker) pairMargin(p Pair) (float64, string) {
+	u, d := &c.s.Devices[p.Upstream], &c.s.Devices[p.Downstream]
+	for _, r := range c.s.Pairs {
+		if !r.Exclude && r.MarginS > 0 && r.Upstream == u.Name && r.Downstream == d.Name {
+			return r.MarginS, fmt.Sprintf("margin %.3g s set for this pair by [[pair]]", r.MarginS)
+		}
+	}
+	if u.Kind == Relay && u.MarginS > 0 {
+		return u.MarginS, fmt.Sprintf("margin %.3g s set for %s as upstream device", u.MarginS, u.Name)
+	}
+	return 0, ""
+}
+
+// undefinedSpan collects the currents at which a device's curve gives no
+// time.
+type undefinedSpan struct {
+	points int
+	lo, hi float64
+}
+
+func (u *undefinedSpan) add(a float64) {
+	if u.points == 0 || a < u.lo {
+		u.lo = a
+	}
+	if u.points == 0 || a > u.hi {
+		u.hi = a
+	}
+	u.points++
+}
+
+// text describes the span for a note: "ML-TX-FUSE's melting table at
+// 35.2–79.9 A".
+func (u undefinedSpan) text(name, what string) string {
+	r := fmtA(u.lo) + " A"
+	if u.hi > u.lo*(1+1e-3) {
+		r = fmtA(u.lo) + "–" + fmtA(u.hi) + " A"
+	}
+	return fmt.Sprintf("%s's %s at %s", name, what, r)
+}
+
+// curveName says which curve of a device a grading time comes from.
+func curveName(t *Timer, melting bool) string {
+	switch {
+	case t.Dev.Kind == Relay:
+		return "curve"
+	case melting:
+		return "melting table"
+	}
+	return "clearing table"
+}
+
 // grading checks one backup pair over every fault of the downstream
-// device's zone, both cases, every fault kind, and a dense sweep between
-// neighbouring solved fault levels.
+// device's zone, both cases, every fault kind, and the sweep of each
+// family of those faults down to the smallest current the downstream
+// device sees (sweep.go).
 func (c *checker) grading(p Pair) (Finding, error) {
 	g := grader{c: c, u: c.timers[p.Upstream], d: c.timers[p.Downstream]}
-	f := Finding{Check: Grading, Device: g.d.Dev.Name, Other: g.u.Dev.Name}
+	var marginNote string
+	g.marginS, marginNote = c.pairMargin(p)
 	var worst *sample
 	var best gradeOutcome
-	var evaluated, dOps, undefined int
+	var evaluated, dOps int
+	var undefD, undefU undefinedSpan
 	consider := func(s sample) {
 		o := g.eval(s)
 		switch {
+		case o.dUndefined:
+			undefD.add(s.key())
 		case o.undefined:
-			undefined++
+			dOps++
+			a, _ := governing(g.u, s.up, s.ur)
+			undefU.add(a)
 		case !o.dNoTrip:
 			dOps++
 		}
@@ -123,43 +163,67 @@ func (c *checker) grading(p Pair) (Finding, error) {
 			worst, best = &w, o
 		}
 	}
+	var pts []sample
 	for _, cs := range faults.Cases {
 		for _, k := range faults.Kinds {
-			pts, err := c.samples(p.Downstream, p.Upstream, p.Downstream, k, cs)
+			s, err := c.samples(p.Downstream, p.Upstream, p.Downstream, k, cs)
 			if err != nil {
-				return f, err
+				return Finding{}, err
 			}
-			for _, s := range pts {
-				consider(s)
-			}
-			for _, s := range sweep(pts) {
-				consider(s)
-			}
+			pts = append(pts, s...)
 		}
 	}
+	for _, s := range pts {
+		consider(s)
+	}
+	du, dd := &c.s.Devices[p.Upstream], &c.s.Devices[p.Downstream]
+	for _, s := range sweep(pts, [4][]float64{knees(dd, Phase), knees(dd, Residual), knees(du, Phase), knees(du, Residual)}, false) {
+		consider(s)
+	}
+	var uncovered []string
+	if undefD.points > 0 {
+		uncovered = append(uncovered, undefD.text(dd.Name, curveName(g.d, false)))
+	}
+	if undefU.points > 0 {
+		uncovered = append(uncovered, undefU.text(du.Name, curveName(g.u, g.u.Dev.Kind == Fuse)))
+	}
+	var f Finding
 	switch {
 	case evaluated > 0:
 		f = atLeast(Grading, best.margin, best.required, "s")
-		f.Device, f.Other = g.d.Dev.Name, g.u.Dev.Name
-		ref := FaultRef{Kind: worst.kind, Case: worst.cs, Place: worst.place, Interpolated: worst.interpolated,
+		ref := FaultRef{Kind: worst.kind, Case: worst.cs, Place: worst.place, Interpolated: worst.swept(), Scale: worst.scale,
 			DeviceS: best.tD, OtherS: best.tU}
 		ref.DeviceA, ref.DeviceQty = governing(g.d, worst.dp, worst.dr)
 		ref.OtherA, ref.OtherQty = governing(g.u, worst.up, worst.ur)
 		f.Fault = &ref
-		if undefined > 0 {
-			f.Note = fmt.Sprintf("%d fault points outside a curve's defined range were left out", undefined)
+		f.Note = marginNote
+		if len(uncovered) > 0 {
+			f.Note = joinNotes(f.Note, "not checked where no curve gives a time: "+strings.Join(uncovered, "; ")+" (outside a table's points)")
+			if f.Verdict == Pass {
+				f.Verdict = Warn
+			}
 		}
-	case dOps == 0 && undefined == 0:
+	case dOps == 0 && undefD.points == 0:
 		f = unchecked(Grading, "the downstream device does not operate for any fault in its zone (see primary sensitivity)")
-		f.Device, f.Other = g.d.Dev.Name, g.u.Dev.Name
-	case undefined > 0:
-		f = unchecked(Grading, "a curve is not defined at the fault currents of this zone (outside a table's points)")
-		f.Device, f.Other = g.d.Dev.Name, g.u.Dev.Name
+	case len(uncovered) > 0:
+		f = unchecked(Grading, "no curve gives a time at the fault currents of this zone: "+strings.Join(uncovered, "; ")+" (outside a table's points)")
 	default:
-		f.Verdict = Pass
+		f.Check, f.Verdict = Grading, Pass
 		f.Note = "the upstream device does not operate for any fault that the downstream device clears (see backup sensitivity)"
 	}
+	f.Device, f.Other = dd.Name, du.Name
 	return f, nil
+}
+
+// joinNotes joins the parts of a note that are not empty with "; ".
+func joinNotes(parts ...string) string {
+	var out []string
+	for _, p := range parts {
+		if p != "" {
+			out = append(out, p)
+		}
+	}
+	return strings.Join(out, "; ")
 }
 
 // governing returns the current that sets a device's time and which it
@@ -197,35 +261,7 @@ func (c *checker) samples(zone, u, d int, k faults.Kind, cs faults.Case) ([]samp
 		if dp == 0 && dr == 0 {
 			continue
 		}
-		out = append(out, sample{dp: dp, dr: dr, up: up, ur: ur, kind: k, cs: cs, place: PlaceName(n, pl)})
+		out = append(out, sample{dp: dp, dr: dr, up: up, ur: ur, kind: k, cs: cs, place: PlaceName(n, pl), scale: 1})
 	}
 	return out, nil
-}
-
-// sweep returns points between neighbouring solved samples, log-spaced in
-// the downstream current, each with the currents of the nearer solved
-// sample scaled to it, so that a curve crossing between two solved fault
-// levels cannot hide.
-func sweep(pts []sample) []sample {
-	sorted := append([]sample(nil), pts...)
-	sort.SliceStable(sorted, func(i, j int) bool { return sorted[i].key() < sorted[j].key() })
-	var out []sample
-	for i := 0; i+1 < len(sorted); i++ {
-		a, b := sorted[i], sorted[i+1]
-		ka, kb := a.key(), b.key()
-		if !(ka > 0) || kb/ka < 1+1e-6 {
-			continue
-		}
-		for j := 1; j < sweepSteps; j++ {
-			x := ka * math.Pow(kb/ka, float64(j)/sweepSteps)
-			near := a
-			if 2*j >= sweepSteps {
-				near = b
-			}
-			s := near.scaled(x / near.key())
-			s.place = fmt.Sprintf("between %s and %s", a.place, b.place)
-			out = append(out, s)
-		}
-	}
-	return out
 }

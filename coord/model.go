@@ -26,6 +26,12 @@ type Study struct {
 	// (which separator a settings table uses, say), each naming its file
 	// and line; reports print them so a reviewer sees them.
 	Notes []string
+	// Accepts are the study's [[accept]] entries: findings a reviewer has
+	// accepted (see Accept).
+	Accepts []Acceptance
+	// Inputs are the files the study was read from, the study file first,
+	// each with the digest of what was read.
+	Inputs []InputFile
 }
 
 // Quantity is what a stage measures.
@@ -78,6 +84,21 @@ type Device struct {
 	// MaxLoadA is a declared maximum load current through the device; zero
 	// means the sum of the loads beyond it.
 	MaxLoadA float64
+	// EarthFaultsBy names the protection the study declares clears the
+	// earth faults this device cannot see because they drive no residual
+	// current through it (behind a delta winding: a standby earth-fault
+	// relay on the LV neutral, restricted earth fault); "" when none. The
+	// checks then leave those faults out and say they were not checked.
+	EarthFaultsBy string
+	// MarginS, when not 0, is the grading margin this relay asks of the
+	// devices it backs up (a utility's incomer asking 0.4 s where 0.3 s
+	// holds elsewhere), instead of the criteria's; a [[pair]] entry's own
+	// margin comes first.
+	MarginS float64
+	// InstantaneousTimeS is the relay's own operating time for its
+	// instantaneous stages (Criteria.InstantaneousTimeS unless the relay
+	// gives one). Their Curve already includes it.
+	InstantaneousTimeS float64
 
 	// Fuse data.
 	RatingA float64
@@ -105,8 +126,10 @@ type Stage struct {
 	Shape      curves.Shape
 	PickupA    float64 // primary amperes
 	Multiplier float64 // TMS or TD for inverse shapes
-	DelayS     float64 // definite-time delay or instantaneous intentional delay
-	// Curve is the stage's characteristic in primary amperes.
+	DelayS     float64 // definite-time delay or instantaneous intentional delay, as set
+	// Curve is the stage's characteristic in primary amperes: the time the
+	// stage takes to operate. An instantaneous stage's curve operates in
+	// DelayS plus the relay's InstantaneousTimeS.
 	Curve curves.Characteristic
 	// Declared setting ranges to audit against (zero Range: none declared).
 	PickupRange     Range // in primary amperes
@@ -156,10 +179,14 @@ type Equipment struct {
 	Cable curves.Characteristic
 }
 
-// PairRule adds or removes a backup pair by hand.
+// PairRule adds or removes a backup pair by hand, or sets the margin of
+// one.
 type PairRule struct {
 	Upstream, Downstream string
 	Exclude              bool
+	// MarginS, when not 0, is the grading margin required of this pair
+	// (relay over relay or relay over fuse), instead of the criteria's.
+	MarginS float64
 }
 
 // DeviceBus returns the bus where device d sits.

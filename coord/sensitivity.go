@@ -6,30 +6,49 @@ import (
 	"tripgrade/faults"
 )
 
-// quantityKinds are the fault kinds a stage group must detect: phase stages
-// the phase-to-phase faults, ground stages the earth faults.
-func quantityKinds(q Quantity) []faults.Kind {
+// groupKinds are the fault kinds a stage group exists for: phase stages
+// (and a fuse) the faults between phases, ground stages the line-to-earth
+// fault, which in the minimum case carries the study's fault resistance.
+// A double-line-to-earth fault drives phase currents like a fault between
+// phases and is left to the phase stages; the coverage finding asks that
+// some stage detect every kind.
+func groupKinds(q Quantity) []faults.Kind {
 	if q == Phase {
 		return []faults.Kind{faults.LL, faults.LLL}
 	}
-	return []faults.Kind{faults.LG, faults.LLG}
+	return []faults.Kind{faults.LG}
 }
 
 // minimum is the smallest current a device sees over a set of faults.
 type minimum struct {
 	a     float64
 	found bool
-	ref   FaultRef
+	place faults.Place
+	kind  faults.Kind
+	// behindDelta: the smallest is an earth fault that drives no residual
+	// current through the device, judged on its phase current.
+	behindDelta bool
+	// declared counts earth faults behind a delta winding that the device
+	// leaves to the protection named by its EarthFaultsBy.
+	declared int
 }
 
 // minFault finds the smallest current that device dev measures as q over
-// the given places, for the kinds q must detect, in the minimum case.
-// Faults that drive no current of that quantity through the device (an
-// earth fault beyond a delta winding) are left out.
+// the given places, for the kinds q exists for, in the minimum case.
+// Faults that drive no current of that quantity through the device are
+// left out. A phase group is also judged on the line-to-earth faults that
+// drive no residual current through the device (behind a delta winding:
+// across a Dyn or YNd unit only phase stages and fuses can see them),
+// unless the device declares them cleared by other protection.
 func (c *checker) minFault(dev int, q Quantity, places []faults.Place) (minimum, error) {
 	var m minimum
+	d := &c.s.Devices[dev]
+	kinds := groupKinds(q)
+	if q == Phase {
+		kinds = append(kinds, faults.LG)
+	}
 	for _, pl := range places {
-		for _, k := range quantityKinds(q) {
+		for _, k := range kinds {
 			sol, err := c.sol.solve(pl, k, faults.Min)
 			if err != nil {
 				return m, err
@@ -37,16 +56,24 @@ func (c *checker) minFault(dev int, q Quantity, places []faults.Place) (minimum,
 			if !sol.Energised() {
 				continue
 			}
-			ph, res := Measured(sol.At(c.s.Devices[dev].Point))
+			ph, res := Measured(sol.At(d.Point))
 			a := ph
 			if q == Residual {
 				a = res
 			}
+			behind := q == Phase && k == faults.LG
+			if behind && res > 0 {
+				continue // the ground stages' fault, not the phase stages'
+			}
 			if a <= 0 {
 				continue
 			}
+			if behind && d.EarthFaultsBy != "" {
+				m.declared++
+				continue
+			}
 			if !m.found || a < m.a*(1-tieTolerance) {
-				m = minimum{a: a, found: true, ref: FaultRef{Kind: k, Case: faults.Min, Place: PlaceName(c.s.Network, pl), DeviceA: a, DeviceQty: q}}
+				m = minimum{a: a, found: true, place: pl, kind: k, behindDelta: behind, declared: m.declared}
 			}
 		}
 	}
@@ -61,7 +88,8 @@ const tieTolerance = 1e-9
 
 // primarySensitivity: the smallest fault at the far end of the device's own
 // zone, in the minimum case, is at least sensitivity_primary × the lowest
-// pickup of each stage group.
+// pickup of each stage group; then whether some stage detects every fault
+// kind of the zone (coverage.go).
 func (c *checker) primarySensitivity(i int) ([]Finding, error) {
 	d := &c.s.Devices[i]
 	var out []Finding
@@ -83,12 +111,22 @@ func (c *checker) primarySensitivity(i int) ([]Finding, error) {
 			}
 			beyondDelta = m.found
 		}
-		f := c.sensitivityFinding(PrimarySensitivity, m, c.s.Criteria.SensitivityPrimary, pickup, q, d.Kind)
+		f, err := c.sensitivityFinding(PrimarySensitivity, m, c.s.Criteria.SensitivityPrimary, pickup, q, i, -1)
+		if err != nil {
+			return nil, err
+		}
 		f.Device, f.Stage = d.Name, q.String()
 		if beyondDelta {
 			f.Note += "; the zone's far end drives no residual current through the device (beyond a delta winding), so the smallest earth fault of the zone that does is used"
 		}
 		out = append(out, f)
+	}
+	cov, err := c.coverage(i)
+	if err != nil {
+		return nil, err
+	}
+	if cov != nil {
+		out = append(out, *cov)
 	}
 	return out, nil
 }
@@ -96,7 +134,8 @@ func (c *checker) primarySensitivity(i int) ([]Finding, error) {
 // backupSensitivity: the smallest fault at the far end of the downstream
 // device's zone is at least sensitivity_backup × the upstream pickup. A
 // stage group that no fault there reaches at all (an upstream ground stage
-// behind a delta winding) is not applicable and gives no finding.
+// behind a delta winding) is not applicable and gives no finding; the
+// upstream phase stages then answer for those earth faults.
 func (c *checker) backupSensitivity(p Pair) ([]Finding, error) {
 	u := &c.s.Devices[p.Upstream]
 	var out []Finding
@@ -112,26 +151,58 @@ func (c *checker) backupSensitivity(p Pair) ([]Finding, error) {
 		if !m.found && q == Residual {
 			continue
 		}
-		f := c.sensitivityFinding(BackupSensitivity, m, c.s.Criteria.SensitivityBackup, pickup, q, u.Kind)
+		f, err := c.sensitivityFinding(BackupSensitivity, m, c.s.Criteria.SensitivityBackup, pickup, q, p.Upstream, p.Downstream)
+		if err != nil {
+			return nil, err
+		}
 		f.Device, f.Other, f.Stage = c.s.Devices[p.Downstream].Name, u.Name, q.String()
 		out = append(out, f)
 	}
 	return out, nil
 }
 
-func (c *checker) sensitivityFinding(ck CheckKind, m minimum, factor, pickup float64, q Quantity, kind DeviceKind) Finding {
+// sensitivityFinding judges the smallest current m that device dev sees
+// as q against factor × pickup. For a backup check down is the downstream
+// device: the figure is then the upstream device's current (OtherA) and
+// DeviceA is what the downstream device sees of the same fault.
+func (c *checker) sensitivityFinding(ck CheckKind, m minimum, factor, pickup float64, q Quantity, dev, down int) (Finding, error) {
+	d := &c.s.Devices[dev]
 	if !m.found {
-		return unchecked(ck, fmt.Sprintf("no %s fault current reaches the device in the minimum case", q))
+		note := fmt.Sprintf("no %s fault current reaches the device in the minimum case", q)
+		if m.declared > 0 {
+			note += fmt.Sprintf(" but the earth faults beyond a delta winding, which it leaves to \"%s\" (declared by the study)", d.EarthFaultsBy)
+		}
+		return unchecked(ck, note), nil
 	}
 	f := atLeast(ck, m.a, factor*pickup, "A")
-	ref := m.ref
+	ref := FaultRef{Kind: m.kind, Case: faults.Min, Place: PlaceName(c.s.Network, m.place)}
+	if down < 0 {
+		ref.DeviceA, ref.DeviceQty = m.a, q
+	} else {
+		ref.OtherA, ref.OtherQty = m.a, q
+		sol, err := c.sol.solve(m.place, m.kind, faults.Min)
+		if err != nil {
+			return f, err
+		}
+		ph, res := Measured(sol.At(c.s.Devices[down].Point))
+		ref.DeviceA, ref.DeviceQty = ph, Phase
+		if q == Residual {
+			ref.DeviceA, ref.DeviceQty = res, Residual
+		}
+	}
 	f.Fault = &ref
 	what := "pickup"
-	if kind == Fuse {
+	if d.Kind == Fuse {
 		what = "lowest melting current"
 	}
 	f.Note = fmt.Sprintf("%s %s A × %g", what, fmtA(pickup), factor)
-	return f
+	if m.behindDelta {
+		f.Note += "; an earth fault beyond a delta winding drives no residual current through the device, so only its phase current can detect it"
+	}
+	if m.declared > 0 {
+		f.Note += fmt.Sprintf("; earth faults beyond a delta winding are declared cleared by \"%s\" (see the every-kind finding)", d.EarthFaultsBy)
+	}
+	return f, nil
 }
 
 // fmtA formats a current in a note.

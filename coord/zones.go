@@ -200,7 +200,7 @@ func (w *walker) zone(i int, d Device) Zone {
 			}
 			cross(b)
 		}
-		if leaf {
+		if leaf && !w.n.Buses[x].Internal {
 			z.FarEnd = append(z.FarEnd, faults.AtBus(x))
 		}
 	}

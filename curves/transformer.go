@@ -233,6 +233,30 @@ func (tf *ThroughFault) Time(currentA float64) (float64, Status) {
 	return t, st
 }
 
+// BeyondEnd returns the withstand time at a current above the curve's end
+// (the largest through-fault current the impedances allow, 1/(Z_T + Z_S)
+// per unit), by the I²t law the curve ends on, continued: the mechanical
+// part I²t = K (categories II and III with frequent faults, category IV)
+// or category I's I²t = 1250. A study's voltage factor and transformer
+// correction drive currents some per cent above 1/Z, so the curve must be
+// continued there rather than left undefined. ok is false for a current
+// not above the end, and for a curve that ends on the thermal points
+// (categories II and III without frequent faults), which follow no law
+// that could be continued.
+func (tf *ThroughFault) BeyondEnd(currentA float64) (t float64, ok bool) {
+	if badCurrent(currentA) || !(currentA > tf.maxPU*tf.baseA) {
+		return 0, false
+	}
+	pu := currentA / tf.baseA
+	switch {
+	case tf.mechFromPU > 0:
+		return tf.mechK / (pu * pu), true
+	case tf.lineFromPU > 0:
+		return catIPU2S / (pu * pu), true
+	}
+	return 0, false
+}
+
 // Span returns the currents, in amperes as given to Time, from 2× rated to
 // the largest through-fault current (both shifted when DeltaStarEarthFault
 // is set). For categories II–IV below 4 % impedance the thermal points end

@@ -61,15 +61,28 @@ type Settings struct {
 	// low-voltage (≤ 1 kV) systems with a +10 % voltage tolerance
 	// (c_max 1.10, c_min 0.90) instead of +6 % (c_max 1.05, c_min 0.95).
 	LVTolerance10 bool
-	// EarthFaultOhm is the fault resistance of LG and LLG faults in the
-	// minimum case on systems above 1 kV (0: bolted). Maximum-case faults
-	// are always bolted.
-	EarthFaultOhm float64
-	// EarthFaultOhmLV is the same for systems up to 1 kV.
-	EarthFaultOhmLV float64
-	// PhaseFaultOhm is the fault resistance of LLL and LL faults in the
-	// minimum case (0: bolted).
-	PhaseFaultOhm float64
+	// CMax and CMin, when not 0, replace the Table 1 voltage factor of the
+	// maximum and the minimum case at every voltage: 1.0 for a study that
+	// grades on nominal voltage, or a known prefault voltage in per unit.
+	// The factor is used wherever the case uses c: the equivalent voltage
+	// source at the fault, a network feeder's impedance c·Un²/S"k, and the
+	// correction factors K_T and K_G.
+	CMax, CMin float64
+	// EarthFaultOhm and EarthFaultXOhm are the fault resistance and
+	// reactance of LG and LLG faults in the minimum case on systems above
+	// 1 kV (0: bolted). Maximum-case faults are always bolted.
+	EarthFaultOhm, EarthFaultXOhm float64
+	// EarthFaultOhmLV and EarthFaultXOhmLV are the same for systems up to
+	// 1 kV.
+	EarthFaultOhmLV, EarthFaultXOhmLV float64
+	// PhaseFaultOhm and PhaseFaultXOhm are the fault resistance and
+	// reactance of LLL and LL faults in the minimum case (0: bolted).
+	PhaseFaultOhm, PhaseFaultXOhm float64
+	// MinTimeDelayS is the minimum time delay t_min of IEC 60909-0 for the
+	// symmetrical breaking current (shortest relay time plus breaker
+	// opening time); 0 means 0.02 s, the shortest the standard's factors
+	// cover and the one that gives the largest breaking current.
+	MinTimeDelayS float64
 	// EndTempC is the conductor temperature at the end of the fault for the
 	// minimum-case line resistance; 0 means 20 °C (no increase).
 	EndTempC float64
@@ -92,27 +105,69 @@ func (s Settings) Fractions() []float64 {
 // are low voltage.
 const lowVoltageKV = 1.0
 
-// VoltageFactor returns the IEC 60909-0:2016 Table 1 voltage factor c for a
-// system of nominal voltage kv in case cs. Above 1 kV: c_max 1.10, c_min
-// 1.00. Up to 1 kV: c_max 1.05 (1.10 for +10 % tolerance systems), c_min
-// 0.95 (0.90 for +10 % tolerance systems; the 0.90 is from memory of the
-// 2016 edition).
+// LowVoltage reports whether a system of nominal voltage kv is low voltage
+// in the sense of IEC 60909-0 Table 1 (up to 1 kV).
+func LowVoltage(kv float64) bool { return kv <= lowVoltageKV }
+
+// VoltageFactor returns the voltage factor c for a system of nominal
+// voltage kv in case cs: CMax or CMin when the Settings give it, else
+// IEC 60909-0:2016 Table 1. Above 1 kV: c_max 1.10, c_min 1.00. Up to
+// 1 kV: c_max 1.05 (1.10 for +10 % tolerance systems), c_min 0.95 (0.90
+// for +10 % tolerance systems; the 0.90 is from memory of the 2016
+// edition).
 func (s Settings) VoltageFactor(kv float64, cs Case) float64 {
-	if kv > lowVoltageKV {
+	if cs == Max && s.CMax > 0 {
+		return s.CMax
+	}
+	if cs == Min && s.CMin > 0 {
+		return s.CMin
+	}
+	return TableVoltageFactor(kv, cs, s.LVTolerance10)
+}
+
+// TableVoltageFactor returns the IEC 60909-0:2016 Table 1 voltage factor
+// of a system of nominal voltage kv in case cs; lv10 selects the low
+// voltage factors of systems with a +10 % tolerance.
+func TableVoltageFactor(kv float64, cs Case, lv10 bool) float64 {
+	if !LowVoltage(kv) {
 		if cs == Max {
 			return 1.10
 		}
 		return 1.00
 	}
 	switch {
-	case cs == Max && s.LVTolerance10:
+	case cs == Max && lv10:
 		return 1.10
 	case cs == Max:
 		return 1.05
-	case s.LVTolerance10:
+	case lv10:
 		return 0.90
 	}
 	return 0.95
+}
+
+// FaultImpedance returns the fault impedance the Settings give a fault of
+// kind k in case cs on a system of nominal voltage kv: bolted (0) in the
+// maximum case; in the minimum case EarthFaultOhm + j·EarthFaultXOhm
+// (their LV forms up to 1 kV) for earth faults and PhaseFaultOhm +
+// j·PhaseFaultXOhm for the others.
+func (s Settings) FaultImpedance(kv float64, k Kind, cs Case) complex128 {
+	switch {
+	case cs == Max:
+		return 0
+	case !k.Earth():
+		return complex(s.PhaseFaultOhm, s.PhaseFaultXOhm)
+	case LowVoltage(kv):
+		return complex(s.EarthFaultOhmLV, s.EarthFaultXOhmLV)
+	}
+	return complex(s.EarthFaultOhm, s.EarthFaultXOhm)
+}
+
+// CaseFault returns the fault of kind k at place p in case cs with the
+// fault impedance the Settings give that case (FaultImpedance at the
+// voltage of the place's bus).
+func (e *Engine) CaseFault(p Place, k Kind, cs Case) Fault {
+	return Fault{Place: p, Kind: k, Case: cs, ZOhm: e.set.FaultImpedance(e.net.Buses[e.PlaceBus(p)].KV, k, cs)}
 }
 
 // TransformerCorrection returns the IEC 60909-0 impedance correction factor

@@ -9,13 +9,25 @@ import (
 )
 
 // ElementRef names an element of a Network for messages: its kind as the
-// study file names its table ("source", "generator", "line",
-// "transformer", "earthing") and its name.
+// study file names its table ("source", "generator", "motor", "line",
+// "transformer", "transformer3", "earthing") and its name.
 type ElementRef struct {
 	Kind, Name string
 }
 
 func (r ElementRef) String() string { return fmt.Sprintf("%s %q", r.Kind, r.Name) }
+
+// branchRef names branch b: a star branch by its three-winding
+// transformer, whose table the study file has.
+func (n *Network) branchRef(b int) ElementRef {
+	switch t, _, star := n.Star(b); {
+	case star:
+		return ElementRef{"transformer3", t.Name}
+	case n.IsTransformer(b):
+		return ElementRef{"transformer", n.BranchName(b)}
+	}
+	return ElementRef{"line", n.BranchName(b)}
+}
 
 // elementY is one element's admittance at a bus in one sequence network,
 // in per unit, kept to explain a matrix that cannot be factored.
@@ -119,18 +131,20 @@ func conditionError(n *Network, d *seqData, cs Case, seq, k int) *ConditionError
 		if y == 0 || math.IsNaN(y) {
 			continue
 		}
-		kind := "line"
-		if n.IsTransformer(b) {
-			kind = "transformer"
-		}
-		at = append(at, elementY{bus: k, ref: ElementRef{kind, n.BranchName(b)}, y: y})
+		at = append(at, elementY{bus: k, ref: n.branchRef(b), y: y})
 	}
 	sort.SliceStable(at, func(i, j int) bool { return at[i].y > at[j].y })
+	named := map[ElementRef]bool{} // a three-winding transformer's windings name it once
+	var kept []float64
 	for _, a := range at {
-		e.Elements = append(e.Elements, a.ref)
+		if !named[a.ref] {
+			named[a.ref] = true
+			e.Elements = append(e.Elements, a.ref)
+			kept = append(kept, a.y)
+		}
 	}
-	if len(at) >= 2 {
-		e.Spread = at[0].y / at[len(at)-1].y
+	if len(kept) >= 2 {
+		e.Spread = kept[0] / kept[len(kept)-1]
 	}
 	return e
 }
@@ -294,11 +308,7 @@ func (s *seqNet) weakRegion(n *Network, cs Case, seq int, y []complex128) *Condi
 		if y == 0 || (!in[f] && !in[t]) {
 			continue
 		}
-		kind := "line"
-		if n.IsTransformer(b) {
-			kind = "transformer"
-		}
-		e := elementY{ref: ElementRef{kind, n.BranchName(b)}, y: y}
+		e := elementY{ref: n.branchRef(b), y: y}
 		switch {
 		case in[f] && in[t] && blk.ft != 0:
 			if y > strong.y {

@@ -22,6 +22,7 @@ type Engine struct {
 	ibase []float64    // base current at each bus, A
 	zbase []float64    // base impedance at each bus, Ω
 	cases [2][3]*seqNet
+	duty  dutyNets // the peak and steady-state networks, built on first use
 }
 
 // seqNet is one factored sequence network.

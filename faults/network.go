@@ -7,23 +7,32 @@ import (
 )
 
 // Network is the electrical model of a study in SI units. Elements refer to
-// buses by index into Buses. Branches (lines and transformers) share one
-// index space: branch b < len(Lines) is Lines[b], the rest are
-// Transformers[b-len(Lines)].
+// buses by index into Buses. Branches share one index space: branch b <
+// len(Lines) is Lines[b], then come the two-winding Transformers, then
+// three branches per three-winding transformer, the star branches of its
+// HV, MV and LV windings (see Transformer3 and Network.Star).
 type Network struct {
-	BaseMVA      float64 // per-unit base power; 100 when zero
-	Buses        []Bus
-	Sources      []Source
-	Generators   []Generator
-	Lines        []Line
-	Transformers []Transformer
-	Earthings    []Earthing
+	BaseMVA       float64 // per-unit base power; 100 when zero
+	Buses         []Bus
+	Sources       []Source
+	Generators    []Generator
+	Motors        []Motor
+	Lines         []Line
+	Transformers  []Transformer
+	Transformers3 []Transformer3
+	Earthings     []Earthing
 }
 
 // Bus is a node of the network at one nominal voltage.
 type Bus struct {
 	Name string
 	KV   float64 // nominal line-to-line voltage Un
+	// Internal marks a node that the models need but the study does not
+	// declare: the star point of a three-winding transformer's equivalent
+	// circuit. No element other than its transformer connects there, and
+	// it is no place for a fault: callers leave it out of fault places and
+	// bus tables.
+	Internal bool
 }
 
 // Source is a grid equivalent (network feeder) at a bus. Its positive and
@@ -65,6 +74,10 @@ type Generator struct {
 	InMax bool    // in service in the maximum case
 	InMin bool    // in service in the minimum case
 	Earth Neutral // star-point earthing
+	// Unit makes the generator and its unit transformer one power station
+	// unit of IEC 60909-0, corrected together by K_S or K_SO instead of
+	// K_G and K_T; nil for a generator connected directly to a network.
+	Unit *StationUnit
 }
 
 // Neutral describes how a star point is connected to earth. The zero value
@@ -114,31 +127,72 @@ type Earthing struct {
 	NeutralZ complex128 // neutral earthing impedance Zn
 }
 
-// BranchCount returns the number of branches (lines then transformers).
-func (n *Network) BranchCount() int { return len(n.Lines) + len(n.Transformers) }
+// BranchCount returns the number of branches: lines, two-winding
+// transformers and three star branches per three-winding transformer.
+func (n *Network) BranchCount() int {
+	return len(n.Lines) + len(n.Transformers) + 3*len(n.Transformers3)
+}
 
-// BranchName returns the name of branch b.
+// BranchName returns the name of branch b; a star branch of a
+// three-winding transformer is named after it and its winding, e.g.
+// "T3 (MV)".
 func (n *Network) BranchName(b int) string {
 	if b < len(n.Lines) {
 		return n.Lines[b].Name
 	}
+	if t, w, ok := n.Star(b); ok {
+		return t.Name + " (" + WindingName(w) + ")"
+	}
 	return n.Transformers[b-len(n.Lines)].Name
 }
 
-// BranchEnds returns the From and To buses of branch b.
+// BranchEnds returns the From and To buses of branch b. A star branch of a
+// three-winding transformer runs from its winding's terminal bus (From) to
+// the transformer's internal star point (To).
 func (n *Network) BranchEnds(b int) (from, to int) {
 	if b < len(n.Lines) {
 		return n.Lines[b].From, n.Lines[b].To
+	}
+	if t, w, ok := n.Star(b); ok {
+		return t.Buses[w], t.StarBus
 	}
 	t := n.Transformers[b-len(n.Lines)]
 	return t.From, t.To
 }
 
-// IsTransformer reports whether branch b is a transformer.
+// IsTransformer reports whether branch b is a transformer or a star branch
+// of a three-winding transformer: faults only at its terminals.
 func (n *Network) IsTransformer(b int) bool { return b >= len(n.Lines) }
 
-// Transformer returns the transformer of branch b, which must be one.
-func (n *Network) Transformer(b int) *Transformer { return &n.Transformers[b-len(n.Lines)] }
+// Transformer returns the transformer of branch b, which must be one. For
+// a star branch of a three-winding transformer it returns a two-winding
+// view of that winding: From its terminal bus To the star point, with the
+// winding's rating, its rated voltage (KVFrom) and the rated voltage of the
+// HV winding (KVTo, the voltage the star impedances are referred to). The
+// view is for ratings and ratios; its impedance fields are zero.
+func (n *Network) Transformer(b int) *Transformer {
+	if t, w, ok := n.Star(b); ok {
+		return &Transformer{Name: n.BranchName(b), From: t.Buses[w], To: t.StarBus,
+			MVA: t.WindingMVA(w), KVFrom: t.KV[w], KVTo: t.KV[HV], NotCorrected: t.NotCorrected}
+	}
+	return &n.Transformers[b-len(n.Lines)]
+}
+
+// Star reports whether branch b is a star branch of a three-winding
+// transformer, and if so which transformer and winding.
+func (n *Network) Star(b int) (t *Transformer3, winding int, ok bool) {
+	k := b - len(n.Lines) - len(n.Transformers)
+	if k < 0 || k >= 3*len(n.Transformers3) {
+		return nil, 0, false
+	}
+	return &n.Transformers3[k/3], k % 3, true
+}
+
+// StarBranch returns the branch index of winding w of three-winding
+// transformer i.
+func (n *Network) StarBranch(i, w int) int {
+	return len(n.Lines) + len(n.Transformers) + 3*i + w
+}
 
 func (n *Network) baseMVA() float64 {
 	if n.BaseMVA > 0 {
@@ -261,7 +315,25 @@ func (n *Network) check() error {
 			return bad("earthing", e.Name, e.Bus)
 		}
 	}
-	return nil
+	for i := range n.Motors {
+		if err := n.checkMotor(&n.Motors[i]); err != nil {
+			return err
+		}
+	}
+	for i := range n.Transformers3 {
+		if err := n.checkTransformer3(&n.Transformers3[i]); err != nil {
+			return err
+		}
+	}
+	units := map[int]string{}
+	for i := range n.Generators {
+		if g := &n.Generators[i]; g.Unit != nil {
+			if err := n.checkUnit(g, units); err != nil {
+				return err
+			}
+		}
+	}
+	return n.checkInternal()
 }
 
 // checkFigures reports the first element with a figure that is not a

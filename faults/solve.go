@@ -61,25 +61,6 @@ type Fault struct {
 	ZOhm complex128
 }
 
-// CaseFault returns the fault of kind k at place p in case cs with the
-// fault impedance the Settings give that case: bolted in the maximum case;
-// in the minimum case EarthFaultOhm (EarthFaultOhmLV up to 1 kV) for earth
-// faults and PhaseFaultOhm for the others.
-func (e *Engine) CaseFault(p Place, k Kind, cs Case) Fault {
-	f := Fault{Place: p, Kind: k, Case: cs}
-	if cs == Min {
-		switch {
-		case !k.Earth():
-			f.ZOhm = complex(e.set.PhaseFaultOhm, 0)
-		case e.net.Buses[e.PlaceBus(p)].KV <= lowVoltageKV:
-			f.ZOhm = complex(e.set.EarthFaultOhmLV, 0)
-		default:
-			f.ZOhm = complex(e.set.EarthFaultOhm, 0)
-		}
-	}
-	return f
-}
-
 // PlaceBus returns the bus whose voltage and phase frame a fault at p
 // uses: the bus itself, the branch end of a close-in fault, or the From bus
 // of a line.

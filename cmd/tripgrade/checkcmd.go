@@ -28,6 +28,7 @@ type checkOptions struct {
 	outDir  string
 	strict  bool
 	format  *string
+	review  *reviewOptions
 }
 
 // addCheckFlags adds the flags check and demo share.
@@ -36,6 +37,7 @@ func addCheckFlags(c *cmdLine) *checkOptions {
 	o.format = c.fs.String("format", "text", "table `formats`, comma-separated: text, md, csv, json (the first is printed)")
 	c.fs.StringVar(&o.outDir, "out", "", "also write the table in every format, and the plots, to `DIR`")
 	c.fs.BoolVar(&o.strict, "strict", false, "exit 1 on warnings too (checks that could not be made, CT and damage warnings)")
+	o.review = addReviewFlags(c)
 	return o
 }
 
@@ -49,12 +51,13 @@ func (o *checkOptions) parseFormats() error {
 		}
 		o.formats = append(o.formats, f)
 	}
-	return nil
+	return o.review.validate()
 }
 
 // runCheck is "tripgrade check STUDY.toml": the whole audit.
 func runCheck(args []string, stdout, stderr io.Writer) int {
 	c := newCmdLine("check", `usage: tripgrade check STUDY.toml [--format text|md|csv|json[,...]] [--out DIR] [--strict]
+                       [--scope NAMES] [--baseline FINDINGS.json [--fail-on new]] [--report FILE.html]
 
 Checks grading margins of every backup pair over the whole fault range, primary and
 backup sensitivity, load margin, instantaneous reach, inrush, equipment damage and
@@ -81,38 +84,55 @@ func checkLoaded(l loaded, o *checkOptions, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "tripgrade check: %v\n", err)
 		return exitUsage
 	}
+	if !accept(l, res, stderr) {
+		return exitUsage
+	}
+	sc, scope, err := o.review.narrow(l, res)
+	if err != nil {
+		return fprintErr(stderr, err)
+	}
 	tab := report.NewFindings(l.study, res)
+	tab.Scope = scope
+	if tab.Baseline, err = o.review.compare(res, sc); err != nil {
+		return fprintErr(stderr, err)
+	}
 	if err := findingWriters[o.formats[0]].write(tab, stdout); err != nil {
 		fmt.Fprintf(stderr, "tripgrade check: %v\n", err)
 		return exitUsage
 	}
 	if o.outDir != "" {
-		if err := writeOutputs(l, res, tab, o, stderr); err != nil {
+		wrote, removed, err := writeOutputs(l, res, tab, o)
+		listWritten(stderr, wrote)
+		for _, p := range removed {
+			fmt.Fprintf(stderr, "removed %s (written by an earlier run, not by this one)\n", p)
+		}
+		if err != nil {
 			fmt.Fprintf(stderr, "tripgrade check: %v\n", err)
 			return exitUsage
 		}
 	}
-	switch {
-	case res.Failed():
-		return exitFail
-	case o.strict && tab.Warn > 0:
-		return exitFail
+	if _, done := o.reportInOut(); o.review.report != "" && !done {
+		if err := writeReport(l, res, tab, o.review.report, o.review.gate(tab)); err != nil {
+			return fprintErr(stderr, err)
+		}
+		listWritten(stderr, []string{o.review.report})
 	}
-	return exitOK
+	return o.review.exitCode(res, tab, o.strict)
 }
 
 // writeOutputs writes the table in every chosen format and the
 // time-current plots to the output folder, creating it when missing, and
-// removes the files an earlier run wrote there that this one does not
-// (outFolder).
-func writeOutputs(l loaded, res *coord.Result, tab *report.Findings, o *checkOptions, stderr io.Writer) error {
+// the audit report when it is asked for in that folder; it removes the
+// files an earlier run wrote there that this one does not (outFolder).
+// It returns the paths written and those removed.
+func writeOutputs(l loaded, res *coord.Result, tab *report.Findings, o *checkOptions) (wrote, removed []string, err error) {
 	out, err := openOutFolder(o.outDir)
 	if err != nil {
-		return err
+		return nil, nil, err
 	}
 	charts, err := plotCharts(l, res)
 	if err != nil {
-		return err
+		return nil, nil, err
 	}
 	var names []string
 	for _, f := range o.formats {
@@ -121,17 +141,54 @@ func writeOutputs(l loaded, res *coord.Result, tab *report.Findings, o *checkOpt
 	for _, c := range charts {
 		names = append(names, chartFile(c))
 	}
+	reportName, reportHere := o.reportInOut()
+	if reportHere {
+		names = append(names, reportName)
+	}
 	if err := out.plan(names); err != nil {
-		return err
+		return nil, nil, err
 	}
 	for _, f := range o.formats {
 		w := findingWriters[f]
-		if err := out.write("findings."+w.ext, func(b *bytes.Buffer) error { return w.write(tab, b) }); err != nil {
-			return err
+		path, err := out.write("findings."+w.ext, func(b *bytes.Buffer) error { return w.write(tab, b) })
+		if err != nil {
+			return wrote, nil, err
 		}
+		wrote = append(wrote, path)
 	}
-	if err := writePlots(out, charts); err != nil {
-		return err
+	plots, err := writePlots(out, charts)
+	wrote = append(wrote, plots...)
+	if err != nil {
+		return wrote, nil, err
 	}
-	return out.finish()
+	if reportHere {
+		a, err := auditReport(l, res, tab, o.review.gate(tab))
+		if err != nil {
+			return wrote, nil, err
+		}
+		path, err := out.write(reportName, func(b *bytes.Buffer) error { return a.WriteHTML(b) })
+		if err != nil {
+			return wrote, nil, err
+		}
+		wrote = append(wrote, path)
+	}
+	removed, err = out.finish()
+	return wrote, removed, err
+}
+
+// reportInOut reports whether the audit report is asked for in the
+// output folder, and its name there.
+func (o *checkOptions) reportInOut() (string, bool) {
+	if o.review.report == "" || o.outDir == "" {
+		return "", false
+	}
+	return fileIn(o.outDir, o.review.report)
+}
+
+// listWritten tells the user which files a command wrote, on stderr so
+// that the table on stdout stays clean for a pipe.
+func listWritten(stderr io.Writer, paths []string) {
+	for _, p := range paths {
+		fmt.Fprintf(stderr, "wrote %s\n", p)
+	}
 }

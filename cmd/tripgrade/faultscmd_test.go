@@ -58,7 +58,7 @@ func firstDiff(a, b string) string {
 // TestFaultsExampleGolden pins the fault table of the bundled example and
 // checks that two runs give byte-identical output.
 func TestFaultsExampleGolden(t *testing.T) {
-	for _, format := range []string{"text", "csv", "json"} {
+	for _, format := range []string{"text", "md", "csv", "json"} {
 		code, out, errOut := runArgs("faults", "../../examples/kestrel-park.toml", "--format", format)
 		if code != exitOK || errOut != "" {
 			t.Fatalf("%s: exit %d, stderr %q", format, code, errOut)
@@ -94,7 +94,7 @@ func TestFaultsBadInput(t *testing.T) {
 	}{
 		{"no file", []string{"faults"}, "give exactly one study file"},
 		{"missing file", []string{"faults", "nope.toml"}, "no such file"},
-		{"bad format", []string{"faults", "../../examples/kestrel-park.toml", "--format", "xml"}, "want text, csv or json"},
+		{"bad format", []string{"faults", "../../examples/kestrel-park.toml", "--format", "xml"}, "want text, md, csv or json"},
 		{"unknown flag", []string{"faults", "--colour"}, "unknown flag"},
 		{"broken study", []string{"faults", "../../testdata/errors/values.toml"}, "sc_mva_min = 300 is larger than sc_mva_max = 100"},
 		{"unknown command", []string{"fualts"}, "unknown command"},

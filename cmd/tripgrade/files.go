@@ -10,6 +10,7 @@ import (
 	"path/filepath"
 	"sort"
 	"strings"
+	"sync"
 	"time"
 )
 
@@ -110,6 +111,7 @@ func writeTo(path string, fn func(*bytes.Buffer) error) error {
 type outFolder struct {
 	dir   string
 	old   map[string]bool // the list of the earlier run
+	mu    sync.Mutex      // guards wrote: charts are written at once
 	wrote []string
 }
 
@@ -163,22 +165,38 @@ func (o *outFolder) plan(names []string) error {
 	return o.writeList(all)
 }
 
-// write writes one file of the run.
-func (o *outFolder) write(name string, fn func(*bytes.Buffer) error) error {
-	if err := writeTo(filepath.Join(o.dir, name), fn); err != nil {
-		return err
+// write writes one file of the run and returns its path. It may be
+// called from several goroutines at once.
+func (o *outFolder) write(name string, fn func(*bytes.Buffer) error) (string, error) {
+	path := filepath.Join(o.dir, name)
+	if err := writeTo(path, fn); err != nil {
+		return "", err
 	}
+	o.mu.Lock()
 	o.wrote = append(o.wrote, name)
-	return nil
+	o.mu.Unlock()
+	return path, nil
 }
 
-// finish removes the earlier run's files that this run did not write and
-// leaves the list of this run's files.
-func (o *outFolder) finish() error {
+// fileIn reports whether path names a file directly in folder dir that
+// can be one of ours (ownName), and gives its name there: a file the user
+// asks for by path (the audit report) that lands in the output folder is
+// then one of the run's files.
+func fileIn(dir, path string) (string, bool) {
+	d, err1 := filepath.Abs(dir)
+	at, err2 := filepath.Abs(filepath.Dir(path))
+	name := filepath.Base(path)
+	return name, err1 == nil && err2 == nil && d == at && ownName(name)
+}
+
+// finish removes the earlier run's files that this run did not write,
+// leaves the list of this run's files and returns the paths removed.
+func (o *outFolder) finish() ([]string, error) {
 	now := map[string]bool{}
 	for _, n := range o.wrote {
 		now[n] = true
 	}
+	var gone []string
 	for n := range o.old {
 		if now[n] {
 			continue
@@ -186,11 +204,13 @@ func (o *outFolder) finish() error {
 		p := filepath.Join(o.dir, n)
 		if info, err := os.Lstat(p); err == nil && info.Mode().IsRegular() {
 			if err := os.Remove(p); err != nil {
-				return fmt.Errorf("cannot remove %s, written by an earlier run: %w", p, err)
+				return gone, fmt.Errorf("cannot remove %s, written by an earlier run: %w", p, err)
 			}
+			gone = append(gone, p)
 		}
 	}
-	return o.writeList(now)
+	sort.Strings(gone)
+	return gone, o.writeList(now)
 }
 
 func (o *outFolder) writeList(names map[string]bool) error {

@@ -15,7 +15,7 @@ import (
 // file (another run may be writing it) and files not on the list stay.
 func TestOutFolderRemovesOnlyItsOwnStaleFiles(t *testing.T) {
 	dir := filepath.Join(t.TempDir(), "new", "out")
-	if code, _, errOut := runArgs("check", "../../testdata/checks/grading.toml", "--out", dir); code != exitFail || errOut != "" {
+	if code, _, errOut := runArgs("check", "../../testdata/checks/grading.toml", "--out", dir); code != exitFail || !onlyListed(errOut, "wrote ") {
 		t.Fatalf("first run: exit %d, %s", code, errOut)
 	}
 	first := listDir(t, dir)
@@ -48,8 +48,12 @@ func TestOutFolderRemovesOnlyItsOwnStaleFiles(t *testing.T) {
 			os.Chtimes(p, mtime, mtime)
 		}
 	}
-	if code, _, errOut := runArgs("check", "../../examples/kestrel-park.toml", "--out", dir); code != exitOK || errOut != "" {
+	code, _, errOut := runArgs("check", "../../examples/kestrel-park.toml", "--out", dir)
+	if code != exitOK || !onlyListed(errOut, "wrote ", "removed ") {
 		t.Fatalf("second run: exit %d, %s", code, errOut)
+	}
+	if want := "removed " + filepath.Join(dir, pairChart) + " (written by an earlier run"; !strings.Contains(errOut, want) {
+		t.Errorf("the second run does not say it removed the old chart (%q):\n%s", want, errOut)
 	}
 	after := map[string]bool{}
 	for _, n := range listDir(t, dir) {
@@ -72,6 +76,52 @@ func TestOutFolderRemovesOnlyItsOwnStaleFiles(t *testing.T) {
 	}
 }
 
+// onlyListed reports whether every line of stderr starts with one of the
+// prefixes: the files written or removed, and nothing else.
+func onlyListed(stderr string, prefixes ...string) bool {
+	for _, line := range strings.Split(strings.TrimSuffix(stderr, "\n"), "\n") {
+		ok := false
+		for _, p := range prefixes {
+			ok = ok || strings.HasPrefix(line, p)
+		}
+		if !ok {
+			return false
+		}
+	}
+	return stderr != ""
+}
+
+// TestOutFolderKeepsTrackOfTheReport: an audit report asked for in the
+// output folder is one of the run's files, so a later run that writes
+// none removes it; a report elsewhere is the user's and stays off the
+// list.
+func TestOutFolderKeepsTrackOfTheReport(t *testing.T) {
+	t.Setenv("SOURCE_DATE_EPOCH", "0")
+	root := t.TempDir()
+	dir := filepath.Join(root, "out")
+	inside, outside := filepath.Join(dir, "review.html"), filepath.Join(root, "review.html")
+	for _, r := range []string{inside, outside} {
+		code, _, errOut := runArgs("check", "../../examples/kestrel-park.toml", "--out", dir, "--report", r)
+		if code != exitOK || strings.Count(errOut, "wrote "+r+"\n") != 1 {
+			t.Fatalf("--report %s: exit %d, %s", r, code, errOut)
+		}
+	}
+	list, _ := os.ReadFile(filepath.Join(dir, manifestName))
+	if strings.Contains(string(list), "review.html") {
+		t.Errorf("the last run wrote its report outside the folder, yet the list has it:\n%s", list)
+	}
+	if _, err := os.Stat(inside); err == nil {
+		t.Errorf("the first run's report %s is still in the folder", inside)
+	}
+	if _, err := os.Stat(outside); err != nil {
+		t.Errorf("the report outside the folder: %v", err)
+	}
+	code, _, errOut := runArgs("check", "../../examples/kestrel-park.toml", "--out", dir, "--report", inside)
+	if list, _ := os.ReadFile(filepath.Join(dir, manifestName)); code != exitOK || !strings.Contains(string(list), "\nreview.html\n") {
+		t.Errorf("report in the folder: exit %d, %s; list:\n%s", code, errOut, list)
+	}
+}
+
 // TestOutFolderListCannotReachOutside: names on a planted list that leave
 // the folder, are hidden or are not of a kind tripgrade writes are never
 // removed.
@@ -89,8 +139,8 @@ func TestOutFolderListCannotReachOutside(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if err := o.finish(); err != nil {
-		t.Fatal(err)
+	if gone, err := o.finish(); err != nil || len(gone) > 0 {
+		t.Fatalf("removed %v, error %v", gone, err)
 	}
 	for _, v := range victims {
 		if _, err := os.Stat(v); err != nil {

@@ -13,6 +13,7 @@ import (
 
 // loaded is a study ready for the fault engine and the checks.
 type loaded struct {
+	path   string // the study file as the user named it
 	study  *coord.Study
 	engine *faults.Engine
 	topo   *coord.Topology
@@ -23,18 +24,7 @@ type loaded struct {
 func loadStudy(path string, stderr io.Writer) (l loaded, ok bool) {
 	s, err := study.Load(path)
 	if err != nil {
-		var list study.ErrorList
-		switch {
-		case errors.As(err, &list):
-			for _, e := range list {
-				fmt.Fprintln(stderr, e)
-			}
-			fmt.Fprintf(stderr, "tripgrade: %d problem(s) in %s\n", len(list), path)
-		case errors.Is(err, os.ErrNotExist):
-			fmt.Fprintf(stderr, "tripgrade: %s: no such file\n", path)
-		default:
-			fmt.Fprintf(stderr, "tripgrade: %v\n", err)
-		}
+		printLoadError(path, err, stderr)
 		return l, false
 	}
 	printNotes(s, stderr)
@@ -47,6 +37,33 @@ func printNotes(s *coord.Study, stderr io.Writer) {
 	for _, n := range s.Notes {
 		fmt.Fprintf(stderr, "note: %s\n", n)
 	}
+}
+
+// printLoadError prints every problem study.Load found.
+func printLoadError(path string, err error, stderr io.Writer) {
+	var list study.ErrorList
+	switch {
+	case errors.As(err, &list):
+		for _, e := range list {
+			fmt.Fprintln(stderr, e)
+		}
+		fmt.Fprintf(stderr, "tripgrade: %d problem(s) in %s\n", len(list), path)
+	case errors.Is(err, os.ErrNotExist):
+		fmt.Fprintf(stderr, "tripgrade: %s: no such file\n", path)
+	default:
+		fmt.Fprintf(stderr, "tripgrade: %v\n", err)
+	}
+}
+
+// suggestDevice offers the nearest device name to a mistyped one.
+func suggestDevice(s *coord.Study, name string) string {
+	if name == "" {
+		return ""
+	}
+	if near := study.Closest(name, deviceNames(s)); near != "" && near != name {
+		return fmt.Sprintf("; did you mean %q?", near)
+	}
+	return ""
 }
 
 // prepare builds the fault engine and the zones of a checked study.
@@ -63,5 +80,25 @@ func prepare(path string, s *coord.Study, stderr io.Writer) (loaded, bool) {
 		fmt.Fprintf(stderr, "%s: %v\n", path, err)
 		return loaded{}, false
 	}
-	return loaded{study: s, engine: eng, topo: topo}, true
+	return loaded{path: path, study: s, engine: eng, topo: topo}, true
+}
+
+// accept applies the study's [[accept]] entries to a check's result and
+// prints, with its line, every entry that covers no failing or warning
+// finding. ok is false when there is any: a stale acceptance is an error
+// in the study.
+func accept(l loaded, res *coord.Result, stderr io.Writer) (ok bool) {
+	stale := coord.Accept(res, l.study.Accepts)
+	for _, err := range stale {
+		var sa *coord.StaleAcceptance
+		if errors.As(err, &sa) && sa.Entry.Line > 0 {
+			fmt.Fprintf(stderr, "%s:%d: %v\n", l.path, sa.Entry.Line, err)
+			continue
+		}
+		fmt.Fprintf(stderr, "%s: %v\n", l.path, err)
+	}
+	if len(stale) > 0 {
+		fmt.Fprintf(stderr, "tripgrade: %d stale acceptance(s) in %s\n", len(stale), l.path)
+	}
+	return len(stale) == 0
 }

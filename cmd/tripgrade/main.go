@@ -18,7 +18,7 @@ import (
 // Exit codes shared by every subcommand.
 const (
 	exitOK    = 0 // the command ran and nothing failed
-	exitFail  = 1 // a check failed (only "check" and "demo" use it)
+	exitFail  = 1 // a check failed (check, demo; diff: a failure new or worse)
 	exitUsage = 2 // bad input: the study file or the command line is wrong
 	exitBug   = 3 // tripgrade itself failed: a bug to report
 )
@@ -32,11 +32,13 @@ type command struct {
 
 func commands() map[string]command {
 	return map[string]command{
-		"check":  {"the coordination check of a study: every pair, every criterion", runCheck},
-		"curve":  {"operating time of one characteristic at given currents", runCurve},
-		"demo":   {"the check on an example study built into the program", runDemo},
-		"faults": {"fault currents at every device and bus of a study", runFaults},
-		"plot":   {"time-current charts of the coordination paths through one device", runPlot},
+		"check":     {"the coordination check of a study: every pair, every criterion", runCheck},
+		"curve":     {"operating time of one characteristic at given currents", runCurve},
+		"demo":      {"the check on an example study built into the program", runDemo},
+		"diff":      {"setting changes between two studies and what they do to every finding", runDiff},
+		"faults":    {"fault currents at every device and bus of a study", runFaults},
+		"plot":      {"time-current charts of the coordination paths through one device", runPlot},
+		"testsheet": {"secondary injection currents and expected times of every relay stage", runTestSheet},
 	}
 }
 
@@ -75,6 +77,8 @@ func run(args []string, stdout, stderr io.Writer) int {
 	case "help", "-h", "--help":
 		usage(stdout, cmds)
 		return exitOK
+	case "version", "--version":
+		return printVersion(stdout)
 	}
 	c, ok := cmds[name]
 	if !ok {
@@ -95,8 +99,9 @@ func usage(w io.Writer, cmds map[string]command) {
 	}
 	sort.Strings(names)
 	for _, n := range names {
-		fmt.Fprintf(w, "  %-8s %s\n", n, cmds[n].summary)
+		fmt.Fprintf(w, "  %-9s %s\n", n, cmds[n].summary)
 	}
 	fmt.Fprintln(w, "")
-	fmt.Fprintln(w, "Run \"tripgrade <command> --help\" for the arguments of one command.")
+	fmt.Fprintln(w, "Run \"tripgrade <command> --help\" for the arguments of one command,")
+	fmt.Fprintln(w, "\"tripgrade --version\" for the version of this build.")
 }

@@ -3,6 +3,8 @@ package main
 import (
 	"bytes"
 	"fmt"
+	"runtime"
+	"sync"
 
 	"tripgrade/coord"
 	"tripgrade/coord/tcc"
@@ -31,10 +33,36 @@ func plotCharts(l loaded, res *coord.Result) ([]*tcc.Chart, error) {
 func chartFile(c *tcc.Chart) string { return c.Name + "." + tcc.PNG.Ext() }
 
 // writePlots writes each chart as a PNG into the output folder, each file
-// atomically.
-func writePlots(out *outFolder, charts []*tcc.Chart) error {
-	for _, c := range charts {
-		if err := out.write(chartFile(c), func(b *bytes.Buffer) error { return c.Render(b, tcc.PNG, tcc.Settings{}) }); err != nil {
+// atomically, and returns the paths written, in chart order. Charts are
+// drawn on every processor at once; the error reported is that of the
+// first chart, in chart order, that failed.
+func writePlots(out *outFolder, charts []*tcc.Chart) ([]string, error) {
+	errs := make([]error, len(charts))
+	paths := make([]string, len(charts))
+	sem := make(chan struct{}, runtime.GOMAXPROCS(0))
+	var wg sync.WaitGroup
+	for k, c := range charts {
+		wg.Add(1)
+		sem <- struct{}{}
+		go func() {
+			defer func() { <-sem; wg.Done() }()
+			paths[k], errs[k] = out.write(chartFile(c), func(b *bytes.Buffer) error { return c.Render(b, tcc.PNG, tcc.Settings{}) })
+		}()
+	}
+	wg.Wait()
+	var wrote []string
+	for _, p := range paths {
+		if p != "" {
+			wrote = append(wrote, p)
+		}
+	}
+	return wrote, firstError(errs)
+}
+
+// firstError returns the first non-nil error, or nil.
+func firstError(errs []error) error {
+	for _, err := range errs {
+		if err != nil {
 			return err
 		}
 	}

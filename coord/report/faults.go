@@ -22,6 +22,9 @@ type FaultTables struct {
 	Cases  []string // one line per case, saying what it assumes
 	Points []PointRow
 	Buses  []BusRow
+	// Notes qualify figures of the bus table (buses inside power station
+	// units, the method of the duties).
+	Notes []string
 }
 
 // PointRow is one device's currents.
@@ -49,6 +52,10 @@ type BusRow struct {
 	Bus    string
 	KV     float64
 	Faults [2][4]faults.BusFault
+	// Duty is the three-phase duty in the maximum case (i_p, I_b, I_k); nil
+	// when not computed (see AddDuties).
+	Duty  *faults.Duty
+	index int // the bus's index in the network
 }
 
 // NewFaultTables gathers the figures of a study's fault calculation.
@@ -73,28 +80,102 @@ func NewFaultTables(s *coord.Study, levels []faults.PointSummary, buses []faults
 		})
 	}
 	for _, b := range buses {
-		t.Buses = append(t.Buses, BusRow{Bus: n.Buses[b.Bus].Name, KV: n.Buses[b.Bus].KV, Faults: b.Faults})
+		if n.Buses[b.Bus].Internal {
+			continue // a three-winding transformer's star point: no place for a fault
+		}
+		t.Buses = append(t.Buses, BusRow{Bus: n.Buses[b.Bus].Name, KV: n.Buses[b.Bus].KV, Faults: b.Faults, index: b.Bus})
+	}
+	if units := unitBuses(n); len(units) > 0 {
+		t.Notes = append(t.Notes, fmt.Sprintf("%s inside power station units: the maximum case there uses the unit's K_S or K_SO, not the IEC 60909-0 factors for a fault between generator and unit transformer",
+			strings.Join(units, ", ")))
 	}
 	return t
+}
+
+// unitBuses names the generator buses of power station units.
+func unitBuses(n *faults.Network) []string {
+	var out []string
+	for _, g := range n.Generators {
+		if g.Unit != nil {
+			out = append(out, n.Buses[g.Bus].Name)
+		}
+	}
+	return out
+}
+
+// AddDuties adds each bus's three-phase duty in the maximum case (duties
+// indexed by bus, as faults.Engine.AllDuties returns them) and a note on
+// how they are computed.
+func (t *FaultTables) AddDuties(s *coord.Study, duties []faults.Duty) {
+	for i := range t.Buses {
+		d := duties[t.Buses[i].index]
+		t.Buses[i].Duty = &d
+	}
+	tmin := s.Faults.MinTimeDelayS
+	if tmin == 0 {
+		tmin = 0.02
+	}
+	t.Notes = append(t.Notes, fmt.Sprintf("ip, Ib, Ik: three-phase fault, maximum case (IEC 60909-0): peak ip = κ·√2·I\"k with κ by method C (equivalent frequency 0.4·f); breaking Ib at t_min = %g s, less the decay of generators and motors; steady-state Ik = I\"k without motors (meshed-network rule)", tmin))
 }
 
 // CaseLines describes the two cases of a study in words.
 func CaseLines(s *coord.Study) []string {
 	f := s.Faults
-	lv := "1.05"
-	lvMin := "0.95"
-	if f.LVTolerance10 {
-		lv, lvMin = "1.10", "0.90"
-	}
 	heat := "conductors at 20 °C"
 	if f.EndTempC > 0 {
 		heat = fmt.Sprintf("line resistance at %g °C", f.EndTempC)
 	}
-	return []string{
-		fmt.Sprintf("maximum case: c_max 1.10 above 1 kV, %s up to 1 kV (IEC 60909-0 Table 1); maximum source strength; generators in service; K_T and K_G corrections; bolted faults", lv),
-		fmt.Sprintf("minimum case: c_min 1.00 above 1 kV, %s up to 1 kV; minimum source strength; only generators marked always_running; %s; earth-fault resistance %g Ω above 1 kV, %g Ω up to 1 kV; phase-fault resistance %g Ω",
-			lvMin, heat, f.EarthFaultOhm, f.EarthFaultOhmLV, f.PhaseFaultOhm),
+	motors, motorsMin, units := "", "", ""
+	if len(s.Network.Motors) > 0 {
+		motors, motorsMin = "; asynchronous motors in service", "; motors left out"
 	}
+	if len(unitBuses(s.Network)) > 0 {
+		units = ", K_S or K_SO for power station units"
+	}
+	return []string{
+		fmt.Sprintf("maximum case: %s; maximum source strength; generators in service%s; K_T and K_G corrections%s; bolted faults", factorText(f, faults.Max), motors, units),
+		fmt.Sprintf("minimum case: %s; minimum source strength; only generators marked always_running%s; %s; %s above 1 kV, %s up to 1 kV; %s",
+			factorText(f, faults.Min), motorsMin, heat, faultZ("earth-fault", f.EarthFaultOhm, f.EarthFaultXOhm, f.EarthFaultXOhmLV),
+			ohms(f.EarthFaultOhmLV, f.EarthFaultXOhmLV), faultZ("phase-fault", f.PhaseFaultOhm, f.PhaseFaultXOhm, 0)),
+	}
+}
+
+// factorText names the voltage factor of a case: the study's own, or
+// those of IEC 60909-0 Table 1 above and up to 1 kV.
+func factorText(f faults.Settings, cs faults.Case) string {
+	name, given := "c_max", f.CMax
+	if cs == faults.Min {
+		name, given = "c_min", f.CMin
+	}
+	table := func(kv float64) string {
+		return fmt.Sprintf("%.2f", faults.TableVoltageFactor(kv, cs, f.LVTolerance10))
+	}
+	if given > 0 {
+		return fmt.Sprintf("%s %.2f at every voltage (set by the study; IEC 60909-0 Table 1 gives %s above 1 kV, %s up to 1 kV)", name, given, table(11), table(0.4))
+	}
+	s := fmt.Sprintf("%s %s above 1 kV, %s up to 1 kV", name, table(11), table(0.4))
+	if cs == faults.Max {
+		s += " (IEC 60909-0 Table 1)"
+	}
+	return s
+}
+
+// faultZ names a fault impedance: "earth-fault resistance 10 Ω" while the
+// study gives no reactance (xOther: the reactance of the same faults on the
+// other side of 1 kV), "earth-fault impedance 10 + j5 Ω" when it does.
+func faultZ(what string, r, x, xOther float64) string {
+	if x == 0 && xOther == 0 {
+		return what + " resistance " + ohms(r, x)
+	}
+	return what + " impedance " + ohms(r, x)
+}
+
+// ohms formats a fault impedance: "10 Ω", or "10 + j5 Ω" with a reactance.
+func ohms(r, x float64) string {
+	if x == 0 {
+		return fmt.Sprintf("%g Ω", r)
+	}
+	return fmt.Sprintf("%g + j%g Ω", r, x)
 }
 
 // amps formats a current for a table: whole amperes from 100 A up, one
@@ -109,6 +190,14 @@ func amps(a float64) string {
 		return fixed(a, 1)
 	}
 	return strconv.FormatFloat(a, 'g', 2, 64)
+}
+
+// ampsOrNone formats a current for a table, "none" for no current.
+func ampsOrNone(a float64) string {
+	if a == 0 {
+		return "none"
+	}
+	return amps(a)
 }
 
 func (f Figure) text(none string) (string, string) {
@@ -139,17 +228,28 @@ func (t *FaultTables) WriteText(w io.Writer) error {
 	tw.Flush()
 	fmt.Fprintf(ew, "\nFault currents at each bus (A into the fault; LLG: earth current 3I0)\n")
 	tw = tabwriter.NewWriter(ew, 0, 0, 2, ' ', tabwriter.AlignRight)
-	fmt.Fprintln(tw, "bus\tkV\tLLL max\tLL max\tLG max\tLLG max\tLLL min\tLL min\tLG min\tLLG min\t")
+	duties := len(t.Buses) > 0 && t.Buses[0].Duty != nil
+	head := "bus\tkV\tLLL max\tLL max\tLG max\tLLG max\tLLL min\tLL min\tLG min\tLLG min\t"
+	if duties {
+		head += "ip max\tIb max\tIk max\t"
+	}
+	fmt.Fprintln(tw, head)
 	for _, b := range t.Buses {
 		fmt.Fprintf(tw, "%s\t%g\t", b.Bus, b.KV)
 		for _, cs := range faults.Cases {
 			for _, k := range faults.Kinds {
-				fmt.Fprintf(tw, "%s\t", amps(busFigure(b.Faults[cs][k], k)))
+				fmt.Fprintf(tw, "%s\t", ampsOrNone(busFigure(b.Faults[cs][k], k)))
 			}
+		}
+		if d := b.Duty; d != nil {
+			fmt.Fprintf(tw, "%s\t%s\t%s\t", amps(d.PeakA), amps(d.BreakingA), amps(d.SteadyA))
 		}
 		fmt.Fprintln(tw)
 	}
 	tw.Flush()
+	for _, n := range t.Notes {
+		fmt.Fprintf(ew, "  %s\n", n)
+	}
 	fmt.Fprintf(ew, "\n%s\n", Caution)
 	return ew.err
 }
@@ -199,10 +299,26 @@ func (t *FaultTables) WriteCSV(w io.Writer) error {
 				}
 			}
 		}
+		if d := b.Duty; d != nil {
+			for _, q := range []struct {
+				name string
+				a    float64
+			}{{"lll_peak", d.PeakA}, {"lll_breaking", d.BreakingA}, {"lll_steady", d.SteadyA}} {
+				cw.Write([]string{"bus", b.Bus, fmt.Sprint(b.KV), q.name, "max", fmt.Sprintf("%.3f", q.a), "LLL", b.Bus})
+			}
+		}
 	}
 	cw.Flush()
 	return cw.Error()
 }
+
+// phasorFloor is the share of a point's largest current below which one
+// of its phase or residual currents counts as none: far above the
+// rounding residue of summing sequence currents (about 1e-15), far below
+// any current a network drives (the engine's own cut-off is 1e-10 of the
+// fault's sequence current). It is relative, so it does not depend on
+// base_mva.
+const phasorFloor = 1e-9
 
 type jsonFigure struct {
 	CurrentA  *float64     `json:"current_a"`
@@ -236,8 +352,15 @@ func (f Figure) json() jsonFigure {
 	}
 	a := f.A
 	ph := f.At.Phases()
+	// A healthy phase of an earth fault is a sum of sequence currents that
+	// cancel; rounding leaves some 1e-15 of the point's largest current.
+	// Below phasorFloor of it a current is none: 0 A at 0°.
+	largest := cmplx.Abs(f.At.Residual())
+	for _, c := range ph {
+		largest = math.Max(largest, cmplx.Abs(c))
+	}
 	polar := func(c complex128) (float64, float64) {
-		if cmplx.Abs(c) == 0 {
+		if !(cmplx.Abs(c) > phasorFloor*largest) {
 			return 0, 0
 		}
 		return cmplx.Abs(c), cmplx.Phase(c) * 180 / math.Pi
@@ -258,6 +381,15 @@ type jsonBusCase struct {
 	LLGEarthA float64 `json:"llg_earth_a"`
 }
 
+// jsonDuty is a bus's three-phase duty in the maximum case.
+type jsonDuty struct {
+	Kappa     float64 `json:"kappa"`
+	RX        float64 `json:"r_x"`
+	PeakA     float64 `json:"peak_a"`
+	BreakingA float64 `json:"breaking_a"`
+	SteadyA   float64 `json:"steady_a"`
+}
+
 // WriteJSON writes the tables as one JSON document.
 func (t *FaultTables) WriteJSON(w io.Writer) error {
 	type point struct {
@@ -272,18 +404,20 @@ func (t *FaultTables) WriteJSON(w io.Writer) error {
 		GroundMin jsonFigure `json:"ground_min"`
 	}
 	type bus struct {
-		Bus string      `json:"bus"`
-		KV  float64     `json:"kv"`
-		Max jsonBusCase `json:"max"`
-		Min jsonBusCase `json:"min"`
+		Bus  string      `json:"bus"`
+		KV   float64     `json:"kv"`
+		Max  jsonBusCase `json:"max"`
+		Min  jsonBusCase `json:"min"`
+		Duty *jsonDuty   `json:"duty,omitempty"`
 	}
 	doc := struct {
 		Study   string   `json:"study"`
 		Caution string   `json:"caution"`
 		Cases   []string `json:"cases"`
+		Notes   []string `json:"notes,omitempty"`
 		Devices []point  `json:"devices"`
 		Buses   []bus    `json:"buses"`
-	}{Study: t.Study, Caution: Caution, Cases: t.Cases, Devices: []point{}, Buses: []bus{}}
+	}{Study: t.Study, Caution: Caution, Cases: t.Cases, Notes: t.Notes, Devices: []point{}, Buses: []bus{}}
 	for _, p := range t.Points {
 		doc.Devices = append(doc.Devices, point{p.Device, p.Kind, p.Branch, p.At, p.KV,
 			p.PhaseMax.json(), p.PhaseMin.json(), p.GroundMax.json(), p.GroundMin.json()})
@@ -292,7 +426,11 @@ func (t *FaultTables) WriteJSON(w io.Writer) error {
 		return jsonBusCase{f[faults.LLL].PhaseA, f[faults.LL].PhaseA, f[faults.LG].PhaseA, f[faults.LLG].PhaseA, f[faults.LLG].EarthA}
 	}
 	for _, b := range t.Buses {
-		doc.Buses = append(doc.Buses, bus{b.Bus, b.KV, bc(b.Faults[faults.Max]), bc(b.Faults[faults.Min])})
+		jb := bus{Bus: b.Bus, KV: b.KV, Max: bc(b.Faults[faults.Max]), Min: bc(b.Faults[faults.Min])}
+		if d := b.Duty; d != nil {
+			jb.Duty = &jsonDuty{Kappa: d.Kappa, RX: d.RX, PeakA: d.PeakA, BreakingA: d.BreakingA, SteadyA: d.SteadyA}
+		}
+		doc.Buses = append(doc.Buses, jb)
 	}
 	enc := json.NewEncoder(w)
 	enc.SetIndent("", "  ")

@@ -23,6 +23,14 @@ type Findings struct {
 	Pass     int
 	Warn     int
 	Fail     int
+	// Accepted counts the findings an [[accept]] entry covers, apart
+	// from the others; Acceptances are the study's entries.
+	Accepted    int
+	Acceptances []coord.Acceptance
+	// Scope is set for a scoped check, Baseline for one compared with an
+	// earlier run.
+	Scope    *ScopeInfo
+	Baseline *Comparison
 }
 
 // PairRow is one backup pair by name.
@@ -52,6 +60,8 @@ func NewFindings(s *coord.Study, r *coord.Result) *Findings {
 		f.Rows = append(f.Rows, newRow(x))
 	}
 	f.Pass, f.Warn, f.Fail = r.Counts()
+	f.Accepted = r.Accepted()
+	f.Acceptances = s.Accepts
 	return f
 }
 
@@ -64,29 +74,46 @@ func newRow(x coord.Finding) Row {
 	if ft := x.Fault; ft != nil {
 		r.Fault = fmt.Sprintf("%s %s @ %s", ft.Kind, ft.Case, ft.Place)
 		if ft.Interpolated {
-			r.Fault += " (sweep)"
+			r.Fault += fmt.Sprintf(" (sweep, %s %%)", percent(ft.Scale))
 		}
 		r.Detail = detail(x)
 	}
 	return r
 }
 
-// detail gives the currents and times behind a figure.
+// percent formats a sweep's scale as a percentage of the solved fault.
+func percent(scale float64) string {
+	if scale >= 0.1 {
+		return fmt.Sprintf("%.0f", scale*100)
+	}
+	return fmt.Sprintf("%.2g", scale*100)
+}
+
+// current names a current with its quantity: "1544 A", "97.0 A 3I0", or
+// "none" for a device that carries no current of that quantity.
+func current(a float64, q coord.Quantity) string {
+	switch {
+	case a == 0:
+		return "none"
+	case q == coord.Residual:
+		return amps(a) + " A 3I0"
+	}
+	return amps(a) + " A"
+}
+
+// detail gives the currents and times behind a figure, each current with
+// the device it belongs to.
 func detail(x coord.Finding) string {
 	ft := x.Fault
-	cur := func(a float64, q coord.Quantity) string {
-		if q == coord.Residual {
-			return amps(a) + " A 3I0"
-		}
-		return amps(a) + " A"
-	}
 	switch x.Check {
 	case coord.Grading:
-		return fmt.Sprintf("%s: %s, %s; %s: %s, %s", x.Device, cur(ft.DeviceA, ft.DeviceQty), seconds(ft.DeviceS), x.Other, cur(ft.OtherA, ft.OtherQty), seconds(ft.OtherS))
+		return fmt.Sprintf("%s: %s, %s; %s: %s, %s", x.Device, current(ft.DeviceA, ft.DeviceQty), seconds(ft.DeviceS), x.Other, current(ft.OtherA, ft.OtherQty), seconds(ft.OtherS))
 	case coord.Damage:
-		return fmt.Sprintf("%s clears %s in %s; %s carries %s A for %s", x.Device, cur(ft.DeviceA, ft.DeviceQty), seconds(ft.DeviceS), x.Other, amps(ft.OtherA), seconds(ft.OtherS))
+		return fmt.Sprintf("%s clears %s in %s; %s carries %s for %s", x.Device, current(ft.DeviceA, ft.DeviceQty), seconds(ft.DeviceS), x.Other, current(ft.OtherA, coord.Phase), seconds(ft.OtherS))
+	case coord.BackupSensitivity:
+		return fmt.Sprintf("%s at %s (upstream); %s at %s", current(ft.OtherA, ft.OtherQty), x.Other, current(ft.DeviceA, ft.DeviceQty), x.Device)
 	}
-	return fmt.Sprintf("%s at %s", cur(ft.DeviceA, ft.DeviceQty), x.Device)
+	return fmt.Sprintf("%s at %s", current(ft.DeviceA, ft.DeviceQty), x.Device)
 }
 
 func seconds(s float64) string {
@@ -107,6 +134,8 @@ func quantity(v float64, unit string) string {
 		s = fixed(v, 3) + " s"
 	case unit == "A":
 		s = amps(v) + " A"
+	case unit == "×":
+		s = fixed(v, 2) + " ×"
 	default:
 		s = fixed(v, 2)
 	}
@@ -139,14 +168,15 @@ func criteriaLines(c coord.Criteria) []string {
 		times = "worst-case times within declared accuracy (upstream earliest, downstream latest)"
 	}
 	return []string{
-		fmt.Sprintf("%s, %.2f s relay over fuse, downstream clearing ≤ %g × upstream fuse melting; %s", margin, c.MarginFuseS, c.FuseMeltRatio, times),
+		fmt.Sprintf("%s, %.2f s relay over fuse, downstream clearing ≤ %g × upstream fuse melting; %s; instantaneous stages operate in %.3f s unless a relay gives its own", margin, c.MarginFuseS, c.FuseMeltRatio, times, c.InstantaneousTimeS),
 		fmt.Sprintf("sensitivity ≥ %g × pickup in the own zone, ≥ %g × at the end of the next zone; pickup ≥ %g × maximum load; instantaneous pickup ≥ %g × maximum through-fault (stages up to %g s)",
 			c.SensitivityPrimary, c.SensitivityBackup, c.LoadFactor, c.InstantaneousFactor, c.ShortDelayS),
 		fmt.Sprintf("inrush %g × transformer full-load current for %g s; damage: clear before the IEEE C57.109 or adiabatic withstand", c.InrushMultiple, c.InrushTimeS),
 	}
 }
 
-// Verdict is the overall verdict line.
+// Verdict is the overall verdict line. Accepted findings are counted
+// apart, and only when there are any.
 func (f *Findings) Verdict() string {
 	overall := "PASS"
 	switch {
@@ -154,8 +184,14 @@ func (f *Findings) Verdict() string {
 		overall = "FAIL"
 	case f.Warn > 0:
 		overall = "PASS with warnings"
+	case f.Accepted > 0:
+		overall = "PASS with accepted findings"
 	}
-	return fmt.Sprintf("%d PASS, %d WARN, %d FAIL: %s", f.Pass, f.Warn, f.Fail, overall)
+	accepted := ""
+	if f.Accepted > 0 {
+		accepted = fmt.Sprintf(", %d ACCEPTED", f.Accepted)
+	}
+	return fmt.Sprintf("%d PASS, %d WARN, %d FAIL%s: %s", f.Pass, f.Warn, f.Fail, accepted, overall)
 }
 
 // groups returns the rows of each check in report order.

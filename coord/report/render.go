@@ -5,8 +5,10 @@ import (
 	"encoding/json"
 	"fmt"
 	"io"
+	"math"
 	"strings"
-	"text/tabwriter"
+
+	"tripgrade/coord"
 )
 
 // WriteText writes the findings aligned for a terminal: the pairs, then a
@@ -14,11 +16,8 @@ import (
 func (f *Findings) WriteText(w io.Writer) error {
 	ew := &errWriter{w: w}
 	fmt.Fprintf(ew, "tripgrade coordination check: %s\n", f.Study)
-	for _, c := range f.Cases {
-		fmt.Fprintf(ew, "  %s\n", c)
-	}
-	for _, c := range f.Criteria {
-		fmt.Fprintf(ew, "  %s\n", c)
+	for _, c := range append(append(append([]string{}, f.Cases...), f.Criteria...), f.Scope.lines()...) {
+		fmt.Fprintf(ew, "  %s\n", wrap(c, TextWidth-2, "      "))
 	}
 	for _, n := range f.Notes {
 		fmt.Fprintf(ew, "  note: %s\n", n)
@@ -34,25 +33,10 @@ func (f *Findings) WriteText(w io.Writer) error {
 		fmt.Fprintf(ew, "  excluded by [[pair]]: %s\n", joinPairs(f.Excluded))
 	}
 	for _, g := range f.groups() {
-		c := g[0].Finding.Check
-		fmt.Fprintf(ew, "\n%s\n", strings.ToUpper(c.String()))
-		tw := tabwriter.NewWriter(ew, 0, 0, 2, ' ', 0)
-		with := withHeading(c)
-		head := "verdict\tdevice\t"
-		if with != "" {
-			head += with + "\t"
-		}
-		fmt.Fprintln(tw, head+"stage\tmeasured\trequired\tmargin\tfault\tdetail\tnote")
-		for _, r := range g {
-			x := r.Finding
-			line := x.Verdict.String() + "\t" + x.Device + "\t"
-			if with != "" {
-				line += x.Other + "\t"
-			}
-			fmt.Fprintf(tw, "%s%s\t%s\t%s\t%s\t%s\t%s\t%s\n", line, dash(x.Stage), r.Measured, r.Required, r.Margin, dash(r.Fault), dash(r.Detail), x.Note)
-		}
-		tw.Flush()
+		fmt.Fprintf(ew, "\n%s\n", strings.ToUpper(g[0].Finding.Check.String()))
+		findingsTable(g).write(ew)
 	}
+	f.Baseline.writeText(ew)
 	fmt.Fprintf(ew, "\n%s\n%s\n", f.Verdict(), Caution)
 	return ew.err
 }
@@ -68,7 +52,7 @@ func dash(s string) string {
 func (f *Findings) WriteMarkdown(w io.Writer) error {
 	ew := &errWriter{w: w}
 	fmt.Fprintf(ew, "# Coordination check: %s\n\n> %s\n\n", md(f.Study), Caution)
-	for _, c := range append(append([]string{}, f.Cases...), f.Criteria...) {
+	for _, c := range append(append(append([]string{}, f.Cases...), f.Criteria...), f.Scope.lines()...) {
 		fmt.Fprintf(ew, "- %s\n", md(c))
 	}
 	for _, n := range f.Notes {
@@ -100,9 +84,14 @@ func (f *Findings) WriteMarkdown(w io.Writer) error {
 			if with != "" {
 				line += " " + md(x.Other) + " |"
 			}
-			fmt.Fprintf(ew, "%s %s | %s | %s | %s | %s | %s | %s |\n", line, md(x.Stage), md(r.Measured), md(r.Required), md(r.Margin), md(r.Fault), md(r.Detail), md(x.Note))
+			note := x.Note
+			if x.Acceptance != nil {
+				note = strings.TrimPrefix(note+"; "+acceptanceText(x.Acceptance), "; ")
+			}
+			fmt.Fprintf(ew, "%s %s | %s | %s | %s | %s | %s | %s |\n", line, md(x.Stage), md(r.Measured), md(r.Required), md(r.Margin), md(r.Fault), md(r.Detail), md(note))
 		}
 	}
+	f.Baseline.writeMarkdown(ew)
 	return ew.err
 }
 
@@ -114,7 +103,20 @@ func md(s string) string {
 
 // csvHeader is the column list of WriteCSV.
 var csvHeader = []string{"check", "verdict", "device", "other", "stage", "measured", "required", "margin", "unit", "relation",
-	"fault_kind", "fault_case", "fault_place", "interpolated", "device_current_a", "other_current_a", "device_time_s", "other_time_s", "note"}
+	"fault_kind", "fault_case", "fault_place", "interpolated", "sweep_scale", "device_current_a", "device_quantity", "other_current_a", "other_quantity",
+	"device_time_s", "other_time_s", "note"}
+
+// quantityName names the quantity of a current in CSV and JSON, "" when
+// there is no current: "phase" or "residual" (3I0).
+func quantityName(a float64, q coord.Quantity) string {
+	switch {
+	case a == 0 || math.IsNaN(a):
+		return ""
+	case q == coord.Residual:
+		return "residual"
+	}
+	return "phase"
+}
 
 // WriteCSV writes one row per finding. Text cells a spreadsheet would
 // run as a formula are neutralised (textCell); a figure that is not a
@@ -136,10 +138,11 @@ func (f *Findings) WriteCSV(w io.Writer) error {
 			num(x.Measured, x.Valid), num(x.Required, x.Valid), num(x.Margin, x.Valid), x.Unit, x.Relation}
 		if ft := x.Fault; ft != nil {
 			timed := x.Check.Timed()
-			rec = append(rec, ft.Kind.String(), ft.Case.String(), textCell(ft.Place), fmt.Sprint(ft.Interpolated),
-				num(ft.DeviceA, true), num(ft.OtherA, ft.OtherA != 0), num(ft.DeviceS, timed), num(ft.OtherS, timed))
+			rec = append(rec, ft.Kind.String(), ft.Case.String(), textCell(ft.Place), fmt.Sprint(ft.Interpolated), num(ft.Scale, ft.Interpolated),
+				num(ft.DeviceA, ft.DeviceA != 0), quantityName(ft.DeviceA, ft.DeviceQty), num(ft.OtherA, ft.OtherA != 0), quantityName(ft.OtherA, ft.OtherQty),
+				num(ft.DeviceS, timed), num(ft.OtherS, timed))
 		} else {
-			rec = append(rec, "", "", "", "", "", "", "", "")
+			rec = append(rec, "", "", "", "", "", "", "", "", "", "", "")
 		}
 		cw.Write(append(rec, textCell(x.Note)))
 	}
@@ -154,8 +157,11 @@ func (f *Findings) WriteJSON(w io.Writer) error {
 		Case         string      `json:"case"`
 		Place        string      `json:"place"`
 		Interpolated bool        `json:"interpolated"`
+		Scale        *jsonNumber `json:"sweep_scale,omitempty"`
 		DeviceA      *jsonNumber `json:"device_current_a,omitempty"`
+		DeviceQty    string      `json:"device_quantity,omitempty"`
 		OtherA       *jsonNumber `json:"other_current_a,omitempty"`
+		OtherQty     string      `json:"other_quantity,omitempty"`
 		DeviceS      *jsonNumber `json:"device_time_s,omitempty"`
 		OtherS       *jsonNumber `json:"other_time_s,omitempty"`
 	}
@@ -172,6 +178,7 @@ func (f *Findings) WriteJSON(w io.Writer) error {
 		Relation string      `json:"relation,omitempty"`
 		Fault    *fault      `json:"fault,omitempty"`
 		Note     string      `json:"note,omitempty"`
+		Accepted *accepted   `json:"accepted,omitempty"`
 	}
 	type pair struct {
 		Upstream   string `json:"upstream"`
@@ -179,21 +186,27 @@ func (f *Findings) WriteJSON(w io.Writer) error {
 		Manual     bool   `json:"added_by_study"`
 	}
 	doc := struct {
-		Study    string    `json:"study"`
-		Caution  string    `json:"caution"`
-		Cases    []string  `json:"cases"`
-		Criteria []string  `json:"criteria"`
-		Notes    []string  `json:"notes,omitempty"`
-		Pairs    []pair    `json:"pairs"`
-		Excluded []pair    `json:"excluded_pairs"`
-		Findings []finding `json:"findings"`
+		Schema   int        `json:"schema_version"`
+		Study    string     `json:"study"`
+		Caution  string     `json:"caution"`
+		Cases    []string   `json:"cases"`
+		Criteria []string   `json:"criteria"`
+		Notes    []string   `json:"notes,omitempty"`
+		Pairs    []pair     `json:"pairs"`
+		Excluded []pair     `json:"excluded_pairs"`
+		Findings []finding  `json:"findings"`
+		Accepts  []accepted `json:"acceptances"`
 		Summary  struct {
-			Pass int    `json:"pass"`
-			Warn int    `json:"warn"`
-			Fail int    `json:"fail"`
-			Text string `json:"text"`
+			Pass     int    `json:"pass"`
+			Warn     int    `json:"warn"`
+			Fail     int    `json:"fail"`
+			Accepted int    `json:"accepted"`
+			Text     string `json:"text"`
 		} `json:"summary"`
-	}{Study: f.Study, Caution: Caution, Cases: f.Cases, Criteria: f.Criteria, Notes: f.Notes, Pairs: []pair{}, Excluded: []pair{}, Findings: []finding{}}
+		Scope    *jsonScope      `json:"scope,omitempty"`
+		Baseline *jsonComparison `json:"baseline,omitempty"`
+	}{Schema: SchemaVersion, Study: f.Study, Accepts: []accepted{}, Caution: Caution, Cases: f.Cases, Criteria: f.Criteria, Notes: f.Notes,
+		Pairs: []pair{}, Excluded: []pair{}, Findings: []finding{}}
 	for _, p := range f.Pairs {
 		doc.Pairs = append(doc.Pairs, pair{p.Upstream, p.Downstream, p.Manual})
 	}
@@ -207,8 +220,20 @@ func (f *Findings) WriteJSON(w io.Writer) error {
 		if x.Valid {
 			j.Measured, j.Required, j.Margin = num(x.Measured), num(x.Required), num(x.Margin)
 		}
+		if a := x.Acceptance; a != nil {
+			j.Accepted = &accepted{Reason: a.Reason, By: a.By, Date: a.Date, Was: a.Was.String()}
+		}
 		if ft := x.Fault; ft != nil {
-			jf := &fault{Kind: ft.Kind.String(), Case: ft.Case.String(), Place: ft.Place, Interpolated: ft.Interpolated, DeviceA: num(ft.DeviceA)}
+			jf := &fault{Kind: ft.Kind.String(), Case: ft.Case.String(), Place: ft.Place, Interpolated: ft.Interpolated,
+				DeviceQty: quantityName(ft.DeviceA, ft.DeviceQty), OtherQty: quantityName(ft.OtherA, ft.OtherQty)}
+			if ft.Interpolated {
+				jf.Scale = num(ft.Scale)
+			}
+			// A current of 0 is "none": the device carries no current of
+			// that quantity (the engine cuts rounding residue to exact 0).
+			if ft.DeviceA != 0 {
+				jf.DeviceA = num(ft.DeviceA)
+			}
 			if ft.OtherA != 0 {
 				jf.OtherA = num(ft.OtherA)
 			}
@@ -219,7 +244,13 @@ func (f *Findings) WriteJSON(w io.Writer) error {
 		}
 		doc.Findings = append(doc.Findings, j)
 	}
+	for _, a := range f.Acceptances {
+		doc.Accepts = append(doc.Accepts, accepted{Check: a.Check, Device: a.Device, Other: a.Other, Stage: a.Stage, Reason: a.Reason, By: a.By, Date: a.Date})
+	}
 	doc.Summary.Pass, doc.Summary.Warn, doc.Summary.Fail, doc.Summary.Text = f.Pass, f.Warn, f.Fail, f.Verdict()
+	doc.Summary.Accepted = f.Accepted
+	doc.Scope = f.Scope.json()
+	doc.Baseline = f.Baseline.json()
 	enc := json.NewEncoder(w)
 	enc.SetIndent("", "  ")
 	return enc.Encode(doc)

@@ -51,7 +51,11 @@ func TestMachineFormatsCarryTheFigures(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if len(rows) != 3 || rows[1][0] != "grading" || rows[1][1] != "FAIL" || rows[1][5] != "0.21" || rows[1][14] != "5000" {
+	col := map[string]int{}
+	for i, h := range rows[0] {
+		col[h] = i
+	}
+	if len(rows) != 3 || rows[1][0] != "grading" || rows[1][1] != "FAIL" || rows[1][5] != "0.21" || rows[1][col["device_current_a"]] != "5000" {
 		t.Errorf("CSV rows %q", rows)
 	}
 	var j bytes.Buffer

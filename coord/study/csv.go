@@ -9,6 +9,8 @@ import (
 	"io/fs"
 	"path/filepath"
 	"strings"
+
+	"tripgrade/coord"
 )
 
 // Settings tables: a CSV file named by [study] settings_csv, one row per
@@ -31,6 +33,7 @@ func (b *builder) readSettingsCSV(dir fs.FS, name string, studyLine int) {
 		b.csvUnread = true
 		return
 	}
+	b.st.Inputs = append(b.st.Inputs, coord.NewInputFile(shown, data))
 	tableErr := func(line int, format string, args ...any) {
 		b.failures++
 		b.errs = append(b.errs, &Error{File: shown, Line: line, Msg: message(format, args...)})

@@ -242,7 +242,7 @@ func describe(v *tomltext.Value) string {
 	case tomltext.Float:
 		return "the number " + strconv.FormatFloat(v.Float, 'g', -1, 64)
 	case tomltext.Datetime:
-		return "the date " + clipText(v.Str, maxEchoName)
+		return "the unquoted date or time " + clipText(v.Str, maxEchoName)
 	case tomltext.Array:
 		return "a list"
 	case tomltext.Table:

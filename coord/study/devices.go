@@ -17,9 +17,26 @@ func (b *builder) point(w where, branch, at string) (faults.Point, bool) {
 		b.fail(w, "branch", "branch is missing (the line or transformer the device looks into)")
 		return faults.Point{}, false
 	}
+	if k, ok := b.unit3[branch]; ok {
+		return b.point3(w, branch, at, k)
+	}
 	k, ok := b.branch[branch]
 	if !ok {
-		b.fail(w, "branch", "branch = %q: no line or transformer of that name%s", branch, b.closest(branch, b.branch))
+		if b.unread("line", "transformer", "transformer3") {
+			return faults.Point{}, false // the branch may be in the table that could not be read
+		}
+		hint := ""
+		if b.suggestions < maxSuggestions { // spare the copy when no suggestion is made
+			known := make(map[string]int, len(b.branch)+len(b.unit3))
+			for n, v := range b.branch {
+				known[n] = v
+			}
+			for n, v := range b.unit3 {
+				known[n] = v
+			}
+			hint = b.closest(branch, known)
+		}
+		b.fail(w, "branch", "branch = %q: no line or transformer of that name%s", branch, hint)
 		return faults.Point{}, false
 	}
 	if b.branchBad[k] {
@@ -58,6 +75,9 @@ func (b *builder) buildRelays() {
 			}
 		}
 		d.MaxLoadA = b.optional(w, "max_load_a", r.MaxLoadA, 0, 0, math.Inf(1), true)
+		d.InstantaneousTimeS = b.optional(w, "instantaneous_time_s", r.InstTimeS, b.st.Criteria.InstantaneousTimeS, 0, 1, false)
+		d.MarginS = b.optional(w, "margin_s", r.MarginS, 0, 0, 5, true)
+		d.EarthFaultsBy = b.declaration(w, r.EarthFaultsBy)
 		for j, rs := range r.Stages {
 			sw := where{path: w.path + ".stage[" + strconv.Itoa(j) + "]", element: w.element + " stage " + strconv.Itoa(j+1)}
 			if st, ok := b.stage(sw, rs, d.CT); ok {
@@ -67,6 +87,19 @@ func (b *builder) buildRelays() {
 		b.st.Devices = append(b.st.Devices, d)
 		b.relayRaw = append(b.relayRaw, relayOrigin{device: len(b.st.Devices) - 1, where: w, tomlStages: len(r.Stages)})
 	}
+}
+
+// declaration checks the text of earth_faults_cleared_by: it names the
+// protection a reviewer must find, so it may not be blank.
+func (b *builder) declaration(w where, text string) string {
+	t := strings.TrimSpace(text)
+	if text != "" && t == "" {
+		b.fail(w, "earth_faults_cleared_by", "earth_faults_cleared_by must name the protection that clears those earth faults (e.g. \"standby earth fault on the T1 neutral\")")
+	}
+	if !b.readable(w, "earth_faults_cleared_by", t) {
+		return ""
+	}
+	return t
 }
 
 // relayOrigin remembers where a relay came from, for the settings table

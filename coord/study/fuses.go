@@ -14,6 +14,7 @@ func (b *builder) buildFuses() {
 		d := coord.Device{Name: r.Name, Kind: coord.Fuse}
 		d.Point, _ = b.point(w, r.Branch, r.At)
 		d.RatingA = b.positive(w, "rating_a", r.RatingA)
+		d.EarthFaultsBy = b.declaration(w, r.EarthFaultsBy)
 		d.Melt = b.table(w, "melt", r.Name+" minimum melt", r.Melt)
 		d.Clear = b.table(w, "clear", r.Name+" total clearing", r.Clear)
 		if d.Melt != nil && d.Clear != nil {
@@ -53,6 +54,16 @@ func (b *builder) meltBeforeClear(w where, melt, clear *curves.Table) {
 	}
 }
 
+// isFuse reports whether the device of that name is a fuse.
+func (b *builder) isFuse(name string) bool {
+	for _, d := range b.st.Devices {
+		if d.Name == name {
+			return d.Kind == coord.Fuse
+		}
+	}
+	return false
+}
+
 func (b *builder) buildPairs() {
 	for i, r := range b.raw.Pairs {
 		w := where{path: fmt.Sprintf("pair[%d]", i), element: fmt.Sprintf("pair %d", i+1)}
@@ -62,7 +73,9 @@ func (b *builder) buildPairs() {
 				b.fail(w, k.key, "%s is missing (a relay or fuse name)", k.key)
 				ok = false
 			} else if _, found := b.deviceSeen[k.name]; !found {
-				b.fail(w, k.key, "%s = %q: no relay or fuse of that name%s", k.key, k.name, b.closest(k.name, b.deviceSeen))
+				if !b.unread("relay", "fuse") {
+					b.fail(w, k.key, "%s = %q: no relay or fuse of that name%s", k.key, k.name, b.closest(k.name, b.deviceSeen))
+				}
 				ok = false
 			}
 		}
@@ -70,8 +83,19 @@ func (b *builder) buildPairs() {
 			b.fail(w, "downstream", "a device cannot back itself up")
 			ok = false
 		}
+		rule := coord.PairRule{Upstream: r.Upstream, Downstream: r.Downstream, Exclude: boolOr(r.Exclude, false)}
+		rule.MarginS = b.optional(w, "margin_s", r.MarginS, 0, 0, 5, true)
+		switch {
+		case r.MarginS == nil:
+		case rule.Exclude:
+			b.fail(w, "margin_s", "an excluded pair is not graded, so it takes no margin_s")
+			ok = false
+		case ok && b.isFuse(r.Upstream):
+			b.fail(w, "margin_s", "upstream %q is a fuse: a fuse over another device is graded by the criteria's fuse_melt_ratio, not by a margin", r.Upstream)
+			ok = false
+		}
 		if ok {
-			b.st.Pairs = append(b.st.Pairs, coord.PairRule{Upstream: r.Upstream, Downstream: r.Downstream, Exclude: boolOr(r.Exclude, false)})
+			b.st.Pairs = append(b.st.Pairs, rule)
 		}
 	}
 }

@@ -21,9 +21,10 @@ type limit struct {
 
 var (
 	ohmLimit     = limit{1e6, "1 MΩ; the largest earthing resistors and Petersen coils are a few kΩ"}
-	xrLimit      = limit{1000, "real X/R ratios stay below about 150; above 1000 the resistance no longer matters"}
+	xrLimit      = limit{1e5, "real X/R ratios stay below about 150; larger ones stand for an element without resistance"}
 	currentLimit = limit{1e6, "1 MA; the largest fault currents are about 300 kA"}
 	mvaLimit     = limit{5000, "the largest transformers and generators are about 2000 MVA"}
+	z0PctLimit   = limit{1000, "zero-sequence short-circuit impedances of transformers are of the order of the positive-sequence ones, well below 100 %"}
 )
 
 // limits holds the upper limit of each key of the study file and the
@@ -54,6 +55,13 @@ var limits = map[string]limit{
 	"neutral_x_ohm_from": ohmLimit,
 	"neutral_ohm_to":     ohmLimit,
 	"neutral_x_ohm_to":   ohmLimit,
+	"neutral_ohm_hv":     ohmLimit,
+	"neutral_x_ohm_hv":   ohmLimit,
+	"neutral_ohm_mv":     ohmLimit,
+	"neutral_x_ohm_mv":   ohmLimit,
+	"neutral_ohm_lv":     ohmLimit,
+	"neutral_x_ohm_lv":   ohmLimit,
+	"r_ohm":              ohmLimit,
 	"r1_ohm_per_km":      {1000, "a 1.5 mm² copper conductor has about 12 Ω/km"},
 	"x1_ohm_per_km":      {1000, "a 1.5 mm² copper conductor has about 12 Ω/km"},
 	"r0_ohm_per_km":      {1000, "a 1.5 mm² copper conductor has about 12 Ω/km"},
@@ -61,6 +69,13 @@ var limits = map[string]limit{
 	"length_km":          {1e4, "10,000 km"},
 	"size_mm2":           {1e4, "the largest cables are about 3000 mm²"},
 	"mva":                mvaLimit,
+	"mva_hv_mv":          mvaLimit,
+	"mva_hv_lv":          mvaLimit,
+	"mva_mv_lv":          mvaLimit,
+	"mw":                 {5000, "the largest motors are rated about 100 MW"},
+	"z0_hv_mv_pct":       z0PctLimit,
+	"z0_hv_lv_pct":       z0PctLimit,
+	"z0_mv_lv_pct":       z0PctLimit,
 	"current_a":          currentLimit,
 	"max_load_a":         currentLimit,
 	"ct_primary_a":       {1e6, "the largest CTs are rated about 50 kA"},
@@ -84,6 +99,9 @@ var limits = map[string]limit{
 	"fault_resistance_ohm":       {1e4, "10 kΩ; minimum-fault studies use 0 to 40 Ω, rarely a few hundred"},
 	"lv_fault_resistance_ohm":    {1e4, "10 kΩ; minimum-fault studies use 0 to 40 Ω, rarely a few hundred"},
 	"phase_fault_resistance_ohm": {1e4, "10 kΩ; arc resistances are a few ohms"},
+	"fault_reactance_ohm":        {1e4, "10 kΩ; a fault's own impedance is mostly resistance, its reactance a few ohms at most"},
+	"lv_fault_reactance_ohm":     {1e4, "10 kΩ; a fault's own impedance is mostly resistance, its reactance a few ohms at most"},
+	"phase_fault_reactance_ohm":  {1e4, "10 kΩ; a fault's own impedance is mostly resistance, its reactance a few ohms at most"},
 }
 
 // Base power limits: per-unit arithmetic stays exact over this range

@@ -19,8 +19,13 @@ type builder struct {
 	bus    map[string]int // bus name → index
 	branch map[string]int // line or transformer name → branch index
 
-	branchSeen  map[string]int // branch names, for duplicates (values index namePaths)
-	deviceSeen  map[string]int // relay and fuse names, likewise
+	unit3       map[string]int     // three-winding transformer name → index
+	unitRaw     []where            // each generator's place, for its unit transformer
+	starPath    map[string]string  // star branch name → its transformer3's table path
+	starOf      map[string]starRef // star branch name → its transformer and winding
+	stars       map[string]bool    // the internal star-point buses' names (internal)
+	branchSeen  map[string]int     // branch names, for duplicates (values index namePaths)
+	deviceSeen  map[string]int     // relay and fuse names, likewise
 	relayRaw    []relayOrigin
 	badRef      bool            // some element refers to a bus that does not exist
 	branchBad   map[int]bool    // branches whose ends are already reported wrong
@@ -76,6 +81,19 @@ func (b *builder) blamedAny(w where, keys ...string) bool {
 	return false
 }
 
+// unread reports whether one of the arrays of tables keys could not be
+// read at all ([line] written for [[line]], say): a name that is not
+// found may then be in it, and the reference follows from that one
+// problem.
+func (b *builder) unread(keys ...string) bool {
+	for _, k := range keys {
+		if b.blamed[k] {
+			return true
+		}
+	}
+	return false
+}
+
 // busRef resolves a bus name given under key.
 func (b *builder) busRef(w where, key, name string) (int, bool) {
 	if name == "" {
@@ -85,7 +103,7 @@ func (b *builder) busRef(w where, key, name string) (int, bool) {
 	}
 	k, ok := b.bus[name]
 	if !ok {
-		if !b.blamed["bus"] { // else the buses could not be read at all
+		if !b.unread("bus") {
 			b.fail(w, key, "%s = %q: no bus of that name%s", key, name, b.closest(name, b.bus))
 		}
 		b.badRef = true
@@ -268,6 +286,13 @@ func (b *builder) buildGenerators() {
 		}
 		g.X2Pct = b.optional(w, "x2_pct", r.X2Pct, 0, 0, 100, true)
 		g.RPct = b.optional(w, "r_pct", r.RPct, 0, 0, 100, true)
+		if r.ROhm != nil {
+			if r.RPct != nil {
+				b.fail(w, "r_ohm", "give r_pct or r_ohm, not both")
+			} else if rOhm := b.optional(w, "r_ohm", r.ROhm, 0, 0, math.Inf(1), true); rOhm > 0 && g.MVA > 0 && g.KV > 0 {
+				g.RPct = rOhm / (g.KV * g.KV / g.MVA) * 100
+			}
+		}
 		g.PF = b.optional(w, "pf", r.PF, defaultGeneratorPF, 0, 1, true)
 		g.InMax = boolOr(r.InMax, true)
 		g.InMin = boolOr(r.AlwaysRunning, false)
@@ -284,6 +309,7 @@ func (b *builder) buildGenerators() {
 			b.fail(w, "neutral_ohm", "neutral_ohm is given but the generator is not earthed (add earthed = true)")
 		}
 		b.net.Generators = append(b.net.Generators, g)
+		b.unitRaw = append(b.unitRaw, w)
 	}
 }
 

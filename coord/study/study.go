@@ -11,6 +11,7 @@ import (
 
 	"tripgrade/coord"
 	"tripgrade/coord/study/internal/tomltext"
+	"tripgrade/curves"
 	"tripgrade/faults"
 )
 
@@ -127,11 +128,15 @@ func Parse(name string, src []byte, dir fs.FS) (*coord.Study, error) {
 		st:         &coord.Study{},
 		bus:        map[string]int{},
 		branch:     map[string]int{},
+		unit3:      map[string]int{},
+		starPath:   map[string]string{},
+		starOf:     map[string]starRef{},
 		deviceSeen: map[string]int{},
 		branchBad:  map[int]bool{},
 		badNames:   map[string]bool{},
 	}
 	b.st.Network = b.net
+	b.st.Inputs = []coord.InputFile{coord.NewInputFile(name, src)}
 	b.build(dir)
 	if len(b.errs) > 0 {
 		return nil, b.errs.sorted(name)
@@ -147,12 +152,15 @@ func (b *builder) build(dir fs.FS) {
 	b.buildGenerators()
 	b.buildLines()
 	b.buildTransformers()
+	b.buildTransformers3()
+	b.buildUnits()
+	b.buildMotors()
 	b.buildEarthings()
 	b.buildLoads()
 	if len(b.raw.Sources) == 0 && len(b.raw.Generators) == 0 && !b.blamed["source"] && !b.blamed["generator"] {
 		b.errorf(0, "", "the study has no [[source]] and no [[generator]]: nothing drives fault current")
-	} else if !b.badRef && len(b.raw.Buses) > 0 {
-		b.checkTopology()
+	} else if !b.badRef && len(b.raw.Buses) > 0 && !b.unread("source", "generator", "line", "transformer", "transformer3") {
+		b.checkTopology() // islands and loops would follow from a table that could not be read
 	}
 	b.buildRelays()
 	b.buildFuses()
@@ -165,8 +173,27 @@ func (b *builder) build(dir fs.FS) {
 			b.fail(o.where, "stage", "the relay has no stages: add [[relay.stage]] tables or rows in the settings table")
 		}
 		uniqueLabels(d)
+		b.instantaneousTime(o.where, d)
 	}
 	b.buildPairs()
+	b.buildAccepts()
+}
+
+// instantaneousTime makes every instantaneous stage of a relay operate in
+// its intentional delay plus the relay's instantaneous operating time.
+func (b *builder) instantaneousTime(w where, d *coord.Device) {
+	for i := range d.Stages {
+		st := &d.Stages[i]
+		if st.Shape != curves.ShapeInstantaneous || st.Curve == nil {
+			continue
+		}
+		c, err := curves.NewInstantaneous(st.PickupA, st.DelayS+d.InstantaneousTimeS)
+		if err != nil {
+			b.fail(w, "instantaneous_time_s", "stage %s: %v", st.Label, err)
+			continue
+		}
+		st.Curve = c
+	}
 }
 
 // uniqueLabels numbers stages that would otherwise share a label (two
@@ -208,7 +235,9 @@ func (b *builder) buildStudy() {
 			b.fail(w, "lv_tolerance_pct", "lv_tolerance_pct must be 6 or 10 (the IEC 60909-0 Table 1 low-voltage tolerances; got %g)", *r.LVTolerancePct)
 		}
 	}
+	b.voltageFactors(w, r)
 	b.st.Faults.EndTempC = b.optional(w, "conductor_end_temp_c", r.EndTempC, 0, 20, 400, false)
+	b.st.Faults.MinTimeDelayS = b.optional(w, "min_time_delay_s", r.MinTimeDelayS, 0, 0.02, 10, false)
 	for _, f := range r.LinePositions {
 		if !(f > 0 && f < 1) {
 			b.fail(w, "line_fault_positions", "line_fault_positions must lie strictly between 0 and 1 (got %g)", f)
@@ -243,10 +272,48 @@ func (b *builder) buildCriteria() {
 	c.LoadFactor = b.optional(w, "load_factor", r.LoadFactor, c.LoadFactor, 1, 100, false)
 	c.InstantaneousFactor = b.optional(w, "instantaneous_factor", r.InstantaneousFactor, c.InstantaneousFactor, 1, 100, false)
 	c.ShortDelayS = b.optional(w, "short_delay_s", r.ShortDelayS, c.ShortDelayS, 0, 10, false)
+	c.InstantaneousTimeS = b.optional(w, "instantaneous_time_s", r.InstantaneousTimeS, c.InstantaneousTimeS, 0, 1, false)
 	c.InrushMultiple = b.optional(w, "inrush_multiple", r.InrushMultiple, c.InrushMultiple, 1, 100, false)
 	c.InrushTimeS = b.optional(w, "inrush_time_s", r.InrushTimeS, c.InrushTimeS, 0, 10, true)
 	b.st.Criteria = c
 	b.st.Faults.EarthFaultOhm = b.optional(w, "fault_resistance_ohm", r.FaultResistanceOhm, 0, 0, inf, false)
 	b.st.Faults.EarthFaultOhmLV = b.optional(w, "lv_fault_resistance_ohm", r.LVFaultResistance, 0, 0, inf, false)
 	b.st.Faults.PhaseFaultOhm = b.optional(w, "phase_fault_resistance_ohm", r.PhaseFaultOhm, 0, 0, inf, false)
+	b.st.Faults.EarthFaultXOhm = b.optional(w, "fault_reactance_ohm", r.FaultReactanceOhm, 0, 0, inf, false)
+	b.st.Faults.EarthFaultXOhmLV = b.optional(w, "lv_fault_reactance_ohm", r.LVFaultReactance, 0, 0, inf, false)
+	b.st.Faults.PhaseFaultXOhm = b.optional(w, "phase_fault_reactance_ohm", r.PhaseFaultXOhm, 0, 0, inf, false)
+}
+
+// Plausible voltage factors: IEC 60909-0 Table 1 spans 0.90–1.10, and a
+// prefault voltage outside 0.8–1.2 pu is not a network in service.
+const (
+	lowestVoltageFactor  = 0.8
+	highestVoltageFactor = 1.2
+)
+
+// voltageFactors reads c_max and c_min, which replace the IEC 60909-0
+// Table 1 factors at every voltage, and checks that the minimum case's
+// factor does not exceed the maximum case's at any voltage.
+func (b *builder) voltageFactors(w where, r rawStudy) {
+	f := &b.st.Faults
+	f.CMax = b.optional(w, "c_max", r.CMax, 0, lowestVoltageFactor, highestVoltageFactor, false)
+	f.CMin = b.optional(w, "c_min", r.CMin, 0, lowestVoltageFactor, highestVoltageFactor, false)
+	if f.CMax == 0 && f.CMin == 0 {
+		return
+	}
+	for _, kv := range []float64{11, 0.4} { // one voltage on each side of Table 1's 1 kV boundary
+		hi, lo := f.VoltageFactor(kv, faults.Max), f.VoltageFactor(kv, faults.Min)
+		if lo > hi {
+			side := "above 1 kV"
+			if faults.LowVoltage(kv) {
+				side = "up to 1 kV"
+			}
+			key := "c_min"
+			if r.CMin == nil {
+				key = "c_max"
+			}
+			b.fail(w, key, "c_min %g exceeds c_max %g %s: the minimum case would drive more current than the maximum case", lo, hi, side)
+			return
+		}
+	}
 }
