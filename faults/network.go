@@ -363,6 +363,15 @@ func (n *Network) checkFigures() error {
 			return fmt.Errorf("transformer %q: a figure is not finite, negative or beyond the engine's limits", t.Name)
 		}
 	}
+	for _, t := range n.Transformers3 {
+		ok := finiteAll(t.KV[:]...) && sane(t.Neutral[HV].ZOhm, t.Neutral[MV].ZOhm, t.Neutral[LV].ZOhm)
+		for _, p := range t.Pairs {
+			ok = ok && finiteAll(p.MVA, p.ZPct, p.RPct, p.Z0Pct, p.R0Pct)
+		}
+		if !ok {
+			return fmt.Errorf("transformer %q: a figure is not finite or beyond the engine's limits", t.Name)
+		}
+	}
 	for _, e := range n.Earthings {
 		if !sane(e.Z0Ohm, e.NeutralZ) {
 			return fmt.Errorf("earthing %q: an impedance is not finite or beyond %g Ω", e.Name, float64(maxImpedance))
