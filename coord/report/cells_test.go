@@ -125,3 +125,33 @@ func TestDigits(t *testing.T) {
 		}
 	}
 }
+
+// TestTestSheetCSVNeutralisesFormulas: the test sheet's CSV holds relay
+// names, stage labels and notes from the study; none may reach a
+// spreadsheet as a formula. The loader's notes head the text sheet.
+func TestTestSheetCSVNeutralisesFormulas(t *testing.T) {
+	sheet := &TestSheet{Study: "s", Notes: []string{"settings.csv:1: read with decimal commas"},
+		Relays: []SheetRelay{{Name: "=HYPERLINK(\"http://x\")", Rows: []SheetRow{{Stage: "@51", Measures: "phase", Characteristic: "iec-si", Note: "-block 50"}}}}}
+	var b bytes.Buffer
+	if err := sheet.WriteCSV(&b); err != nil {
+		t.Fatal(err)
+	}
+	rows, err := csv.NewReader(&b).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, row := range rows[1:] {
+		for i, cell := range row {
+			if cell != "" && strings.ContainsRune("=+-@\t\r", rune(cell[0])) {
+				t.Errorf("column %s holds %q, which a spreadsheet would run", rows[0][i], cell)
+			}
+		}
+	}
+	b.Reset()
+	if err := sheet.WriteText(&b); err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(b.String(), "note: settings.csv:1: read with decimal commas") {
+		t.Errorf("the text sheet does not carry the loader's note:\n%s", b.String())
+	}
+}
