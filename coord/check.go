@@ -75,5 +75,8 @@ func Check(s *Study, eng *faults.Engine, t *Topology) (*Result, error) {
 		}
 		add(fs...)
 	}
+	for i := range r.Findings {
+		settle(&r.Findings[i])
+	}
 	return r, nil
 }

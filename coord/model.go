@@ -22,6 +22,10 @@ type Study struct {
 	// Pairs are the study's own additions to and exclusions from the
 	// derived backup pairs.
 	Pairs []PairRule
+	// Notes are what the loader assumed where the input left a choice
+	// (which separator a settings table uses, say), each naming its file
+	// and line; reports print them so a reviewer sees them.
+	Notes []string
 	// Accepts are the study's [[accept]] entries: findings a reviewer has
 	// accepted (see Accept).
 	Accepts []Acceptance

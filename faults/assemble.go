@@ -31,6 +31,13 @@ type seqData struct {
 	shunt  []complex128
 	branch []block
 	series []complex128 // series impedance of each line (0 for transformers)
+	shunts []elementY   // each element's part of shunt, to explain a singular matrix
+}
+
+// addShunt adds an element's shunt admittance y at bus.
+func (d *seqData) addShunt(bus int, ref ElementRef, y complex128) {
+	d.shunt[bus] += y
+	d.shunts = append(d.shunts, elementY{bus: bus, ref: ref, y: cmplx.Abs(y)})
 }
 
 func newSeqData(nb, nbr int) *seqData {
@@ -96,8 +103,9 @@ func assembleView(n *Network, set Settings, cs Case, v view) (caseData, error) {
 			z1 = zFromPower(set.VoltageFactor(kv, cs), kv, st.SCMVA, st.XR)
 		}
 		z1pu := v.z(z1) / complex(zb(s.Bus), 0)
-		d[pos].shunt[s.Bus] += 1 / z1pu
-		d[neg].shunt[s.Bus] += 1 / z1pu
+		ref := ElementRef{"source", s.Name}
+		d[pos].addShunt(s.Bus, ref, 1/z1pu)
+		d[neg].addShunt(s.Bus, ref, 1/z1pu)
 		if s.Earthed {
 			z0 := st.Z0Ohm
 			if z0 == 0 {
@@ -110,7 +118,7 @@ func assembleView(n *Network, set Settings, cs Case, v view) (caseData, error) {
 			if z0 == 0 {
 				return d, fmt.Errorf("source %q: earthed but has no zero-sequence impedance", s.Name)
 			}
-			d[zero].shunt[s.Bus] += complex(zb(s.Bus), 0) / z0
+			d[zero].addShunt(s.Bus, ref, complex(zb(s.Bus), 0)/z0)
 		}
 	}
 
@@ -120,14 +128,15 @@ func assembleView(n *Network, set Settings, cs Case, v view) (caseData, error) {
 			continue
 		}
 		z1, z2, z0 := generatorPU(n, set, g, cs, v)
-		d[pos].shunt[g.Bus] += 1 / z1
-		d[neg].shunt[g.Bus] += 1 / z2
+		ref := ElementRef{"generator", g.Name}
+		d[pos].addShunt(g.Bus, ref, 1/z1)
+		d[neg].addShunt(g.Bus, ref, 1/z2)
 		if !g.Earth.Isolated {
 			z0 += 3 * g.Earth.ZOhm / complex(zb(g.Bus), 0)
 			if z0 == 0 {
 				return d, fmt.Errorf("generator %q: earthed star point with zero zero-sequence impedance", g.Name)
 			}
-			d[zero].shunt[g.Bus] += 1 / z0
+			d[zero].addShunt(g.Bus, ref, 1/z0)
 		}
 	}
 
@@ -184,8 +193,9 @@ func assembleView(n *Network, set Settings, cs Case, v view) (caseData, error) {
 		for i := range n.Motors {
 			m := &n.Motors[i]
 			z := v.z(m.ZOhm()) / complex(zb(m.Bus), 0)
-			d[pos].shunt[m.Bus] += 1 / z
-			d[neg].shunt[m.Bus] += 1 / z
+			ref := ElementRef{"motor", m.Name}
+			d[pos].addShunt(m.Bus, ref, 1/z)
+			d[neg].addShunt(m.Bus, ref, 1/z)
 		}
 	}
 
@@ -194,7 +204,7 @@ func assembleView(n *Network, set Settings, cs Case, v view) (caseData, error) {
 		if z == 0 {
 			return d, fmt.Errorf("earthing %q: zero-sequence impedance Z0 + 3Zn must not be zero", e.Name)
 		}
-		d[zero].shunt[e.Bus] += complex(zb(e.Bus), 0) / z
+		d[zero].addShunt(e.Bus, ElementRef{"earthing", e.Name}, complex(zb(e.Bus), 0)/z)
 	}
 	return d, nil
 }

@@ -208,13 +208,46 @@ func zFromPower(c, kv, mva, xr float64) complex128 {
 }
 
 // polarXR returns a complex impedance of magnitude mag and ratio X/R = xr;
-// xr = +Inf gives a pure reactance.
+// xr = +Inf gives a pure reactance. Hypot keeps a very large X/R from
+// overflowing into a zero impedance.
 func polarXR(mag, xr float64) complex128 {
 	if math.IsInf(xr, 1) {
 		return complex(0, mag)
 	}
-	r := mag / math.Sqrt(1+xr*xr)
-	return complex(r, r*xr)
+	h := math.Hypot(1, xr)
+	return complex(mag/h, mag*(xr/h))
+}
+
+// Limits of the figures the engine accepts from callers that build a
+// Network in code. The study loader holds files to tighter, physical
+// limits (coord/study/limits.go); these keep the per-unit arithmetic
+// exact, whatever the base: a base power within 1 kVA to 100 GVA, and
+// short-circuit powers below 1e9 MVA.
+const (
+	MinBaseMVA   = 1e-3
+	MaxBaseMVA   = 1e5
+	maxSCMVA     = 1e9
+	maxImpedance = 1e9 // Ω
+)
+
+// finiteAll reports whether every figure is a finite number.
+func finiteAll(v ...float64) bool {
+	for _, x := range v {
+		if math.IsNaN(x) || math.IsInf(x, 0) {
+			return false
+		}
+	}
+	return true
+}
+
+// sane reports whether an impedance is finite and within maxImpedance.
+func sane(z ...complex128) bool {
+	for _, x := range z {
+		if !finiteAll(real(x), imag(x)) || cmplx.Abs(x) > maxImpedance {
+			return false
+		}
+	}
+	return true
 }
 
 // check reports the first structural problem of the network: references out
@@ -224,6 +257,12 @@ func (n *Network) check() error {
 	nb := len(n.Buses)
 	if nb == 0 {
 		return fmt.Errorf("network has no buses")
+	}
+	if n.BaseMVA != 0 && !(n.BaseMVA >= MinBaseMVA && n.BaseMVA <= MaxBaseMVA) {
+		return fmt.Errorf("base power %g MVA outside %g to %g MVA", n.BaseMVA, MinBaseMVA, MaxBaseMVA)
+	}
+	if err := n.checkFigures(); err != nil {
+		return err
 	}
 	for _, b := range n.Buses {
 		if !(b.KV > 0) || math.IsInf(b.KV, 0) {
@@ -295,4 +334,48 @@ func (n *Network) check() error {
 		}
 	}
 	return n.checkInternal()
+}
+
+// checkFigures reports the first element with a figure that is not a
+// finite number or lies beyond the engine's limits.
+func (n *Network) checkFigures() error {
+	strength := func(st Strength) bool {
+		return finiteAll(st.SCMVA, st.XR) && st.SCMVA >= 0 && st.SCMVA <= maxSCMVA && (st.XR >= 0 || math.IsInf(st.XR, 1)) && sane(st.Z1Ohm, st.Z0Ohm)
+	}
+	for _, s := range n.Sources {
+		if !strength(s.Max) || !strength(s.Min) || !finiteAll(s.Z0Z1, s.X0R0) || s.Z0Z1 < 0 || s.X0R0 < 0 {
+			return fmt.Errorf("source %q: a figure is not finite, negative or beyond the engine's limits", s.Name)
+		}
+	}
+	for _, g := range n.Generators {
+		if !finiteAll(g.MVA, g.KV, g.XdPct, g.X2Pct, g.X0Pct, g.RPct, g.PF) || !sane(g.Earth.ZOhm) {
+			return fmt.Errorf("generator %q: a figure is not finite or beyond the engine's limits", g.Name)
+		}
+	}
+	for _, l := range n.Lines {
+		if !sane(l.Z1Ohm, l.Z0Ohm) || !finiteAll(l.EndTempC) {
+			return fmt.Errorf("line %q: an impedance is not finite or beyond %g Ω", l.Name, float64(maxImpedance))
+		}
+	}
+	for _, t := range n.Transformers {
+		if !finiteAll(t.MVA, t.KVFrom, t.KVTo, t.ZPct, t.Z0Pct) || t.XR < 0 || t.X0R0 < 0 || math.IsNaN(t.XR) || math.IsNaN(t.X0R0) ||
+			!sane(t.NeutralFrom.ZOhm, t.NeutralTo.ZOhm) {
+			return fmt.Errorf("transformer %q: a figure is not finite, negative or beyond the engine's limits", t.Name)
+		}
+	}
+	for _, t := range n.Transformers3 {
+		ok := finiteAll(t.KV[:]...) && sane(t.Neutral[HV].ZOhm, t.Neutral[MV].ZOhm, t.Neutral[LV].ZOhm)
+		for _, p := range t.Pairs {
+			ok = ok && finiteAll(p.MVA, p.ZPct, p.RPct, p.Z0Pct, p.R0Pct)
+		}
+		if !ok {
+			return fmt.Errorf("transformer %q: a figure is not finite or beyond the engine's limits", t.Name)
+		}
+	}
+	for _, e := range n.Earthings {
+		if !sane(e.Z0Ohm, e.NeutralZ) {
+			return fmt.Errorf("earthing %q: an impedance is not finite or beyond %g Ω", e.Name, float64(maxImpedance))
+		}
+	}
+	return nil
 }

@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"fmt"
 	"io"
+	"os"
 	"path/filepath"
 	"strings"
 
@@ -73,6 +74,11 @@ when written; 2 when the study, the device or the command line is wrong.`)
 		kinds[k] = ch.Kind
 	}
 	files := plotFiles(*out, *device, f, kinds)
+	if dir := filepath.Dir(files[0]); dir != "." {
+		if err := os.MkdirAll(dir, 0o755); err != nil {
+			return c.fail(stderr, exitUsage, "cannot create the folder %s: %v", dir, unwrapPathError(err))
+		}
+	}
 	for k, ch := range charts {
 		if err := writeTo(files[k], func(b *bytes.Buffer) error { return ch.Render(b, f, tcc.Settings{}) }); err != nil {
 			return c.fail(stderr, exitUsage, "%v", err)

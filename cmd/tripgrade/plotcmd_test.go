@@ -80,6 +80,29 @@ func TestPlotOneChart(t *testing.T) {
 	checkPNG(t, out)
 }
 
+// TestPlotOutFolders: plot --out into a folder that does not exist yet
+// creates it, as check --out does; a path that cannot be written is named
+// as the user gave it, never as the temporary file behind it.
+func TestPlotOutFolders(t *testing.T) {
+	path := studyCopy(t, func(s string) string { return s })
+	dir := t.TempDir()
+	out := filepath.Join(dir, "charts", "2024", "r33.svg")
+	code, stdout, stderr := runArgs("plot", path, "--device", "R33", "--out", out)
+	if code != exitOK || stderr != "" || strings.TrimSpace(stdout) != out {
+		t.Fatalf("exit %d, stdout %q, stderr %q", code, stdout, stderr)
+	}
+	if data, err := os.ReadFile(out); err != nil || !bytes.Contains(data, []byte("<svg")) {
+		t.Errorf("%s: %v", out, err)
+	}
+	blocker := filepath.Join(dir, "a-file")
+	os.WriteFile(blocker, []byte("x"), 0o644)
+	bad := filepath.Join(blocker, "r33.svg")
+	code, _, stderr = runArgs("plot", path, "--device", "R33", "--out", bad)
+	if code != exitUsage || !strings.Contains(stderr, blocker) || strings.Contains(stderr, ".tmp") {
+		t.Errorf("exit %d, stderr %q; want exit 2 naming %s", code, stderr, blocker)
+	}
+}
+
 func TestPlotDefaultOutIsTheSafeDeviceName(t *testing.T) {
 	path := studyCopy(t, func(s string) string { return strings.ReplaceAll(s, `"R11"`, `"../R 11/feeder"`) })
 	t.Chdir(t.TempDir())

@@ -3,7 +3,6 @@ package main
 import (
 	"bytes"
 	"fmt"
-	"path/filepath"
 	"runtime"
 	"sync"
 
@@ -20,17 +19,24 @@ func newAtlas(l loaded, res *coord.Result) (*tcc.Atlas, error) {
 	return tcc.NewAtlas(tcc.Input{Study: l.study, Topology: l.topo, Result: res, Levels: levels})
 }
 
-// writePlots writes a PNG time–current chart for every chart of the atlas
-// (see tcc.Atlas.Charts for the names) to outDir, as DIR/<chart name>.png,
-// each file atomically, and returns the paths written, in chart order.
-// Charts are drawn on every processor at once; the error reported is that
-// of the first chart, in chart order, that failed.
-func writePlots(l loaded, res *coord.Result, outDir string) ([]string, error) {
+// plotCharts returns the time–current charts of every coordination path
+// and every failing pair (see tcc.Atlas.Charts for their names).
+func plotCharts(l loaded, res *coord.Result) ([]*tcc.Chart, error) {
 	a, err := newAtlas(l, res)
 	if err != nil {
 		return nil, fmt.Errorf("plots: %w", err)
 	}
-	charts := a.Charts()
+	return a.Charts(), nil
+}
+
+// chartFile is the file name of a chart in the output folder.
+func chartFile(c *tcc.Chart) string { return c.Name + "." + tcc.PNG.Ext() }
+
+// writePlots writes each chart as a PNG into the output folder, each file
+// atomically, and returns the paths written, in chart order. Charts are
+// drawn on every processor at once; the error reported is that of the
+// first chart, in chart order, that failed.
+func writePlots(out *outFolder, charts []*tcc.Chart) ([]string, error) {
 	errs := make([]error, len(charts))
 	paths := make([]string, len(charts))
 	sem := make(chan struct{}, runtime.GOMAXPROCS(0))
@@ -40,10 +46,7 @@ func writePlots(l loaded, res *coord.Result, outDir string) ([]string, error) {
 		sem <- struct{}{}
 		go func() {
 			defer func() { <-sem; wg.Done() }()
-			path := filepath.Join(outDir, c.Name+"."+tcc.PNG.Ext())
-			if errs[k] = writeTo(path, func(b *bytes.Buffer) error { return c.Render(b, tcc.PNG, tcc.Settings{}) }); errs[k] == nil {
-				paths[k] = path
-			}
+			paths[k], errs[k] = out.write(chartFile(c), func(b *bytes.Buffer) error { return c.Render(b, tcc.PNG, tcc.Settings{}) })
 		}()
 	}
 	wg.Wait()

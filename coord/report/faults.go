@@ -7,6 +7,7 @@ import (
 	"io"
 	"math"
 	"math/cmplx"
+	"strconv"
 	"strings"
 	"text/tabwriter"
 
@@ -178,12 +179,17 @@ func ohms(r, x float64) string {
 }
 
 // amps formats a current for a table: whole amperes from 100 A up, one
-// decimal below.
+// decimal below, and two significant digits for a current below 0.1 A,
+// which is still a current (a high-resistance earth fault) and must not
+// print as 0.0.
 func amps(a float64) string {
-	if a >= 100 {
-		return fmt.Sprintf("%.0f", a)
+	switch {
+	case a >= 100:
+		return fixed(a, 0)
+	case a >= 0.1 || a == 0:
+		return fixed(a, 1)
 	}
-	return fmt.Sprintf("%.1f", a)
+	return strconv.FormatFloat(a, 'g', 2, 64)
 }
 
 // ampsOrNone formats a current for a table, "none" for no current.
@@ -257,6 +263,15 @@ func busFigure(f faults.BusFault, k faults.Kind) float64 {
 	return f.PhaseA
 }
 
+// currentCell writes a current for CSV to the milliampere, or with four
+// significant digits below 1 A, so that a tiny current keeps its figure.
+func currentCell(a float64) string {
+	if a != 0 && math.Abs(a) < 1 {
+		return strconv.FormatFloat(a, 'g', 4, 64)
+	}
+	return fixed(a, 3)
+}
+
 // WriteCSV writes the tables as one long CSV table, a row per figure:
 // table, name, kv, quantity, case, current_a, fault_kind, fault_place.
 func (t *FaultTables) WriteCSV(w io.Writer) error {
@@ -269,18 +284,18 @@ func (t *FaultTables) WriteCSV(w io.Writer) error {
 		}{{"phase_max", p.PhaseMax}, {"phase_min", p.PhaseMin}, {"ground_max", p.GroundMax}, {"ground_min", p.GroundMin}} {
 			val := ""
 			if q.f.Found {
-				val = fmt.Sprintf("%.3f", q.f.A)
+				val = currentCell(q.f.A)
 			}
-			cw.Write([]string{"device", p.Device, fmt.Sprint(p.KV), q.name, q.f.Case, val, q.f.Fault, q.f.Place})
+			cw.Write([]string{"device", textCell(p.Device), fmt.Sprint(p.KV), q.name, q.f.Case, val, q.f.Fault, textCell(q.f.Place)})
 		}
 	}
 	for _, b := range t.Buses {
 		for _, cs := range faults.Cases {
 			for _, k := range faults.Kinds {
 				f := b.Faults[cs][k]
-				cw.Write([]string{"bus", b.Bus, fmt.Sprint(b.KV), strings.ToLower(k.String()) + "_phase", cs.String(), fmt.Sprintf("%.3f", f.PhaseA), k.String(), b.Bus})
+				cw.Write([]string{"bus", textCell(b.Bus), fmt.Sprint(b.KV), strings.ToLower(k.String()) + "_phase", cs.String(), currentCell(f.PhaseA), k.String(), textCell(b.Bus)})
 				if k.Earth() {
-					cw.Write([]string{"bus", b.Bus, fmt.Sprint(b.KV), strings.ToLower(k.String()) + "_earth", cs.String(), fmt.Sprintf("%.3f", f.EarthA), k.String(), b.Bus})
+					cw.Write([]string{"bus", textCell(b.Bus), fmt.Sprint(b.KV), strings.ToLower(k.String()) + "_earth", cs.String(), currentCell(f.EarthA), k.String(), textCell(b.Bus)})
 				}
 			}
 		}

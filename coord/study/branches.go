@@ -1,7 +1,6 @@
 package study
 
 import (
-	"fmt"
 	"math"
 
 	"tripgrade/coord"
@@ -11,7 +10,7 @@ import (
 
 func (b *builder) buildLines() {
 	for i, r := range b.raw.Lines {
-		w := where{path: fmt.Sprintf("line[%d]", i), element: fmt.Sprintf("line %q", r.Name)}
+		w := at("line", i, r.Name)
 		ok := b.branchName(w, r.Name)
 		from, okF := b.busRef(w, "from", r.From)
 		to, okT := b.busRef(w, "to", r.To)
@@ -81,7 +80,7 @@ func (b *builder) branchName(w where, name string) bool {
 
 func (b *builder) buildTransformers() {
 	for i, r := range b.raw.Transformer {
-		w := where{path: fmt.Sprintf("transformer[%d]", i), element: fmt.Sprintf("transformer %q", r.Name)}
+		w := at("transformer", i, r.Name)
 		ok := b.branchName(w, r.Name)
 		from, okF := b.busRef(w, "from", r.From)
 		to, okT := b.busRef(w, "to", r.To)
@@ -215,5 +214,10 @@ func (b *builder) transformerXR(w where, r rawTransformer, zPct float64) float64
 		}
 		return math.NaN()
 	}
-	return math.Sqrt(zPct*zPct-rPct*rPct) / rPct
+	xr := math.Sqrt(zPct*zPct-rPct*rPct) / rPct
+	if xr > xrLimit.max {
+		b.fail(w, "r_pct", "r_pct = %g %% gives X/R = %s, beyond any real transformer (at most %s: %s)", rPct, verbatim(gText(xr)), verbatim(gText(xrLimit.max)), verbatim(xrLimit.why))
+		return math.NaN()
+	}
+	return xr
 }

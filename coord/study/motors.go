@@ -86,6 +86,8 @@ func (b *builder) buildUnits() {
 		case three:
 			b.fail(w, "unit_transformer", "unit_transformer = %q is a three-winding transformer: a unit transformer has two windings here", r.UnitTransformer)
 			continue
+		case !ok && b.unread("transformer"):
+			continue // the transformer may be in the table that could not be read
 		case !ok:
 			names := map[string]int{}
 			for i, t := range b.net.Transformers {
