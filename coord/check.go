@@ -70,6 +70,9 @@ func Check(s *Study, eng *faults.Engine, t *Topology) (*Result, error) {
 		return nil, err
 	}
 	add(fs...)
+	for i := range r.Findings {
+		settle(&r.Findings[i])
+	}
 	return r, nil
 }
 

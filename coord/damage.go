@@ -75,6 +75,16 @@ func (c *checker) damage() ([]Finding, error) {
 		}
 		out = append(out, f)
 	}
+	// Three-winding transformers have no through-fault withstand curve
+	// here: say so rather than let their absence read as checked.
+	for i := range n.Transformers3 {
+		f := unchecked(Damage, "no through-fault withstand curve for a three-winding transformer: check its windings by hand")
+		f.Device, f.Other = "-", n.Transformers3[i].Name
+		if dev := own[n.StarBranch(i, faults.HV)]; dev >= 0 {
+			f.Device = c.s.Devices[dev].Name
+		}
+		out = append(out, f)
+	}
 	return out, nil
 }
 

@@ -40,6 +40,9 @@ func (x *netIndex) nodes() []node {
 	nb := len(n.Buses)
 	var out []node
 	for k := range n.Buses {
+		if n.Buses[k].Internal {
+			continue // a three-winding transformer's star point: no node of the plant
+		}
 		nd := node{place: faults.AtBus(k), elems: []nodeElem{{el: element{bus: k, branch: -1}, place: faults.AtBus(k), index: k}}}
 		for _, b := range x.adj[k] {
 			frac := 0.0

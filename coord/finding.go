@@ -1,6 +1,12 @@
 package coord
 
-import "tripgrade/faults"
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"tripgrade/faults"
+)
 
 // Verdict is the outcome of one finding.
 type Verdict uint8
@@ -54,6 +60,11 @@ func (c CheckKind) Slug() string {
 	return [...]string{"grading", "primary_sensitivity", "backup_sensitivity", "load", "instantaneous_reach",
 		"inrush", "damage", "settings", "discrimination", "clearing"}[c]
 }
+
+// Timed reports whether the check's findings carry operating times of
+// their devices (FaultRef.DeviceS and OtherS), zero included; the other
+// checks leave them unset.
+func (c CheckKind) Timed() bool { return c == Grading || c == Damage }
 
 // Finding is one line of the verdict: a check on a device (or a pair),
 // what was measured, what was required, and the fault behind the figure.
@@ -143,24 +154,83 @@ func (r *Result) Failed() bool {
 	return f > 0
 }
 
-// atLeast builds a finding for "measured ≥ required".
+// atLeast builds a finding for "measured ≥ required". Figures that are
+// not finite numbers cannot be compared: the finding is then WARN, and
+// settle gives the reason.
 func atLeast(c CheckKind, measured, required float64, unit string) Finding {
 	f := Finding{Check: c, Measured: measured, Required: required, Margin: measured - required,
 		Unit: unit, Relation: "≥", Valid: true}
-	if f.Margin < 0 {
-		f.Verdict = Fail
-	}
+	f.Verdict = judge(f)
 	return f
 }
 
-// atMost builds a finding for "measured ≤ required".
+// atMost builds a finding for "measured ≤ required", with atLeast's rule
+// for figures that are not finite.
 func atMost(c CheckKind, measured, required float64, unit string) Finding {
 	f := Finding{Check: c, Measured: measured, Required: required, Margin: required - measured,
 		Unit: unit, Relation: "≤", Valid: true}
-	if f.Margin < 0 {
-		f.Verdict = Fail
-	}
+	f.Verdict = judge(f)
 	return f
+}
+
+// judge gives a valid finding's verdict from its margin: a negative margin
+// fails, a figure that is not a finite number (a NaN margin compares false
+// with everything) is not a verdict at all.
+func judge(f Finding) Verdict {
+	switch {
+	case nonFinite(f) != "":
+		return Warn
+	case f.Margin < 0:
+		return Fail
+	}
+	return Pass
+}
+
+// nonFinite names the first figure of f that is not a finite number, with
+// its value, or returns "".
+func nonFinite(f Finding) string {
+	type figure struct {
+		name string
+		v    float64
+	}
+	var figs []figure
+	if f.Valid {
+		figs = append(figs, figure{"measured figure", f.Measured}, figure{"required figure", f.Required}, figure{"margin", f.Margin})
+	}
+	if ft := f.Fault; ft != nil {
+		figs = append(figs, figure{"device current", ft.DeviceA}, figure{"other current", ft.OtherA})
+		if ft.Interpolated {
+			figs = append(figs, figure{"sweep scale", ft.Scale})
+		}
+		if f.Check.Timed() {
+			figs = append(figs, figure{"device time", ft.DeviceS}, figure{"other time", ft.OtherS})
+		}
+	}
+	for _, x := range figs {
+		if math.IsNaN(x.v) || math.IsInf(x.v, 0) {
+			return fmt.Sprintf("the %s is %v, not a number that can be judged", x.name, x.v)
+		}
+	}
+	return ""
+}
+
+// settle enforces, after a check has finished a finding, the rule every
+// finding obeys: one with a figure that is not a finite number is WARN
+// "not checked", saying which figure, never PASS or FAIL, whatever the
+// check did to its verdict and note after building it.
+func settle(f *Finding) {
+	why := nonFinite(*f)
+	if why == "" {
+		return
+	}
+	f.Verdict = Warn
+	if !strings.HasPrefix(f.Note, "not checked") {
+		note := "not checked: " + why
+		if f.Note != "" {
+			note += "; " + f.Note
+		}
+		f.Note = note
+	}
 }
 
 // unchecked builds a finding for a check that could not be made.

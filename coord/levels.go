@@ -9,10 +9,15 @@ import (
 // Places returns every fault place of a zone: the close-in fault beyond
 // the device, each bus inside, both terminals and the Settings' interior
 // positions of each branch inside, and the far-end places, without
-// repeats and in a fixed order.
+// repeats and in a fixed order. The internal star point of a three-winding
+// transformer is no place for a fault and is left out.
 func (t *Topology) Places(z Zone, n *faults.Network, set faults.Settings) []faults.Place {
 	var ps placeSet
-	add := ps.add
+	add := func(p faults.Place) {
+		if !Fictitious(n, p) {
+			ps.add(p)
+		}
+	}
 	add(z.Start)
 	fr := set.Fractions()
 	for _, b := range z.Branches {
@@ -35,6 +40,23 @@ func (t *Topology) Places(z Zone, n *faults.Network, set faults.Settings) []faul
 		add(p)
 	}
 	return ps.list
+}
+
+// Fictitious reports whether a fault place lies on an internal node of the
+// network (a three-winding transformer's star point, at the bus or close
+// in at the star end of a winding): a node of the model, not of the plant.
+func Fictitious(n *faults.Network, p faults.Place) bool {
+	if p.IsBus() {
+		return n.Buses[p.Bus].Internal
+	}
+	from, to := n.BranchEnds(p.Branch)
+	switch p.Frac {
+	case 0:
+		return n.Buses[from].Internal
+	case 1:
+		return n.Buses[to].Internal
+	}
+	return false
 }
 
 // placeSet collects fault places without repeats, in the order added.

@@ -27,6 +27,10 @@ type Study struct {
 	// their infeed of a fault that no device of the study stands between,
 	// within the maximum clearing time.
 	OwnProtection []string
+	// Notes are what the loader assumed where the input left a choice
+	// (which separator a settings table uses, say), each naming its file
+	// and line; reports print them so a reviewer sees them.
+	Notes []string
 	// Accepts are the study's [[accept]] entries: findings a reviewer has
 	// accepted (see Accept).
 	Accepts []Acceptance

@@ -13,12 +13,17 @@ func (c *checker) reachPlaces(i int) []faults.Place {
 	z := c.topo.Zones[i]
 	n := c.s.Network
 	var ps placeSet
+	add := func(p faults.Place) {
+		if !Fictitious(n, p) {
+			ps.add(p)
+		}
+	}
 	for _, p := range z.Boundary {
-		ps.add(p)
+		add(p)
 	}
 	for _, b := range z.Branches {
 		if n.IsTransformer(b) {
-			ps.add(faults.AtBus(pointBus(n, faults.Point{Branch: b, End: c.topo.Downstream[b]})))
+			add(faults.AtBus(pointBus(n, faults.Point{Branch: b, End: c.topo.Downstream[b]})))
 		}
 	}
 	return ps.list

@@ -86,12 +86,13 @@ func TestEarthFaultSensitivityOnLG(t *testing.T) {
 var tiny = regexp.MustCompile(`[0-9]e-[0-9]`)
 
 // TestBaseMVADoesNotChangeFindings: the per-unit base is internal; a study
-// at base_mva 1e6 (or 0.1) gives the same findings as at 100, and its JSON
+// at either end of the range a study accepts for base_mva (0.001 and
+// 1e5 MVA) gives the same findings as at 100, and its JSON
 // carries no rounding residue as a current (the engine cuts residue
 // relative to each fault's own current, never relative to base_mva).
 func TestBaseMVADoesNotChangeFindings(t *testing.T) {
 	s, ref := variantOf(t, "backup-delta.toml")
-	for _, base := range []string{"1e6", "0.1"} {
+	for _, base := range []string{"1e5", "0.001"} {
 		_, r := variantOf(t, "backup-delta.toml", "[study]\n", "[study]\nbase_mva = "+base+"\n")
 		if len(r.Findings) != len(ref.Findings) {
 			t.Fatalf("base %s: %d findings, want %d", base, len(r.Findings), len(ref.Findings))

@@ -308,7 +308,7 @@ func (r *relations) zones(x *netIndex, t *Topology) []Zone {
 					count++
 				}
 			}
-			if count <= 1 && !nextAt[k] {
+			if count <= 1 && !nextAt[k] && !n.Buses[k].Internal {
 				ps.add(faults.AtBus(k))
 			}
 		}

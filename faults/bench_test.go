@@ -119,3 +119,24 @@ func BenchmarkStudy(b *testing.B) {
 		})
 	}
 }
+
+// BenchmarkAllDuties measures the peak, breaking and steady-state currents
+// at every bus on a fresh engine: the equivalent-frequency network (and,
+// with motors, the one without them) is factored on first use, so its cost
+// is in the figure. The machine network adds three-winding transformers,
+// motors and power station units to the generated one.
+func BenchmarkAllDuties(b *testing.B) {
+	for _, n := range benchSizes {
+		b.Run(fmt.Sprintf("buses=%d", n), func(b *testing.B) {
+			net, _ := generateMachineNetwork(1, n)
+			for b.Loop() {
+				b.StopTimer()
+				eng := mustEngine(b, net)
+				b.StartTimer()
+				if _, err := eng.AllDuties(); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}

@@ -78,6 +78,11 @@ type Settings struct {
 	// PhaseFaultOhm and PhaseFaultXOhm are the fault resistance and
 	// reactance of LLL and LL faults in the minimum case (0: bolted).
 	PhaseFaultOhm, PhaseFaultXOhm float64
+	// MinTimeDelayS is the minimum time delay t_min of IEC 60909-0 for the
+	// symmetrical breaking current (shortest relay time plus breaker
+	// opening time); 0 means 0.02 s, the shortest the standard's factors
+	// cover and the one that gives the largest breaking current.
+	MinTimeDelayS float64
 	// EndTempC is the conductor temperature at the end of the fault for the
 	// minimum-case line resistance; 0 means 20 °C (no increase).
 	EndTempC float64

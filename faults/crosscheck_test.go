@@ -51,11 +51,22 @@ const (
 )
 
 // TestCrossCheckNumpy runs the independent numpy/scipy computation on a
-// generated 240-bus meshed network and compares every fault current and
-// relay-point current with the engine's.
+// generated 240-bus meshed network, with three-winding transformers,
+// motors and power station units added, and compares every fault current
+// and relay-point current with the engine's.
 func TestCrossCheckNumpy(t *testing.T) {
 	py := findPython(t)
-	net, pts := generateNetwork(2024, crossBuses)
+	net, pts := generateMachineNetwork(2024, crossBuses)
+	units := 0
+	for _, g := range net.Generators {
+		if g.Unit != nil {
+			units++
+		}
+	}
+	if len(net.Transformers3) < 3 || len(net.Motors) < 4 || units < 2 {
+		t.Fatalf("the generated network has %d three-winding transformers, %d motors, %d power station units; want 3, 4, 2",
+			len(net.Transformers3), len(net.Motors), units)
+	}
 	settings := map[string]faults.Settings{
 		"defaults": {},
 		"study": {
@@ -127,6 +138,9 @@ func crossPlaces(eng *faults.Engine, pts []faults.Point, rng *rand.Rand) []cross
 	var out []crossPlace
 	index := map[faults.Place]int{}
 	add := func(p faults.Place) {
+		if fictitious(net, p) {
+			return // a three-winding transformer's internal star point: the script has no such node
+		}
 		index[p] = len(out)
 		out = append(out, crossPlace{place: p, reach: map[int]bool{}})
 	}
@@ -152,6 +166,9 @@ func crossPlaces(eng *faults.Engine, pts []faults.Point, rng *rand.Rand) []cross
 		atBus[f] = append(atBus[f], n)
 		atBus[to] = append(atBus[to], n)
 		for _, pl := range eng.Reach(pt) {
+			if fictitious(net, pl) {
+				panic(fmt.Sprintf("Reach of %v gives the internal place %v", pt, pl))
+			}
 			i, ok := index[pl]
 			if !ok {
 				panic(fmt.Sprintf("Reach of %v gives %v, not among the places", pt, pl))
@@ -190,6 +207,16 @@ func crossPlaces(eng *faults.Engine, pts []faults.Point, rng *rand.Rand) []cross
 	return out
 }
 
+// fictitious reports a fault place on an internal node: a star point, at
+// the bus or close in at a winding's star end.
+func fictitious(net *faults.Network, p faults.Place) bool {
+	if p.IsBus() {
+		return net.Buses[p.Bus].Internal
+	}
+	f, t := net.BranchEnds(p.Branch)
+	return (p.Frac == 0 && net.Buses[f].Internal) || (p.Frac == 1 && net.Buses[t].Internal)
+}
+
 // The JSON the script reads: the network in SI units, the settings, the
 // points and the places.
 type (
@@ -213,18 +240,21 @@ type (
 			PhaseFaultOhm   float64 `json:"phase_fault_ohm"`
 			EndTempC        float64 `json:"end_temp_c"`
 		} `json:"settings"`
-		Buses        []jsonBus         `json:"buses"`
-		Sources      []jsonSource      `json:"sources"`
-		Generators   []jsonGenerator   `json:"generators"`
-		Lines        []jsonLine        `json:"lines"`
-		Transformers []jsonTransformer `json:"transformers"`
-		Earthings    []jsonEarthing    `json:"earthings"`
-		Points       []jsonPoint       `json:"points"`
-		Places       []jsonPlace       `json:"places"`
+		Buses         []jsonBus          `json:"buses"`
+		Sources       []jsonSource       `json:"sources"`
+		Generators    []jsonGenerator    `json:"generators"`
+		Motors        []jsonMotor        `json:"motors"`
+		Lines         []jsonLine         `json:"lines"`
+		Transformers  []jsonTransformer  `json:"transformers"`
+		Transformers3 []jsonTransformer3 `json:"transformers3"`
+		Earthings     []jsonEarthing     `json:"earthings"`
+		Points        []jsonPoint        `json:"points"`
+		Places        []jsonPlace        `json:"places"`
 	}
 	jsonBus struct {
-		Name string  `json:"name"`
-		KV   float64 `json:"kv"`
+		Name     string  `json:"name"`
+		KV       float64 `json:"kv"`
+		Internal bool    `json:"internal"`
 	}
 	jsonSource struct {
 		Bus     int          `json:"bus"`
@@ -246,6 +276,44 @@ type (
 		InMax   bool        `json:"in_max"`
 		InMin   bool        `json:"in_min"`
 		Neutral jsonNeutral `json:"neutral"`
+		Unit    *jsonUnit   `json:"unit"`
+	}
+	jsonUnit struct {
+		Transformer      int     `json:"transformer"` // index into transformers
+		OnLoadTapChanger bool    `json:"on_load_tap_changer"`
+		TapPct           float64 `json:"tap_pct"`
+		PGPct            float64 `json:"pg_pct"`
+	}
+	jsonMotor struct {
+		Bus         int     `json:"bus"`
+		MW          float64 `json:"mw"`
+		KV          float64 `json:"kv"`
+		PF          float64 `json:"pf"`
+		Eff         float64 `json:"efficiency"`
+		LockedRotor float64 `json:"ilr_irm"`
+		PolePairs   int     `json:"pole_pairs"`
+		RX          float64 `json:"r_x"`
+		Count       int     `json:"count"`
+	}
+	jsonPair struct {
+		MVA   float64 `json:"mva"`
+		ZPct  float64 `json:"z_pct"`
+		RPct  float64 `json:"r_pct"`
+		Z0Pct float64 `json:"z0_pct"`
+		R0Pct float64 `json:"r0_pct"`
+	}
+	// jsonTransformer3 is a three-winding transformer: its terminal buses,
+	// windings HV, MV, LV, and the branch indices the engine gives its
+	// windings (its star point is the engine's; the script has none).
+	jsonTransformer3 struct {
+		Buses        [3]int         `json:"buses"`
+		KV           [3]float64     `json:"kv"`
+		Pairs        [3]jsonPair    `json:"pairs"` // HV–MV, HV–LV, MV–LV
+		Group        string         `json:"vector_group"`
+		Neutrals     [3]jsonNeutral `json:"neutrals"`
+		Branches     [3]int         `json:"branches"`
+		Star         int            `json:"star_bus"`
+		NotCorrected bool           `json:"not_corrected"`
 	}
 	jsonLine struct {
 		Name     string      `json:"name"`
@@ -318,7 +386,24 @@ func crossInput(eng *faults.Engine, pts []faults.Point, places []crossPlace) *js
 	in.Settings.PhaseFaultOhm = set.PhaseFaultOhm
 	in.Settings.EndTempC = set.EndTempC
 	for _, b := range net.Buses {
-		in.Buses = append(in.Buses, jsonBus{Name: b.Name, KV: b.KV})
+		in.Buses = append(in.Buses, jsonBus{Name: b.Name, KV: b.KV, Internal: b.Internal})
+	}
+	in.Motors = make([]jsonMotor, len(net.Motors))
+	for i, m := range net.Motors {
+		in.Motors[i] = jsonMotor{Bus: m.Bus, MW: m.MW, KV: m.KV, PF: m.PF, Eff: m.Eff, LockedRotor: m.LockedRotor,
+			PolePairs: m.PolePairs, RX: m.RX, Count: m.Count}
+	}
+	in.Transformers3 = make([]jsonTransformer3, len(net.Transformers3))
+	for i, t := range net.Transformers3 {
+		o := &in.Transformers3[i]
+		o.Buses, o.KV, o.Group, o.Star, o.NotCorrected = t.Buses, t.KV, t.Group.String(), t.StarBus, t.NotCorrected
+		for p, pr := range t.Pairs {
+			o.Pairs[p] = jsonPair{MVA: pr.MVA, ZPct: pr.ZPct, RPct: pr.RPct, Z0Pct: pr.Z0Pct, R0Pct: pr.R0Pct}
+		}
+		for w := range o.Branches {
+			o.Branches[w] = net.StarBranch(i, w)
+			o.Neutrals[w] = jn(t.Neutral[w])
+		}
 	}
 	in.Sources = make([]jsonSource, len(net.Sources))
 	for i, s := range net.Sources {
@@ -330,6 +415,9 @@ func crossInput(eng *faults.Engine, pts []faults.Point, places []crossPlace) *js
 		o := &in.Generators[i]
 		o.Bus, o.MVA, o.KV, o.XdPct, o.X2Pct, o.X0Pct = g.Bus, g.MVA, g.KV, g.XdPct, g.X2Pct, g.X0Pct
 		o.RPct, o.PF, o.InMax, o.InMin, o.Neutral = g.RPct, g.PF, g.InMax, g.InMin, jn(g.Earth)
+		if u := g.Unit; u != nil {
+			o.Unit = &jsonUnit{Transformer: u.Transformer, OnLoadTapChanger: u.OnLoadTapChanger, TapPct: u.TapPct, PGPct: u.PGPct}
+		}
 	}
 	in.Lines = make([]jsonLine, len(net.Lines))
 	for i, l := range net.Lines {

@@ -18,15 +18,30 @@ type Currents struct {
 }
 
 // Phases returns Ia, Ib, Ic: Ia = I0+I1+I2, Ib = I0+a²I1+aI2,
-// Ic = I0+aI1+a²I2.
+// Ic = I0+aI1+a²I2. A phase whose sum cancels to rounding residue (below
+// cancelShare of the sequence currents, as Ib and Ic of a phase-a earth
+// fault do) is exactly 0, so "no current" reads the same on every machine.
 func (c Currents) Phases() [3]complex128 {
 	i0, i1, i2 := c.Seq[zero], c.Seq[pos], c.Seq[neg]
-	return [3]complex128{
+	p := [3]complex128{
 		i0 + i1 + i2,
 		i0 + opA2*i1 + opA*i2,
 		i0 + opA*i1 + opA2*i2,
 	}
+	scale := cmplx.Abs(i0) + cmplx.Abs(i1) + cmplx.Abs(i2)
+	for k := range p {
+		if cmplx.Abs(p[k]) < cancelShare*scale {
+			p[k] = 0
+		}
+	}
+	return p
 }
+
+// cancelShare is the share of the sequence currents below which a phase
+// current is what their cancellation leaves in floating point: a few
+// thousand times the unit rounding error, the tolerance the sparse
+// factorization also works to.
+const cancelShare = 1e-12
 
 // PhaseMaxA returns the largest of |Ia|, |Ib|, |Ic|: the current a phase
 // overcurrent element responds to.

@@ -12,7 +12,18 @@
 // replaced by its internal impedance, and the only driving voltage is
 // c·Un/√3 at the fault location, with the voltage factor c of that location's
 // voltage level and of the case (see Case). Currents are initial symmetrical
-// (sub-transient) r.m.s. values; DC offset and decay are not modelled.
+// (sub-transient) r.m.s. values. For a three-phase fault at a bus,
+// Engine.Duty adds what switchgear must make and break there: the peak
+// current i_p (κ by method C, at an equivalent frequency), the symmetrical
+// breaking current I_b (the decay of generators' and motors' shares at the
+// Settings' minimum time delay) and the steady-state current I_k.
+//
+// Besides lines, two-winding transformers, grid equivalents, generators and
+// earthing transformers, a Network holds three-winding transformers (a star
+// of three branches around an internal bus, Bus.Internal, which is no
+// place for a fault), asynchronous motors (maximum case only) and power
+// station units (a Generator whose Unit names its unit transformer; both
+// carry the unit's K_S or K_SO).
 //
 // The sequence fault currents follow the textbook connections of the
 // sequence networks at the fault point (Grainger & Stevenson, Power System

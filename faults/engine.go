@@ -22,6 +22,7 @@ type Engine struct {
 	ibase []float64    // base current at each bus, A
 	zbase []float64    // base impedance at each bus, Ω
 	cases [2][3]*seqNet
+	duty  dutyNets // the peak and steady-state networks, built on first use
 }
 
 // seqNet is one factored sequence network.
@@ -52,6 +53,11 @@ func New(n *Network, set Settings) (*Engine, error) {
 			return nil, fmt.Errorf("line fault position %g must lie strictly between 0 and 1", f)
 		}
 	}
+	for _, r := range []float64{set.EarthFaultOhm, set.EarthFaultOhmLV, set.PhaseFaultOhm} {
+		if !(r >= 0 && r <= maxImpedance) {
+			return nil, fmt.Errorf("fault resistance %g Ω must lie within 0 to %g Ω", r, float64(maxImpedance))
+		}
+	}
 	e := &Engine{net: n, set: set}
 	nb := len(n.Buses)
 	e.rot = make([]complex128, nb)
@@ -75,7 +81,14 @@ func New(n *Network, set Settings) (*Engine, error) {
 			}
 			sn, err := factorSeq(n, d[s])
 			if err != nil {
+				var sb *singularBus
+				if errors.As(err, &sb) {
+					return nil, conditionError(n, d[s], cs, s, sb.bus)
+				}
 				return nil, fmt.Errorf("%s case, %s sequence: %w", cs, seqName[s], err)
+			}
+			if err := sn.checkCondition(n, cs, s); err != nil {
+				return nil, err
 			}
 			e.cases[cs][s] = sn
 		}
@@ -91,6 +104,12 @@ func New(n *Network, set Settings) (*Engine, error) {
 }
 
 var seqName = [...]string{zero: "zero", pos: "positive", neg: "negative"}
+
+// singularBus carries the bus of a failed pivot from factorSeq to New,
+// which explains it as a *ConditionError.
+type singularBus struct{ bus int }
+
+func (e *singularBus) Error() string { return fmt.Sprintf("singular at bus index %d", e.bus) }
 
 // Network returns the network the engine was built from.
 func (e *Engine) Network() *Network { return e.net }
@@ -185,7 +204,7 @@ func factorSeq(n *Network, d *seqData) (*seqNet, error) {
 		if errors.As(err, &se) {
 			for i, r := range sn.row {
 				if int(r) == se.Index {
-					return nil, fmt.Errorf("admittance matrix is singular at bus %q (a part of the network with no impedance to the rest?)", n.Buses[i].Name)
+					return nil, &singularBus{bus: i}
 				}
 			}
 		}

@@ -55,6 +55,21 @@ type netGen struct {
 // generateNetwork returns a seeded synthetic network of exactly nbus buses
 // and measuring points at one or both ends of most branches.
 func generateNetwork(seed uint64, nbus int) (*faults.Network, []faults.Point) {
+	g, _ := buildNetwork(seed, nbus)
+	return g.net, g.points()
+}
+
+// netParts are the parts of a generated network that later additions
+// attach to.
+type netParts struct {
+	core      []int
+	regions   []region
+	primaries []primary
+}
+
+// buildNetwork generates the network of generateNetwork, before its
+// measuring points are drawn.
+func buildNetwork(seed uint64, nbus int) (*netGen, netParts) {
 	if nbus < minGeneratedBuses {
 		panic(fmt.Sprintf("generateNetwork: %d buses requested, need at least %d", nbus, minGeneratedBuses))
 	}
@@ -64,15 +79,16 @@ func generateNetwork(seed uint64, nbus int) (*faults.Network, []faults.Point) {
 		left:  nbus,
 		count: map[string]int{},
 	}
-	core := g.transmission(max(5, nbus/45))
-	regions := g.regions(core, max(3, len(core)/2))
-	primaries := g.primaries(regions)
-	g.generators(core, primaries)
-	g.specialZones(primaries, regions)
-	g.feeders(primaries)
-	g.interconnect(primaries)
+	var p netParts
+	p.core = g.transmission(max(5, nbus/45))
+	p.regions = g.regions(p.core, max(3, len(p.core)/2))
+	p.primaries = g.primaries(p.regions)
+	g.generators(p.core, p.primaries)
+	g.specialZones(p.primaries, p.regions)
+	g.feeders(p.primaries)
+	g.interconnect(p.primaries)
 	g.lvGenerator()
-	return g.net, g.points()
+	return g, p
 }
 
 // uniform returns a random value in [lo, hi).
@@ -450,11 +466,16 @@ func (g *netGen) lvGenerator() {
 }
 
 // points puts measuring points at both ends of most branches, at the From
-// end only of some, and none on a few.
+// end only of some, and none on a few; on a winding of a three-winding
+// transformer at its terminal only (the other end is the internal star
+// point).
 func (g *netGen) points() []faults.Point {
 	var pts []faults.Point
 	for b := 0; b < g.net.BranchCount(); b++ {
+		_, _, star := g.net.Star(b)
 		switch u := g.rng.Float64(); {
+		case star && u < 0.95:
+			pts = append(pts, faults.Point{Branch: b, End: faults.From})
 		case u < 0.85:
 			pts = append(pts, faults.Point{Branch: b, End: faults.From}, faults.Point{Branch: b, End: faults.To})
 		case u < 0.95:

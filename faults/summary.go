@@ -56,7 +56,9 @@ type PointSummary struct {
 // over: close-in just beyond the point, the line positions of the
 // Settings along its own branch, and the bus at the far end (where the
 // next branches start, so a fault close-in on any of them gives the point
-// the same current).
+// the same current). For a point on a winding of a three-winding
+// transformer the far end is the other two windings' buses, not the
+// internal star point.
 func (e *Engine) Reach(pt Point) []Place {
 	n := e.net
 	from, to := n.BranchEnds(pt.Branch)
@@ -65,6 +67,14 @@ func (e *Engine) Reach(pt Point) []Place {
 		near, far = 1, from
 	}
 	places := []Place{OnBranch(pt.Branch, near)}
+	if t, w, ok := n.Star(pt.Branch); ok && pt.End == From {
+		for v, bus := range t.Buses {
+			if v != w {
+				places = append(places, AtBus(bus))
+			}
+		}
+		return places
+	}
 	if !n.IsTransformer(pt.Branch) {
 		for _, f := range e.set.Fractions() {
 			places = append(places, OnBranch(pt.Branch, f))

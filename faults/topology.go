@@ -68,7 +68,9 @@ func (n *Network) ZoneAngles() ([]float64, error) {
 	for b := 0; b < n.BranchCount(); b++ {
 		f, t := n.BranchEnds(b)
 		d := 0.0
-		if n.IsTransformer(b) {
+		if t3, w, ok := n.Star(b); ok {
+			d = -t3.Group.ShiftDeg(w) // from the winding's terminal to the star point, in the HV frame
+		} else if n.IsTransformer(b) {
 			d = branchShiftDeg(n.Transformer(b))
 		}
 		adj[f] = append(adj[f], edge{t, b, d})

@@ -4,8 +4,6 @@ import (
 	"bytes"
 	"fmt"
 	"io"
-	"os"
-	"path/filepath"
 	"strings"
 
 	"tripgrade/coord"
@@ -103,14 +101,17 @@ func checkLoaded(l loaded, o *checkOptions, stdout, stderr io.Writer) int {
 		return exitUsage
 	}
 	if o.outDir != "" {
-		wrote, err := writeOutputs(l, res, tab, o)
+		wrote, removed, err := writeOutputs(l, res, tab, o)
+		listWritten(stderr, wrote)
+		for _, p := range removed {
+			fmt.Fprintf(stderr, "removed %s (written by an earlier run, not by this one)\n", p)
+		}
 		if err != nil {
 			fmt.Fprintf(stderr, "tripgrade check: %v\n", err)
 			return exitUsage
 		}
-		listWritten(stderr, wrote)
 	}
-	if o.review.report != "" {
+	if _, done := o.reportInOut(); o.review.report != "" && !done {
 		if err := writeReport(l, res, tab, o.review.report, o.review.gate(tab)); err != nil {
 			return fprintErr(stderr, err)
 		}
@@ -120,22 +121,68 @@ func checkLoaded(l loaded, o *checkOptions, stdout, stderr io.Writer) int {
 }
 
 // writeOutputs writes the table in every chosen format and the
-// time-current plots to the output folder, and returns the paths written.
-func writeOutputs(l loaded, res *coord.Result, tab *report.Findings, o *checkOptions) ([]string, error) {
-	if err := os.MkdirAll(o.outDir, 0o755); err != nil {
-		return nil, err
+// time-current plots to the output folder, creating it when missing, and
+// the audit report when it is asked for in that folder; it removes the
+// files an earlier run wrote there that this one does not (outFolder).
+// It returns the paths written and those removed.
+func writeOutputs(l loaded, res *coord.Result, tab *report.Findings, o *checkOptions) (wrote, removed []string, err error) {
+	out, err := openOutFolder(o.outDir)
+	if err != nil {
+		return nil, nil, err
 	}
-	var wrote []string
+	charts, err := plotCharts(l, res)
+	if err != nil {
+		return nil, nil, err
+	}
+	var names []string
+	for _, f := range o.formats {
+		names = append(names, "findings."+findingWriters[f].ext)
+	}
+	for _, c := range charts {
+		names = append(names, chartFile(c))
+	}
+	reportName, reportHere := o.reportInOut()
+	if reportHere {
+		names = append(names, reportName)
+	}
+	if err := out.plan(names); err != nil {
+		return nil, nil, err
+	}
 	for _, f := range o.formats {
 		w := findingWriters[f]
-		path := filepath.Join(o.outDir, "findings."+w.ext)
-		if err := writeTo(path, func(b *bytes.Buffer) error { return w.write(tab, b) }); err != nil {
-			return wrote, err
+		path, err := out.write("findings."+w.ext, func(b *bytes.Buffer) error { return w.write(tab, b) })
+		if err != nil {
+			return wrote, nil, err
 		}
 		wrote = append(wrote, path)
 	}
-	plots, err := writePlots(l, res, o.outDir)
-	return append(wrote, plots...), err
+	plots, err := writePlots(out, charts)
+	wrote = append(wrote, plots...)
+	if err != nil {
+		return wrote, nil, err
+	}
+	if reportHere {
+		a, err := auditReport(l, res, tab, o.review.gate(tab))
+		if err != nil {
+			return wrote, nil, err
+		}
+		path, err := out.write(reportName, func(b *bytes.Buffer) error { return a.WriteHTML(b) })
+		if err != nil {
+			return wrote, nil, err
+		}
+		wrote = append(wrote, path)
+	}
+	removed, err = out.finish()
+	return wrote, removed, err
+}
+
+// reportInOut reports whether the audit report is asked for in the
+// output folder, and its name there.
+func (o *checkOptions) reportInOut() (string, bool) {
+	if o.review.report == "" || o.outDir == "" {
+		return "", false
+	}
+	return fileIn(o.outDir, o.review.report)
 }
 
 // listWritten tells the user which files a command wrote, on stderr so

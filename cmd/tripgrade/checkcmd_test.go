@@ -74,11 +74,14 @@ func TestCheckOutDir(t *testing.T) {
 	if code != exitOK {
 		t.Fatalf("exit %d, stderr %q", code, errOut)
 	}
-	// Every file in the folder is listed on stderr, and nothing else is.
+	// Every file in the folder is listed on stderr, and nothing else is,
+	// but for the hidden list of the files written (outFolder).
 	entries, _ := os.ReadDir(dir)
 	var listed []string
 	for _, e := range entries {
-		listed = append(listed, "wrote "+filepath.Join(dir, e.Name()))
+		if e.Name() != manifestName {
+			listed = append(listed, "wrote "+filepath.Join(dir, e.Name()))
+		}
 	}
 	gotList := strings.Split(strings.TrimSuffix(errOut, "\n"), "\n")
 	sort.Strings(gotList)
@@ -104,7 +107,7 @@ func TestCheckOutDir(t *testing.T) {
 		}
 	}
 	for _, e := range entries {
-		if strings.HasPrefix(e.Name(), ".") {
+		if strings.HasSuffix(e.Name(), ".tmp") {
 			t.Errorf("temporary file %s left behind", e.Name())
 		}
 	}

@@ -13,6 +13,7 @@ import (
 	"github.com/spf13/pflag"
 
 	"tripgrade/coord/report"
+	"tripgrade/coord/study"
 	"tripgrade/curves"
 )
 
@@ -158,7 +159,29 @@ func (f *curveFlags) stageSettings() (curves.StageSettings, error) {
 		return s, errors.New("--delay-s is required for the definite shape")
 	}
 	s.Law, err = f.userLaw(shape)
-	return s, err
+	if err != nil {
+		return s, err
+	}
+	return s, f.withinLimits()
+}
+
+// withinLimits holds the flags to the physical limits of the study file's
+// keys of the same meaning, so that a typing slip gives a message instead
+// of a 300-digit time.
+func (f *curveFlags) withinLimits() error {
+	for _, c := range []struct {
+		flag, key string
+		v         float64
+	}{
+		{"pickup-a", "pickup_a", f.pickupA}, {"tms", "tms", f.tms}, {"td", "td", f.td},
+		{"delay-s", "delay_s", f.delayS}, {"max-multiple", "max_multiple", f.maxMultiple}, {"min-time-s", "min_time_s", f.minTimeS},
+		{"k", "k", f.k}, {"alpha", "alpha", f.alpha}, {"a", "a", f.a}, {"p", "p", f.p},
+	} {
+		if err := study.CheckLimit(c.key, c.v); err != nil {
+			return fmt.Errorf("--%s: %v", c.flag, err)
+		}
+	}
+	return nil
 }
 
 // userLaw reads the user constants of iec-user and ieee-user and rejects
@@ -201,6 +224,12 @@ func (f *curveFlags) currents() ([]float64, error) {
 	for _, a := range f.currentsA {
 		if math.IsNaN(a) || math.IsInf(a, 0) || a < 0 {
 			return nil, fmt.Errorf("current must be a finite number >= 0 A (got %s)", plain(a))
+		}
+		if err := study.CheckLimit("current_a", a); err != nil {
+			return nil, fmt.Errorf("--current-a: %v", err)
+		}
+		if m := a / f.pickupA; math.IsInf(m, 0) {
+			return nil, fmt.Errorf("--current-a %s A is beyond any multiple of the pickup %s A that a number can hold", plain(a), plain(f.pickupA))
 		}
 	}
 	out := append([]float64(nil), f.currentsA...)
@@ -321,10 +350,15 @@ func writeCurveJSON(w io.Writer, s curves.StageSettings, samples []curves.Sample
 func plain(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
 
 // sig prints v with four significant digits, in fixed notation and never
-// dropping integer digits: 2.971, 10.03, 0.2005, 12346.
+// dropping integer digits: 2.971, 10.03, 0.2005, 12346; beyond a million
+// or below a millionth, where fixed notation would print a long row of
+// digits or nothing but zeros, in exponent form: 1.235e+07.
 func sig(v float64) string {
 	if v == 0 || math.IsNaN(v) || math.IsInf(v, 0) {
 		return strconv.FormatFloat(v, 'g', -1, 64)
+	}
+	if a := math.Abs(v); a >= 1e6 || a < 1e-6 {
+		return strconv.FormatFloat(v, 'g', 4, 64)
 	}
 	const digits, maxDecimals = 4, 6
 	decimals := digits - 1 - int(math.Floor(math.Log10(math.Abs(v))))

@@ -38,15 +38,15 @@ func TestDiffFenwickFixes(t *testing.T) {
 	want := []string{
 		"T1-HV/51: TMS 0.35→0.4",                          // graded too closely above the incomer
 		"INC/: ct_class C100→C400, ct_burden_ohm 1.8→0.5", // the CT saturated for the maximum fault
-		"FM/50: pickup_a 3000→6500",                       // the instantaneous reached into MA-R's zone
-		"FB/51: pickup_a 150→160, TMS 0.17→0.2",           // off the relay's setting steps
-		"FC/51: pickup_a 90→100",                          // too close to the load
+		"FM/50: ", // removed: no pickup keeps the instantaneous out of MA-R's zone and sees FM's own faults
+		"FB/51: pickup_a 150→160, TMS 0.17→0.2", // off the relay's setting steps
+		"FC/51: pickup_a 90→100",                // too close to the load
 	}
 	if strings.Join(got, "\n") != strings.Join(want, "\n") {
 		t.Errorf("changes:\n%s\nwant:\n%s", strings.Join(got, "\n"), strings.Join(want, "\n"))
 	}
-	if doc.Schema != 1 || doc.Findings.Counts["fixed"] != 6 || doc.Findings.Gating != 0 {
-		t.Errorf("findings %+v, want 6 fixed (five mistakes and the CT warning) and nothing new failing", doc.Findings)
+	if doc.Schema != 1 || doc.Findings.Counts["fixed"] != 5 || doc.Findings.Counts["removed"] != 1 || doc.Findings.Gating != 0 {
+		t.Errorf("findings %+v, want 5 fixed (four mistakes and the CT warning), FM's reach finding removed with its stage, and nothing new failing", doc.Findings)
 	}
 	_, text, _ := runArgs("diff", fenwick, fenwickFixed)
 	golden(t, "fenwick-quay.diff.txt", text)

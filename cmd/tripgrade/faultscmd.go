@@ -13,7 +13,8 @@ func runFaults(args []string, stdout, stderr io.Writer) int {
 
 Computes the maximum and minimum phase and residual fault currents that every
 device sees over its own zone, and the four fault kinds at every bus, in the
-maximum and minimum cases of IEC 60909-0.`)
+maximum and minimum cases of IEC 60909-0; for every bus also the peak,
+breaking and steady-state currents of a three-phase fault (maximum case).`)
 	format := c.fs.String("format", "text", "output `format`: text, md, csv or json")
 	if code, done := c.parse(args, 1, "exactly one study file", stdout, stderr); done {
 		return code
@@ -39,7 +40,13 @@ maximum and minimum cases of IEC 60909-0.`)
 	if err != nil {
 		return c.fail(stderr, exitUsage, "%v", err)
 	}
-	if err := write(report.NewFaultTables(l.study, levels, buses), stdout); err != nil {
+	duties, err := l.engine.AllDuties()
+	if err != nil {
+		return c.fail(stderr, exitUsage, "%v", err)
+	}
+	tables := report.NewFaultTables(l.study, levels, buses)
+	tables.AddDuties(l.study, duties)
+	if err := write(tables, stdout); err != nil {
 		return c.fail(stderr, exitFail, "%v", err)
 	}
 	return exitOK

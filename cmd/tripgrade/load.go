@@ -27,7 +27,16 @@ func loadStudy(path string, stderr io.Writer) (l loaded, ok bool) {
 		printLoadError(path, err, stderr)
 		return l, false
 	}
+	printNotes(s, stderr)
 	return prepare(path, s, stderr)
+}
+
+// printNotes tells what loading the study assumed where its input left a
+// choice; the reports repeat it.
+func printNotes(s *coord.Study, stderr io.Writer) {
+	for _, n := range s.Notes {
+		fmt.Fprintf(stderr, "note: %s\n", n)
+	}
 }
 
 // printLoadError prints every problem study.Load found.
@@ -61,6 +70,13 @@ func suggestDevice(s *coord.Study, name string) string {
 func prepare(path string, s *coord.Study, stderr io.Writer) (loaded, bool) {
 	eng, topo, err := coord.Prepare(s)
 	if err != nil {
+		var list study.ErrorList
+		if errors.As(study.Locate(path, err), &list) {
+			for _, e := range list {
+				fmt.Fprintln(stderr, e)
+			}
+			return loaded{}, false
+		}
 		fmt.Fprintf(stderr, "%s: %v\n", path, err)
 		return loaded{}, false
 	}

@@ -20,6 +20,7 @@ const (
 	exitOK    = 0 // the command ran and nothing failed
 	exitFail  = 1 // a check failed (check, demo; diff: a failure new or worse)
 	exitUsage = 2 // bad input: the study file or the command line is wrong
+	exitBug   = 3 // tripgrade itself failed: a bug to report
 )
 
 // command is one subcommand: a short summary for the help text and the
@@ -42,7 +43,26 @@ func commands() map[string]command {
 }
 
 func main() {
-	os.Exit(run(os.Args[1:], os.Stdout, os.Stderr))
+	os.Exit(runGuarded(os.Args[1:], os.Stdout, os.Stderr))
+}
+
+// runGuarded is run with a last guard: a panic, which is a bug of
+// tripgrade and never a verdict on the input, becomes one line and exit
+// status 3 instead of a stack trace (TRIPGRADE_TRACE=1 shows the trace).
+func runGuarded(args []string, stdout, stderr io.Writer) int {
+	return runGuardedWith(func() int { return run(args, stdout, stderr) }, stderr)
+}
+
+func runGuardedWith(f func() int, stderr io.Writer) (code int) {
+	if os.Getenv("TRIPGRADE_TRACE") == "" {
+		defer func() {
+			if r := recover(); r != nil {
+				fmt.Fprintf(stderr, "tripgrade: internal error (a bug, please report it with the input): %v\n", r)
+				code = exitBug
+			}
+		}()
+	}
+	return f()
 }
 
 // run dispatches to a subcommand and returns the process exit code.

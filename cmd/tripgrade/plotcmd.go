@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"fmt"
 	"io"
+	"os"
 	"path/filepath"
 	"strings"
 
@@ -17,16 +18,19 @@ import (
 func runPlot(args []string, stdout, stderr io.Writer) int {
 	c := newCmdLine("plot", `usage: tripgrade plot STUDY.toml --device NAME [--out FILE] [--format png|svg]
 
-Draws the time-current chart of the coordination path through a device: the
-curves of every device from the most downstream one back to the source, the
-fault levels, damage curves, inrush and load, and each pair's grading margin
-at its worst fault, with currents referred to the voltage of the most
-downstream device. A device on several paths (behind parallel incomers, say)
-gets one chart per path, written to FILE-1, FILE-2, ... (before the
-extension); the files written are listed on standard output. Without --out
-the file is the device's name, made safe, with the format's extension, in the
-current folder. Exit 0 when written; 2 when the study, the device or the
-command line is wrong.`)
+Draws the time-current charts of the coordination paths through a device: the
+curves of the devices from the most downstream one back to the source, the
+fault levels, damage curves, inrush and load of the path's own equipment, and
+each pair's grading margin at its worst fault. Phase faults and earth faults
+have charts of their own; a path whose currents would span more than about
+four decades on one axis is split at a transformer, each part referred to its
+own voltage by the transformers' winding ratios. One chart is written to
+FILE; several to FILE-phase and FILE-earth (FILE-phase-1, FILE-phase-2, ...
+when a device lies on several paths or parts), before the extension. The
+files written are listed on standard output. Without --out the file is the
+device's name, made safe, with the format's extension, in the current folder.
+SVG text is drawn as outlines, so it shows the same on any machine. Exit 0
+when written; 2 when the study, the device or the command line is wrong.`)
 	device := c.fs.String("device", "", "draw the paths through the device `NAME` (required)")
 	out := c.fs.String("out", "", "write to `FILE` (default: the device name and the format's extension)")
 	format := c.fs.String("format", "", "image format, png or svg (default: from the extension of --out, else png)")
@@ -62,7 +66,19 @@ command line is wrong.`)
 		return c.fail(stderr, exitUsage, "%s", msg)
 	}
 	charts := a.PathCharts(i)
-	files := plotFiles(*out, *device, f, len(charts))
+	if len(charts) == 0 {
+		return c.fail(stderr, exitUsage, "device %q is on no chart: it has no phase stage, and no fault of its zone drives residual current through its ground stages", *device)
+	}
+	kinds := make([]coord.Quantity, len(charts))
+	for k, ch := range charts {
+		kinds[k] = ch.Kind
+	}
+	files := plotFiles(*out, *device, f, kinds)
+	if dir := filepath.Dir(files[0]); dir != "." {
+		if err := os.MkdirAll(dir, 0o755); err != nil {
+			return c.fail(stderr, exitUsage, "cannot create the folder %s: %v", dir, unwrapPathError(err))
+		}
+	}
 	for k, ch := range charts {
 		if err := writeTo(files[k], func(b *bytes.Buffer) error { return ch.Render(b, f, tcc.Settings{}) }); err != nil {
 			return c.fail(stderr, exitUsage, "%v", err)
@@ -84,21 +100,35 @@ func plotFormat(format, out string) (tcc.Format, error) {
 	return tcc.PNG, nil
 }
 
-// plotFiles names the n files of the charts: out (or the sanitised device
-// name with the format's extension) for one chart, with "-1", "-2", ...
-// before the extension for several.
-func plotFiles(out, device string, f tcc.Format, n int) []string {
+// plotFiles names the files of charts of the given kinds: out (or the
+// sanitised device name with the format's extension) for one chart; for
+// several, "-phase" or "-earth" before the extension, with "-1", "-2", ...
+// after it when a kind has several charts.
+func plotFiles(out, device string, f tcc.Format, kinds []coord.Quantity) []string {
 	if out == "" {
 		out = tcc.Sanitise(device) + "." + f.Ext()
 	}
-	if n == 1 {
+	if len(kinds) == 1 {
 		return []string{out}
 	}
 	ext := filepath.Ext(out)
 	stem := strings.TrimSuffix(out, ext)
-	files := make([]string, n)
-	for k := range files {
-		files[k] = fmt.Sprintf("%s-%d%s", stem, k+1, ext)
+	count := map[coord.Quantity]int{}
+	for _, q := range kinds {
+		count[q]++
+	}
+	seen := map[coord.Quantity]int{}
+	files := make([]string, len(kinds))
+	for k, q := range kinds {
+		name := stem + "-phase"
+		if q == coord.Residual {
+			name = stem + "-earth"
+		}
+		seen[q]++
+		if count[q] > 1 {
+			name += fmt.Sprintf("-%d", seen[q])
+		}
+		files[k] = name + ext
 	}
 	return files
 }

@@ -54,17 +54,17 @@ func TestPlotPathsThroughADevice(t *testing.T) {
 	if code != exitOK || stderr != "" {
 		t.Fatalf("exit %d, stderr %q", code, stderr)
 	}
+	// F1 lies on two paths (through T1 and through T2, the parallel
+	// transformers); each gives a phase-fault chart (the upper part of
+	// the Mill Lane path, split at ML-TX) and an earth-fault chart.
 	files := strings.Fields(stdout)
-	if len(files) == 0 {
-		t.Fatalf("no file listed on stdout")
+	want := []string{"f1-phase-1.png", "f1-earth-1.png", "f1-phase-2.png", "f1-earth-2.png"}
+	if len(files) != len(want) {
+		t.Fatalf("files %v, want %v", files, want)
 	}
 	for k, f := range files {
-		want := out
-		if len(files) > 1 {
-			want = filepath.Join(dir, "f1-"+string(rune('1'+k))+".png")
-		}
-		if f != want {
-			t.Errorf("file %d: %s, want %s", k, f, want)
+		if w := filepath.Join(dir, want[k]); f != w {
+			t.Errorf("file %d: %s, want %s", k, f, w)
 		}
 		checkPNG(t, f)
 	}
@@ -80,6 +80,29 @@ func TestPlotOneChart(t *testing.T) {
 	checkPNG(t, out)
 }
 
+// TestPlotOutFolders: plot --out into a folder that does not exist yet
+// creates it, as check --out does; a path that cannot be written is named
+// as the user gave it, never as the temporary file behind it.
+func TestPlotOutFolders(t *testing.T) {
+	path := studyCopy(t, func(s string) string { return s })
+	dir := t.TempDir()
+	out := filepath.Join(dir, "charts", "2024", "r33.svg")
+	code, stdout, stderr := runArgs("plot", path, "--device", "R33", "--out", out)
+	if code != exitOK || stderr != "" || strings.TrimSpace(stdout) != out {
+		t.Fatalf("exit %d, stdout %q, stderr %q", code, stdout, stderr)
+	}
+	if data, err := os.ReadFile(out); err != nil || !bytes.Contains(data, []byte("<svg")) {
+		t.Errorf("%s: %v", out, err)
+	}
+	blocker := filepath.Join(dir, "a-file")
+	os.WriteFile(blocker, []byte("x"), 0o644)
+	bad := filepath.Join(blocker, "r33.svg")
+	code, _, stderr = runArgs("plot", path, "--device", "R33", "--out", bad)
+	if code != exitUsage || !strings.Contains(stderr, blocker) || strings.Contains(stderr, ".tmp") {
+		t.Errorf("exit %d, stderr %q; want exit 2 naming %s", code, stderr, blocker)
+	}
+}
+
 func TestPlotDefaultOutIsTheSafeDeviceName(t *testing.T) {
 	path := studyCopy(t, func(s string) string { return strings.ReplaceAll(s, `"R11"`, `"../R 11/feeder"`) })
 	t.Chdir(t.TempDir())
@@ -87,9 +110,10 @@ func TestPlotDefaultOutIsTheSafeDeviceName(t *testing.T) {
 	if code != exitOK || stderr != "" {
 		t.Fatalf("exit %d, stderr %q", code, stderr)
 	}
-	const want = "__R_11_feeder.svg"
-	if strings.TrimSpace(stdout) != want {
-		t.Errorf("stdout %q, want %s", stdout, want)
+	// R11 has a phase-fault chart and an earth-fault chart.
+	const want = "__R_11_feeder-phase.svg"
+	if got := strings.Fields(stdout); len(got) != 2 || got[0] != want || got[1] != "__R_11_feeder-earth.svg" {
+		t.Errorf("stdout %q, want %s and its -earth twin", stdout, want)
 	}
 	data, err := os.ReadFile(want)
 	if err != nil || !bytes.Contains(data, []byte("<svg")) {
@@ -99,6 +123,20 @@ func TestPlotDefaultOutIsTheSafeDeviceName(t *testing.T) {
 	code, _, stderr = runArgs("plot", path, "--device", "R33", "--out", "chart.SVG")
 	if data, _ := os.ReadFile("chart.SVG"); code != exitOK || !bytes.Contains(data, []byte("<svg")) {
 		t.Errorf("--out chart.SVG: exit %d, stderr %q, want an SVG", code, stderr)
+	}
+}
+
+// TestPlotDeviceOnNoChart: a relay whose only stage is a ground stage that
+// no residual current reaches (an unearthed system) is on no chart; the
+// command says so rather than write nothing and exit 0.
+func TestPlotDeviceOnNoChart(t *testing.T) {
+	path := studyCopy(t, func(s string) string {
+		s = strings.Replace(s, "z0_z1 = 1", "earthed = false", 1)
+		return strings.Replace(s, "  measures = \"phase\"\n  curve = \"iec-si\"\n  pickup_a = 100", "  measures = \"ground\"\n  curve = \"iec-si\"\n  pickup_a = 100", 1)
+	})
+	code, stdout, stderr := runArgs("plot", path, "--device", "R33", "--out", filepath.Join(t.TempDir(), "r33.png"))
+	if code != exitUsage || stdout != "" || !strings.Contains(stderr, `device "R33" is on no chart`) {
+		t.Errorf("exit %d, stdout %q, stderr %q; want exit %d and a word on why", code, stdout, stderr, exitUsage)
 	}
 }
 
@@ -144,7 +182,7 @@ func TestPlotErrors(t *testing.T) {
 
 func TestPlotHelp(t *testing.T) {
 	code, stdout, _ := runArgs("plot", "--help")
-	if code != exitOK || !strings.Contains(stdout, "FILE-1, FILE-2") || !strings.Contains(stdout, "--device") {
+	if code != exitOK || !strings.Contains(stdout, "FILE-phase and FILE-earth") || !strings.Contains(stdout, "--device") {
 		t.Errorf("exit %d, help %q", code, stdout)
 	}
 	if code, stdout, _ := runArgs("help"); code != exitOK || !strings.Contains(stdout, "plot") {
@@ -159,8 +197,8 @@ func TestCheckOutWritesPlots(t *testing.T) {
 		code  int
 		files []string
 	}{
-		{"passing pair: the path only", "tms = 0.5", exitOK, []string{"path-R11--R33.png"}},
-		{"failing pair: its own chart too", "tms = 0.05", exitFail, []string{"path-R11--R33.png", "pair-R11-under-R33.png"}},
+		{"passing pair: the path's phase and earth charts", "tms = 0.5", exitOK, []string{"path-R11--R33.png", "path-R11-earth.png"}},
+		{"failing pair: its own chart too", "tms = 0.05", exitFail, []string{"path-R11--R33.png", "path-R11-earth.png", "pair-R11-under-R33.png"}},
 	}
 	for _, tc := range cases {
 		t.Run(tc.name, func(t *testing.T) {

@@ -18,14 +18,23 @@ import (
 // files, the tool version, the date and every chart, each failing finding
 // linked to the chart its figure is drawn on.
 func writeReport(l loaded, res *coord.Result, tab *report.Findings, path string, gate string) error {
-	date, err := reportDate()
+	a, err := auditReport(l, res, tab, gate)
 	if err != nil {
 		return err
+	}
+	return writeTo(path, func(b *bytes.Buffer) error { return a.WriteHTML(b) })
+}
+
+// auditReport gathers the audit report of a checked study (writeReport).
+func auditReport(l loaded, res *coord.Result, tab *report.Findings, gate string) (*report.Audit, error) {
+	date, err := reportDate()
+	if err != nil {
+		return nil, err
 	}
 	a := &report.Audit{Findings: tab, Version: toolVersion(), Date: date, Inputs: l.study.Inputs, Gate: gate}
 	atlas, err := newAtlas(l, res)
 	if err != nil {
-		return fmt.Errorf("charts: %w", err)
+		return nil, fmt.Errorf("charts: %w", err)
 	}
 	charts := atlas.Charts()
 	linked := chartOf(atlas, charts, tab.Rows)
@@ -37,7 +46,7 @@ func writeReport(l loaded, res *coord.Result, tab *report.Findings, path string,
 		}
 		var b bytes.Buffer
 		if err := c.Render(&b, tcc.PNG, reportChartSize); err != nil {
-			return fmt.Errorf("chart %s: %w", c.Name, err)
+			return nil, fmt.Errorf("chart %s: %w", c.Name, err)
 		}
 		a.Charts = append(a.Charts, report.Chart{Name: c.Name, Subtitle: c.Subtitle, PNG: b.Bytes()})
 	}
@@ -47,7 +56,7 @@ func writeReport(l loaded, res *coord.Result, tab *report.Findings, path string,
 			a.ChartOf[k] = name
 		}
 	}
-	return writeTo(path, func(b *bytes.Buffer) error { return a.WriteHTML(b) })
+	return a, nil
 }
 
 // maxReportCharts bounds the charts embedded in a report, so that the

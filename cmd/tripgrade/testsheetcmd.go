@@ -69,5 +69,6 @@ func loadSettings(path string, stderr io.Writer) (*coord.Study, bool) {
 		printLoadError(path, err, stderr)
 		return nil, false
 	}
+	printNotes(s, stderr)
 	return s, true
 }

@@ -7,6 +7,7 @@ import (
 	"io"
 	"math"
 	"math/cmplx"
+	"strconv"
 	"strings"
 	"text/tabwriter"
 
@@ -21,6 +22,9 @@ type FaultTables struct {
 	Cases  []string // one line per case, saying what it assumes
 	Points []PointRow
 	Buses  []BusRow
+	// Notes qualify figures of the bus table (buses inside power station
+	// units, the method of the duties).
+	Notes []string
 }
 
 // PointRow is one device's currents.
@@ -50,6 +54,10 @@ type BusRow struct {
 	Bus    string
 	KV     float64
 	Faults [2][4]faults.BusFault
+	// Duty is the three-phase duty in the maximum case (i_p, I_b, I_k); nil
+	// when not computed (see AddDuties).
+	Duty  *faults.Duty
+	index int // the bus's index in the network
 }
 
 // NewFaultTables gathers the figures of a study's fault calculation.
@@ -74,9 +82,42 @@ func NewFaultTables(s *coord.Study, levels []faults.PointSummary, buses []faults
 		})
 	}
 	for _, b := range buses {
-		t.Buses = append(t.Buses, BusRow{Bus: n.Buses[b.Bus].Name, KV: n.Buses[b.Bus].KV, Faults: b.Faults})
+		if n.Buses[b.Bus].Internal {
+			continue // a three-winding transformer's star point: no place for a fault
+		}
+		t.Buses = append(t.Buses, BusRow{Bus: n.Buses[b.Bus].Name, KV: n.Buses[b.Bus].KV, Faults: b.Faults, index: b.Bus})
+	}
+	if units := unitBuses(n); len(units) > 0 {
+		t.Notes = append(t.Notes, fmt.Sprintf("%s inside power station units: the maximum case there uses the unit's K_S or K_SO, not the IEC 60909-0 factors for a fault between generator and unit transformer",
+			strings.Join(units, ", ")))
 	}
 	return t
+}
+
+// unitBuses names the generator buses of power station units.
+func unitBuses(n *faults.Network) []string {
+	var out []string
+	for _, g := range n.Generators {
+		if g.Unit != nil {
+			out = append(out, n.Buses[g.Bus].Name)
+		}
+	}
+	return out
+}
+
+// AddDuties adds each bus's three-phase duty in the maximum case (duties
+// indexed by bus, as faults.Engine.AllDuties returns them) and a note on
+// how they are computed.
+func (t *FaultTables) AddDuties(s *coord.Study, duties []faults.Duty) {
+	for i := range t.Buses {
+		d := duties[t.Buses[i].index]
+		t.Buses[i].Duty = &d
+	}
+	tmin := s.Faults.MinTimeDelayS
+	if tmin == 0 {
+		tmin = 0.02
+	}
+	t.Notes = append(t.Notes, fmt.Sprintf("ip, Ib, Ik: three-phase fault, maximum case (IEC 60909-0): peak ip = κ·√2·I\"k with κ by method C (equivalent frequency 0.4·f); breaking Ib at t_min = %g s, less the decay of generators and motors; steady-state Ik = I\"k without motors (meshed-network rule)", tmin))
 }
 
 // CaseLines describes the two cases of a study in words.
@@ -86,10 +127,17 @@ func CaseLines(s *coord.Study) []string {
 	if f.EndTempC > 0 {
 		heat = fmt.Sprintf("line resistance at %g °C", f.EndTempC)
 	}
+	motors, motorsMin, units := "", "", ""
+	if len(s.Network.Motors) > 0 {
+		motors, motorsMin = "; asynchronous motors in service", "; motors left out"
+	}
+	if len(unitBuses(s.Network)) > 0 {
+		units = ", K_S or K_SO for power station units"
+	}
 	return []string{
-		fmt.Sprintf("maximum case: %s; maximum source strength; generators in service; K_T and K_G corrections; bolted faults", factorText(f, faults.Max)),
-		fmt.Sprintf("minimum case: %s; minimum source strength; only generators marked always_running; %s; %s above 1 kV, %s up to 1 kV; %s",
-			factorText(f, faults.Min), heat, faultZ("earth-fault", f.EarthFaultOhm, f.EarthFaultXOhm, f.EarthFaultXOhmLV),
+		fmt.Sprintf("maximum case: %s; maximum source strength; generators in service%s; K_T and K_G corrections%s; bolted faults", factorText(f, faults.Max), motors, units),
+		fmt.Sprintf("minimum case: %s; minimum source strength; only generators marked always_running%s; %s; %s above 1 kV, %s up to 1 kV; %s",
+			factorText(f, faults.Min), motorsMin, heat, faultZ("earth-fault", f.EarthFaultOhm, f.EarthFaultXOhm, f.EarthFaultXOhmLV),
 			ohms(f.EarthFaultOhmLV, f.EarthFaultXOhmLV), faultZ("phase-fault", f.PhaseFaultOhm, f.PhaseFaultXOhm, 0)),
 	}
 }
@@ -133,12 +181,17 @@ func ohms(r, x float64) string {
 }
 
 // amps formats a current for a table: whole amperes from 100 A up, one
-// decimal below.
+// decimal below, and two significant digits for a current below 0.1 A,
+// which is still a current (a high-resistance earth fault) and must not
+// print as 0.0.
 func amps(a float64) string {
-	if a >= 100 {
-		return fmt.Sprintf("%.0f", a)
+	switch {
+	case a >= 100:
+		return fixed(a, 0)
+	case a >= 0.1 || a == 0:
+		return fixed(a, 1)
 	}
-	return fmt.Sprintf("%.1f", a)
+	return strconv.FormatFloat(a, 'g', 2, 64)
 }
 
 // ampsOrNone formats a current for a table, "none" for no current.
@@ -177,7 +230,12 @@ func (t *FaultTables) WriteText(w io.Writer) error {
 	tw.Flush()
 	fmt.Fprintf(ew, "\nFault currents at each bus (A into the fault; LLG: earth current 3I0)\n")
 	tw = tabwriter.NewWriter(ew, 0, 0, 2, ' ', tabwriter.AlignRight)
-	fmt.Fprintln(tw, "bus\tkV\tLLL max\tLL max\tLG max\tLLG max\tLLL min\tLL min\tLG min\tLLG min\t")
+	duties := len(t.Buses) > 0 && t.Buses[0].Duty != nil
+	head := "bus\tkV\tLLL max\tLL max\tLG max\tLLG max\tLLL min\tLL min\tLG min\tLLG min\t"
+	if duties {
+		head += "ip max\tIb max\tIk max\t"
+	}
+	fmt.Fprintln(tw, head)
 	for _, b := range t.Buses {
 		fmt.Fprintf(tw, "%s\t%g\t", b.Bus, b.KV)
 		for _, cs := range faults.Cases {
@@ -185,9 +243,15 @@ func (t *FaultTables) WriteText(w io.Writer) error {
 				fmt.Fprintf(tw, "%s\t", ampsOrNone(busFigure(b.Faults[cs][k], k)))
 			}
 		}
+		if d := b.Duty; d != nil {
+			fmt.Fprintf(tw, "%s\t%s\t%s\t", amps(d.PeakA), amps(d.BreakingA), amps(d.SteadyA))
+		}
 		fmt.Fprintln(tw)
 	}
 	tw.Flush()
+	for _, n := range t.Notes {
+		fmt.Fprintf(ew, "  %s\n", n)
+	}
 	fmt.Fprintf(ew, "\n%s\n", Caution)
 	return ew.err
 }
@@ -199,6 +263,15 @@ func busFigure(f faults.BusFault, k faults.Kind) float64 {
 		return f.EarthA
 	}
 	return f.PhaseA
+}
+
+// currentCell writes a current for CSV to the milliampere, or with four
+// significant digits below 1 A, so that a tiny current keeps its figure.
+func currentCell(a float64) string {
+	if a != 0 && math.Abs(a) < 1 {
+		return strconv.FormatFloat(a, 'g', 4, 64)
+	}
+	return fixed(a, 3)
 }
 
 // WriteCSV writes the tables as one long CSV table, a row per figure:
@@ -213,19 +286,27 @@ func (t *FaultTables) WriteCSV(w io.Writer) error {
 		}{{"phase_max", p.PhaseMax}, {"phase_min", p.PhaseMin}, {"ground_max", p.GroundMax}, {"ground_min", p.GroundMin}} {
 			val := ""
 			if q.f.Found {
-				val = fmt.Sprintf("%.3f", q.f.A)
+				val = currentCell(q.f.A)
 			}
-			cw.Write([]string{"device", p.Device, fmt.Sprint(p.KV), q.name, q.f.Case, val, q.f.Fault, q.f.Place})
+			cw.Write([]string{"device", textCell(p.Device), fmt.Sprint(p.KV), q.name, q.f.Case, val, q.f.Fault, textCell(q.f.Place)})
 		}
 	}
 	for _, b := range t.Buses {
 		for _, cs := range faults.Cases {
 			for _, k := range faults.Kinds {
 				f := b.Faults[cs][k]
-				cw.Write([]string{"bus", b.Bus, fmt.Sprint(b.KV), strings.ToLower(k.String()) + "_phase", cs.String(), fmt.Sprintf("%.3f", f.PhaseA), k.String(), b.Bus})
+				cw.Write([]string{"bus", textCell(b.Bus), fmt.Sprint(b.KV), strings.ToLower(k.String()) + "_phase", cs.String(), currentCell(f.PhaseA), k.String(), textCell(b.Bus)})
 				if k.Earth() {
-					cw.Write([]string{"bus", b.Bus, fmt.Sprint(b.KV), strings.ToLower(k.String()) + "_earth", cs.String(), fmt.Sprintf("%.3f", f.EarthA), k.String(), b.Bus})
+					cw.Write([]string{"bus", textCell(b.Bus), fmt.Sprint(b.KV), strings.ToLower(k.String()) + "_earth", cs.String(), currentCell(f.EarthA), k.String(), textCell(b.Bus)})
 				}
+			}
+		}
+		if d := b.Duty; d != nil {
+			for _, q := range []struct {
+				name string
+				a    float64
+			}{{"lll_peak", d.PeakA}, {"lll_breaking", d.BreakingA}, {"lll_steady", d.SteadyA}} {
+				cw.Write([]string{"bus", b.Bus, fmt.Sprint(b.KV), q.name, "max", fmt.Sprintf("%.3f", q.a), "LLL", b.Bus})
 			}
 		}
 	}
@@ -349,6 +430,15 @@ type jsonBusCase struct {
 	LLGEarthA float64 `json:"llg_earth_a"`
 }
 
+// jsonDuty is a bus's three-phase duty in the maximum case.
+type jsonDuty struct {
+	Kappa     float64 `json:"kappa"`
+	RX        float64 `json:"r_x"`
+	PeakA     float64 `json:"peak_a"`
+	BreakingA float64 `json:"breaking_a"`
+	SteadyA   float64 `json:"steady_a"`
+}
+
 // WriteJSON writes the tables as one JSON document.
 func (t *FaultTables) WriteJSON(w io.Writer) error {
 	type point struct {
@@ -363,18 +453,20 @@ func (t *FaultTables) WriteJSON(w io.Writer) error {
 		GroundMin jsonFigure `json:"ground_min"`
 	}
 	type bus struct {
-		Bus string      `json:"bus"`
-		KV  float64     `json:"kv"`
-		Max jsonBusCase `json:"max"`
-		Min jsonBusCase `json:"min"`
+		Bus  string      `json:"bus"`
+		KV   float64     `json:"kv"`
+		Max  jsonBusCase `json:"max"`
+		Min  jsonBusCase `json:"min"`
+		Duty *jsonDuty   `json:"duty,omitempty"`
 	}
 	doc := struct {
 		Study   string   `json:"study"`
 		Caution string   `json:"caution"`
 		Cases   []string `json:"cases"`
+		Notes   []string `json:"notes,omitempty"`
 		Devices []point  `json:"devices"`
 		Buses   []bus    `json:"buses"`
-	}{Study: t.Study, Caution: Caution, Cases: t.Cases, Devices: []point{}, Buses: []bus{}}
+	}{Study: t.Study, Caution: Caution, Cases: t.Cases, Notes: t.Notes, Devices: []point{}, Buses: []bus{}}
 	for _, p := range t.Points {
 		doc.Devices = append(doc.Devices, point{p.Device, p.Kind, p.Branch, p.At, p.KV,
 			p.PhaseMax.json(), p.PhaseMin.json(), p.GroundMax.json(), p.GroundMin.json()})
@@ -383,7 +475,11 @@ func (t *FaultTables) WriteJSON(w io.Writer) error {
 		return jsonBusCase{f[faults.LLL].PhaseA, f[faults.LL].PhaseA, f[faults.LG].PhaseA, f[faults.LLG].PhaseA, f[faults.LLG].EarthA}
 	}
 	for _, b := range t.Buses {
-		doc.Buses = append(doc.Buses, bus{b.Bus, b.KV, bc(b.Faults[faults.Max]), bc(b.Faults[faults.Min])})
+		jb := bus{Bus: b.Bus, KV: b.KV, Max: bc(b.Faults[faults.Max]), Min: bc(b.Faults[faults.Min])}
+		if d := b.Duty; d != nil {
+			jb.Duty = &jsonDuty{Kappa: d.Kappa, RX: d.RX, PeakA: d.PeakA, BreakingA: d.BreakingA, SteadyA: d.SteadyA}
+		}
+		doc.Buses = append(doc.Buses, jb)
 	}
 	enc := json.NewEncoder(w)
 	enc.SetIndent("", "  ")

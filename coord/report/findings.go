@@ -3,6 +3,7 @@ package report
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 
 	"tripgrade/coord"
@@ -13,6 +14,9 @@ type Findings struct {
 	Study    string
 	Cases    []string
 	Criteria []string
+	// Notes are what loading the study assumed where its input left a
+	// choice (coord.Study.Notes).
+	Notes    []string
 	Pairs    []PairRow
 	Excluded []PairRow
 	Rows     []Row
@@ -44,7 +48,7 @@ type Row struct {
 
 // NewFindings formats a check's result.
 func NewFindings(s *coord.Study, r *coord.Result) *Findings {
-	f := &Findings{Study: s.Name, Cases: CaseLines(s), Criteria: append(criteriaLines(s.Criteria), r.Notes...)}
+	f := &Findings{Study: s.Name, Cases: CaseLines(s), Criteria: append(criteriaLines(s.Criteria), r.Notes...), Notes: s.Notes}
 	name := func(i int) string { return s.Devices[i].Name }
 	for _, p := range r.Pairs {
 		f.Pairs = append(f.Pairs, PairRow{name(p.Upstream), name(p.Downstream), p.Manual})
@@ -118,27 +122,36 @@ func seconds(s float64) string {
 	if math.IsInf(s, 1) || math.IsNaN(s) {
 		return "does not operate"
 	}
-	return fmt.Sprintf("%.3f s", s)
+	return fixed(s, 3) + " s"
 }
 
 // quantity formats a figure with its unit, with a typographic minus like
 // the margins.
 func quantity(v float64, unit string) string {
 	var s string
-	switch unit {
-	case "s":
-		s = fmt.Sprintf("%.3f s", v)
-	case "A":
+	switch {
+	case math.IsNaN(v) || math.IsInf(v, 0):
+		s = strconv.FormatFloat(v, 'g', -1, 64) + " " + unit
+	case unit == "s":
+		s = fixed(v, 3) + " s"
+	case unit == "A":
 		s = amps(v) + " A"
-	case "×":
-		s = fmt.Sprintf("%.2f ×", v)
+	case unit == "×":
+		s = fixed(v, 2) + " ×"
 	default:
-		s = fmt.Sprintf("%.2f", v)
+		s = fixed(v, 2)
 	}
-	return strings.Replace(s, "-", "−", 1)
+	s = strings.TrimSpace(s)
+	if strings.HasPrefix(s, "-") {
+		s = "−" + s[1:]
+	}
+	return s
 }
 
 func signed(v float64, unit string) string {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return quantity(v, unit)
+	}
 	q := quantity(math.Abs(v), unit)
 	if v < 0 {
 		return "−" + q

@@ -100,6 +100,10 @@ var auditTemplate = template.Must(template.New("audit").Funcs(template.FuncMap{
 <ul>{{range .F.Cases}}<li>{{.}}</li>{{end}}</ul>
 <h3>Criteria</h3>
 <ul>{{range .F.Criteria}}<li>{{.}}</li>{{end}}</ul>
+{{- with .F.Notes}}
+<h3>Assumed in reading the input</h3>
+<ul>{{range .}}<li>{{.}}</li>{{end}}</ul>
+{{- end}}
 <h3>Backup pairs (upstream → downstream)</h3>
 <ul>
 {{- range .F.Pairs}}<li>{{.Upstream}} → {{.Downstream}}{{if .Manual}} (added by [[pair]]){{end}}</li>{{else}}<li>none</li>{{end}}

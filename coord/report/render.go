@@ -19,6 +19,9 @@ func (f *Findings) WriteText(w io.Writer) error {
 	for _, c := range append(append(append([]string{}, f.Cases...), f.Criteria...), f.Scope.lines()...) {
 		fmt.Fprintf(ew, "  %s\n", wrap(c, TextWidth-2, "      "))
 	}
+	for _, n := range f.Notes {
+		fmt.Fprintf(ew, "  note: %s\n", n)
+	}
 	fmt.Fprintf(ew, "\nBackup pairs (upstream → downstream, from the topology and the fault-current direction):\n")
 	for _, p := range f.Pairs {
 		fmt.Fprintf(ew, "  %s\n", pairText(p))
@@ -51,6 +54,9 @@ func (f *Findings) WriteMarkdown(w io.Writer) error {
 	fmt.Fprintf(ew, "# Coordination check: %s\n\n> %s\n\n", md(f.Study), Caution)
 	for _, c := range append(append(append([]string{}, f.Cases...), f.Criteria...), f.Scope.lines()...) {
 		fmt.Fprintf(ew, "- %s\n", md(c))
+	}
+	for _, n := range f.Notes {
+		fmt.Fprintf(ew, "- note: %s\n", md(n))
 	}
 	fmt.Fprintf(ew, "\n**%s**\n\n## Backup pairs\n\n", f.Verdict())
 	for _, p := range f.Pairs {
@@ -112,28 +118,33 @@ func quantityName(a float64, q coord.Quantity) string {
 	return "phase"
 }
 
-// WriteCSV writes one row per finding.
+// WriteCSV writes one row per finding. Text cells a spreadsheet would
+// run as a formula are neutralised (textCell); a figure that is not a
+// finite number is written as NaN or ±Inf; the times of the checks that
+// time their devices are written whenever the finding has a fault, zero
+// included.
 func (f *Findings) WriteCSV(w io.Writer) error {
 	cw := csv.NewWriter(w)
 	cw.Write(csvHeader)
 	num := func(v float64, ok bool) string {
-		if !ok || math.IsNaN(v) || math.IsInf(v, 0) {
+		if !ok {
 			return ""
 		}
-		return fmt.Sprintf("%.6g", v)
+		return numberCell(v)
 	}
 	for _, r := range f.Rows {
 		x := r.Finding
-		rec := []string{x.Check.Slug(), x.Verdict.String(), x.Device, x.Other, x.Stage,
+		rec := []string{x.Check.Slug(), x.Verdict.String(), textCell(x.Device), textCell(x.Other), textCell(x.Stage),
 			num(x.Measured, x.Valid), num(x.Required, x.Valid), num(x.Margin, x.Valid), x.Unit, x.Relation}
 		if ft := x.Fault; ft != nil {
-			rec = append(rec, ft.Kind.String(), ft.Case.String(), ft.Place, fmt.Sprint(ft.Interpolated), num(ft.Scale, ft.Interpolated),
+			timed := x.Check.Timed()
+			rec = append(rec, ft.Kind.String(), ft.Case.String(), textCell(ft.Place), fmt.Sprint(ft.Interpolated), num(ft.Scale, ft.Interpolated),
 				num(ft.DeviceA, ft.DeviceA != 0), quantityName(ft.DeviceA, ft.DeviceQty), num(ft.OtherA, ft.OtherA != 0), quantityName(ft.OtherA, ft.OtherQty),
-				num(ft.DeviceS, ft.DeviceS != 0), num(ft.OtherS, ft.OtherS != 0))
+				num(ft.DeviceS, timed), num(ft.OtherS, timed))
 		} else {
 			rec = append(rec, "", "", "", "", "", "", "", "", "", "", "")
 		}
-		cw.Write(append(rec, x.Note))
+		cw.Write(append(rec, textCell(x.Note)))
 	}
 	cw.Flush()
 	return cw.Error()
@@ -142,43 +153,37 @@ func (f *Findings) WriteCSV(w io.Writer) error {
 // WriteJSON writes the findings as one JSON document.
 func (f *Findings) WriteJSON(w io.Writer) error {
 	type fault struct {
-		Kind         string   `json:"kind"`
-		Case         string   `json:"case"`
-		Place        string   `json:"place"`
-		Interpolated bool     `json:"interpolated"`
-		Scale        *float64 `json:"sweep_scale,omitempty"`
-		DeviceA      *float64 `json:"device_current_a,omitempty"`
-		DeviceQty    string   `json:"device_quantity,omitempty"`
-		OtherA       *float64 `json:"other_current_a,omitempty"`
-		OtherQty     string   `json:"other_quantity,omitempty"`
-		DeviceS      *float64 `json:"device_time_s,omitempty"`
-		OtherS       *float64 `json:"other_time_s,omitempty"`
+		Kind         string      `json:"kind"`
+		Case         string      `json:"case"`
+		Place        string      `json:"place"`
+		Interpolated bool        `json:"interpolated"`
+		Scale        *jsonNumber `json:"sweep_scale,omitempty"`
+		DeviceA      *jsonNumber `json:"device_current_a,omitempty"`
+		DeviceQty    string      `json:"device_quantity,omitempty"`
+		OtherA       *jsonNumber `json:"other_current_a,omitempty"`
+		OtherQty     string      `json:"other_quantity,omitempty"`
+		DeviceS      *jsonNumber `json:"device_time_s,omitempty"`
+		OtherS       *jsonNumber `json:"other_time_s,omitempty"`
 	}
 	type finding struct {
-		Check    string    `json:"check"`
-		Verdict  string    `json:"verdict"`
-		Device   string    `json:"device"`
-		Other    string    `json:"other,omitempty"`
-		Stage    string    `json:"stage,omitempty"`
-		Measured *float64  `json:"measured,omitempty"`
-		Required *float64  `json:"required,omitempty"`
-		Margin   *float64  `json:"margin,omitempty"`
-		Unit     string    `json:"unit,omitempty"`
-		Relation string    `json:"relation,omitempty"`
-		Fault    *fault    `json:"fault,omitempty"`
-		Note     string    `json:"note,omitempty"`
-		Accepted *accepted `json:"accepted,omitempty"`
+		Check    string      `json:"check"`
+		Verdict  string      `json:"verdict"`
+		Device   string      `json:"device"`
+		Other    string      `json:"other,omitempty"`
+		Stage    string      `json:"stage,omitempty"`
+		Measured *jsonNumber `json:"measured,omitempty"`
+		Required *jsonNumber `json:"required,omitempty"`
+		Margin   *jsonNumber `json:"margin,omitempty"`
+		Unit     string      `json:"unit,omitempty"`
+		Relation string      `json:"relation,omitempty"`
+		Fault    *fault      `json:"fault,omitempty"`
+		Note     string      `json:"note,omitempty"`
+		Accepted *accepted   `json:"accepted,omitempty"`
 	}
 	type pair struct {
 		Upstream   string `json:"upstream"`
 		Downstream string `json:"downstream"`
 		Manual     bool   `json:"added_by_study"`
-	}
-	ptr := func(v float64) *float64 {
-		if math.IsNaN(v) || math.IsInf(v, 0) {
-			return nil
-		}
-		return &v
 	}
 	doc := struct {
 		Schema   int        `json:"schema_version"`
@@ -186,6 +191,7 @@ func (f *Findings) WriteJSON(w io.Writer) error {
 		Caution  string     `json:"caution"`
 		Cases    []string   `json:"cases"`
 		Criteria []string   `json:"criteria"`
+		Notes    []string   `json:"notes,omitempty"`
 		Pairs    []pair     `json:"pairs"`
 		Excluded []pair     `json:"excluded_pairs"`
 		Findings []finding  `json:"findings"`
@@ -199,7 +205,8 @@ func (f *Findings) WriteJSON(w io.Writer) error {
 		} `json:"summary"`
 		Scope    *jsonScope      `json:"scope,omitempty"`
 		Baseline *jsonComparison `json:"baseline,omitempty"`
-	}{Schema: SchemaVersion, Study: f.Study, Accepts: []accepted{}, Caution: Caution, Cases: f.Cases, Criteria: f.Criteria, Pairs: []pair{}, Excluded: []pair{}, Findings: []finding{}}
+	}{Schema: SchemaVersion, Study: f.Study, Accepts: []accepted{}, Caution: Caution, Cases: f.Cases, Criteria: f.Criteria, Notes: f.Notes,
+		Pairs: []pair{}, Excluded: []pair{}, Findings: []finding{}}
 	for _, p := range f.Pairs {
 		doc.Pairs = append(doc.Pairs, pair{p.Upstream, p.Downstream, p.Manual})
 	}
@@ -211,7 +218,7 @@ func (f *Findings) WriteJSON(w io.Writer) error {
 		j := finding{Check: x.Check.Slug(), Verdict: x.Verdict.String(), Device: x.Device, Other: x.Other, Stage: x.Stage,
 			Unit: x.Unit, Relation: x.Relation, Note: x.Note}
 		if x.Valid {
-			j.Measured, j.Required, j.Margin = ptr(x.Measured), ptr(x.Required), ptr(x.Margin)
+			j.Measured, j.Required, j.Margin = num(x.Measured), num(x.Required), num(x.Margin)
 		}
 		if a := x.Acceptance; a != nil {
 			j.Accepted = &accepted{Reason: a.Reason, By: a.By, Date: a.Date, Was: a.Was.String()}
@@ -220,21 +227,18 @@ func (f *Findings) WriteJSON(w io.Writer) error {
 			jf := &fault{Kind: ft.Kind.String(), Case: ft.Case.String(), Place: ft.Place, Interpolated: ft.Interpolated,
 				DeviceQty: quantityName(ft.DeviceA, ft.DeviceQty), OtherQty: quantityName(ft.OtherA, ft.OtherQty)}
 			if ft.Interpolated {
-				jf.Scale = ptr(ft.Scale)
+				jf.Scale = num(ft.Scale)
 			}
 			// A current of 0 is "none": the device carries no current of
 			// that quantity (the engine cuts rounding residue to exact 0).
 			if ft.DeviceA != 0 {
-				jf.DeviceA = ptr(ft.DeviceA)
+				jf.DeviceA = num(ft.DeviceA)
 			}
 			if ft.OtherA != 0 {
-				jf.OtherA = ptr(ft.OtherA)
+				jf.OtherA = num(ft.OtherA)
 			}
-			if ft.DeviceS != 0 {
-				jf.DeviceS = ptr(ft.DeviceS)
-			}
-			if ft.OtherS != 0 {
-				jf.OtherS = ptr(ft.OtherS)
+			if x.Check.Timed() {
+				jf.DeviceS, jf.OtherS = num(ft.DeviceS), num(ft.OtherS)
 			}
 			j.Fault = jf
 		}

@@ -15,7 +15,10 @@ import (
 // with the expected operating time and the band the declared accuracy
 // allows.
 type TestSheet struct {
-	Study  string
+	Study string
+	// Notes are what loading the study assumed where its input left a
+	// choice (coord.Study.Notes): a settings table's decimal mark, say.
+	Notes  []string
 	Relays []SheetRelay
 }
 
@@ -42,7 +45,7 @@ var sheetNotes = []string{
 
 // NewTestSheet formats the injections of a study.
 func NewTestSheet(s *coord.Study, ins []coord.StageInjections) *TestSheet {
-	t := &TestSheet{Study: s.Name}
+	t := &TestSheet{Study: s.Name, Notes: s.Notes}
 	for _, si := range ins {
 		d := s.Devices[si.Device]
 		if len(t.Relays) == 0 || t.Relays[len(t.Relays)-1].Name != d.Name {
@@ -113,6 +116,9 @@ func (t *TestSheet) WriteText(w io.Writer) error {
 	for _, n := range sheetNotes {
 		fmt.Fprintf(ew, "  %s\n", wrap(n, TextWidth-2, "    "))
 	}
+	for _, n := range t.Notes {
+		fmt.Fprintf(ew, "  %s\n", wrap("note: "+n, TextWidth-2, "    "))
+	}
 	for _, r := range t.Relays {
 		fmt.Fprintf(ew, "\nRELAY %s  (%s; %s)\n", r.Name, r.CT, r.Accuracy)
 		tt := &textTable{head: []string{"stage", "measures", "characteristic", "setting", "× setting", "inject", "(primary)", "expected", "band", "note"}}
@@ -134,6 +140,9 @@ func (t *TestSheet) WriteMarkdown(w io.Writer) error {
 	fmt.Fprintf(ew, "# Test sheet: %s\n\n> %s\n\n", md(t.Study), Caution)
 	for _, n := range sheetNotes {
 		fmt.Fprintf(ew, "- %s\n", md(n))
+	}
+	for _, n := range t.Notes {
+		fmt.Fprintf(ew, "- note: %s\n", md(n))
 	}
 	fmt.Fprintln(ew, "\n| relay | CT | stage | measures | characteristic | setting (secondary) | setting (primary) | × setting | inject (secondary) | inject (primary) | expected | band | note |")
 	fmt.Fprintln(ew, "| --- | --- | --- | --- | --- | ---: | ---: | ---: | ---: | ---: | ---: | ---: | --- |")
@@ -161,15 +170,15 @@ func (t *TestSheet) WriteCSV(w io.Writer) error {
 		if !ok {
 			return ""
 		}
-		return fmt.Sprintf("%.6g", v)
+		return numberCell(v)
 	}
 	for _, r := range t.Relays {
 		for _, x := range r.Rows {
 			p := x.Point
 			op := p.Status == curves.Operates
-			cw.Write([]string{r.Name, x.Stage, x.Measures, x.Characteristic, num(x.PickupA, true), num(x.PickupSecondaryA, true),
+			cw.Write([]string{textCell(r.Name), textCell(x.Stage), x.Measures, textCell(x.Characteristic), num(x.PickupA, true), num(x.PickupSecondaryA, true),
 				num(p.Multiple, true), num(p.PrimaryA, true), num(p.SecondaryA, true), num(p.TimeS, op),
-				num(p.EarlyS, op && p.Banded), num(p.LateS, op && p.Banded), x.Note})
+				num(p.EarlyS, op && p.Banded), num(p.LateS, op && p.Banded), textCell(x.Note)})
 		}
 	}
 	cw.Flush()

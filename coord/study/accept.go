@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"strings"
 	"time"
-	"unicode"
 
 	"tripgrade/coord"
 )
@@ -36,23 +35,26 @@ func (b *builder) buildAccepts() {
 	for i, r := range b.raw.Accepts {
 		path := fmt.Sprintf("accept[%d]", i)
 		w := where{path: path, element: fmt.Sprintf("accept %d", i+1)}
-		before := len(b.errs)
+		before := b.failures
 		switch {
 		case r.Check == "":
-			b.fail(w, "check", "check is missing (one of %s)", checkList())
+			b.fail(w, "check", "check is missing (one of %s)", verbatim(checkList()))
 		case !knownCheck(r.Check):
-			b.fail(w, "check", "check = %q: no such check (one of %s)%s", r.Check, checkList(), suggest(r.Check, checks))
+			b.fail(w, "check", "check = %q: no such check (one of %s)%s", r.Check, verbatim(checkList()), suggest(r.Check, checks))
 		}
 		switch _, found := b.deviceSeen[r.Device]; {
 		case r.Device == "":
 			b.fail(w, "device", "device is missing (the relay or fuse the finding is about; of a pair, the downstream one)")
+		case !found && b.unread("relay", "fuse"):
+			b.failures++ // the device may be in the table that could not be read
 		case !found:
 			b.fail(w, "device", "device = %q: no relay or fuse of that name%s", r.Device, b.closest(r.Device, b.deviceSeen))
 		}
 		if r.Other != "" {
 			_, dev := b.deviceSeen[r.Other]
 			_, br := b.branch[r.Other]
-			if !dev && !br {
+			_, three := b.unit3[r.Other]
+			if !dev && !br && !three && !b.unread("relay", "fuse", "line", "transformer", "transformer3") {
 				b.fail(w, "other", "other = %q: no relay, fuse, line or transformer of that name%s", r.Other, b.closest(r.Other, b.deviceSeen))
 			}
 		}
@@ -61,21 +63,21 @@ func (b *builder) buildAccepts() {
 			{"by", r.By, "who accepted it"},
 			{"date", r.Date, "when, as YYYY-MM-DD"},
 		} {
-			if strings.TrimSpace(k.val) == "" && b.lines.key(path, k.key) == b.lines.table(path) {
+			// A value of the wrong type was reported already (fail
+			// says nothing more of a refused key); a blank one is missing.
+			if strings.TrimSpace(k.val) == "" {
 				b.fail(w, k.key, "%s is missing (%s): an acceptance must say why, who and when", k.key, k.what)
 			}
 		}
 		for _, k := range []struct{ key, val string }{{"other", r.Other}, {"stage", r.Stage}, {"reason", r.Reason}, {"by", r.By}, {"date", r.Date}} {
-			if strings.IndexFunc(k.val, unicode.IsControl) >= 0 {
-				b.fail(w, k.key, "%s contains a control character (a tab or line break?)", k.key)
-			}
+			b.readable(w, k.key, k.val) // reports print them
 		}
 		if strings.TrimSpace(r.Date) != "" {
 			if _, err := time.Parse(acceptDate, r.Date); err != nil {
 				b.fail(w, "date", "date = %q: want a date as YYYY-MM-DD", r.Date)
 			}
 		}
-		if len(b.errs) > before {
+		if b.failures > before {
 			continue
 		}
 		b.st.Accepts = append(b.st.Accepts, coord.Acceptance{

@@ -1,7 +1,6 @@
 package study
 
 import (
-	"fmt"
 	"math"
 
 	"tripgrade/coord"
@@ -11,7 +10,7 @@ import (
 
 func (b *builder) buildLines() {
 	for i, r := range b.raw.Lines {
-		w := where{path: fmt.Sprintf("line[%d]", i), element: fmt.Sprintf("line %q", r.Name)}
+		w := at("line", i, r.Name)
 		ok := b.branchName(w, r.Name)
 		from, okF := b.busRef(w, "from", r.From)
 		to, okT := b.busRef(w, "to", r.To)
@@ -81,7 +80,7 @@ func (b *builder) branchName(w where, name string) bool {
 
 func (b *builder) buildTransformers() {
 	for i, r := range b.raw.Transformer {
-		w := where{path: fmt.Sprintf("transformer[%d]", i), element: fmt.Sprintf("transformer %q", r.Name)}
+		w := at("transformer", i, r.Name)
 		ok := b.branchName(w, r.Name)
 		from, okF := b.busRef(w, "from", r.From)
 		to, okT := b.busRef(w, "to", r.To)
@@ -106,7 +105,7 @@ func (b *builder) buildTransformers() {
 		if t.ZPct > 50 {
 			b.fail(w, "z_pct", "z_pct = %g %% is not a plausible short-circuit impedance", t.ZPct)
 		}
-		t.XR = b.positive(w, "x_r", r.XR)
+		t.XR = b.transformerXR(w, r, t.ZPct)
 		t.Z0Pct = b.optional(w, "z0_pct", r.Z0Pct, 0, 0, 100, true)
 		t.X0R0 = b.optional(w, "x0_r0", r.X0R0, 0, 0, math.Inf(1), true)
 		t.NotCorrected = boolOr(r.NoCorrection, false)
@@ -193,3 +192,32 @@ func (b *builder) transformerEquipment(w where, r rawTransformer, t faults.Trans
 
 // ratedA is the rated current of a three-phase winding.
 func ratedA(mva, kv float64) float64 { return mva * 1000 / (math.Sqrt(3) * kv) }
+
+// transformerXR reads a transformer's X/R, or derives it from its
+// resistive part r_pct (u_Rr, from the load losses): X/R = √(z² − r²)/r.
+func (b *builder) transformerXR(w where, r rawTransformer, zPct float64) float64 {
+	if r.RPct == nil {
+		if r.XR == nil {
+			b.fail(w, "x_r", "x_r is missing (or give r_pct, the resistive part of z_pct)")
+			return math.NaN()
+		}
+		return b.positive(w, "x_r", r.XR)
+	}
+	if r.XR != nil {
+		b.fail(w, "r_pct", "give x_r or r_pct, not both")
+		return math.NaN()
+	}
+	rPct := b.positive(w, "r_pct", r.RPct)
+	if !(rPct < zPct) {
+		if rPct > 0 && zPct > 0 {
+			b.fail(w, "r_pct", "r_pct = %g %% must be less than z_pct = %g %%", rPct, zPct)
+		}
+		return math.NaN()
+	}
+	xr := math.Sqrt(zPct*zPct-rPct*rPct) / rPct
+	if xr > xrLimit.max {
+		b.fail(w, "r_pct", "r_pct = %g %% gives X/R = %s, beyond any real transformer (at most %s: %s)", rPct, verbatim(gText(xr)), verbatim(gText(xrLimit.max)), verbatim(xrLimit.why))
+		return math.NaN()
+	}
+	return xr
+}

@@ -5,7 +5,6 @@ import (
 	"math"
 	"strconv"
 	"strings"
-	"unicode"
 
 	"tripgrade/coord"
 	"tripgrade/curves"
@@ -18,9 +17,26 @@ func (b *builder) point(w where, branch, at string) (faults.Point, bool) {
 		b.fail(w, "branch", "branch is missing (the line or transformer the device looks into)")
 		return faults.Point{}, false
 	}
+	if k, ok := b.unit3[branch]; ok {
+		return b.point3(w, branch, at, k)
+	}
 	k, ok := b.branch[branch]
 	if !ok {
-		b.fail(w, "branch", "branch = %q: no line or transformer of that name%s", branch, b.closest(branch, b.branch))
+		if b.unread("line", "transformer", "transformer3") {
+			return faults.Point{}, false // the branch may be in the table that could not be read
+		}
+		hint := ""
+		if b.suggestions < maxSuggestions { // spare the copy when no suggestion is made
+			known := make(map[string]int, len(b.branch)+len(b.unit3))
+			for n, v := range b.branch {
+				known[n] = v
+			}
+			for n, v := range b.unit3 {
+				known[n] = v
+			}
+			hint = b.closest(branch, known)
+		}
+		b.fail(w, "branch", "branch = %q: no line or transformer of that name%s", branch, hint)
 		return faults.Point{}, false
 	}
 	if b.branchBad[k] {
@@ -43,8 +59,7 @@ func (b *builder) point(w where, branch, at string) (faults.Point, bool) {
 
 func (b *builder) buildRelays() {
 	for i, r := range b.raw.Relays {
-		path := fmt.Sprintf("relay[%d]", i)
-		w := where{path: path, element: fmt.Sprintf("relay %q", r.Name)}
+		w := at("relay", i, r.Name)
 		b.named(w, r.Name, b.deviceSeen, "relay or fuse")
 		d := coord.Device{Name: r.Name, Kind: coord.Relay}
 		d.Point, _ = b.point(w, r.Branch, r.At)
@@ -64,7 +79,7 @@ func (b *builder) buildRelays() {
 		d.MarginS = b.optional(w, "margin_s", r.MarginS, 0, 0, 5, true)
 		d.EarthFaultsBy = b.declaration(w, r.EarthFaultsBy)
 		for j, rs := range r.Stages {
-			sw := where{path: fmt.Sprintf("%s.stage[%d]", path, j), element: fmt.Sprintf("relay %q stage %d", r.Name, j+1)}
+			sw := where{path: w.path + ".stage[" + strconv.Itoa(j) + "]", element: w.element + " stage " + strconv.Itoa(j+1)}
 			if st, ok := b.stage(sw, rs, d.CT); ok {
 				d.Stages = append(d.Stages, st)
 			}
@@ -81,8 +96,7 @@ func (b *builder) declaration(w where, text string) string {
 	if text != "" && t == "" {
 		b.fail(w, "earth_faults_cleared_by", "earth_faults_cleared_by must name the protection that clears those earth faults (e.g. \"standby earth fault on the T1 neutral\")")
 	}
-	if strings.IndexFunc(t, unicode.IsControl) >= 0 {
-		b.fail(w, "earth_faults_cleared_by", "earth_faults_cleared_by contains a control character (a tab or line break?)")
+	if !b.readable(w, "earth_faults_cleared_by", t) {
 		return ""
 	}
 	return t
@@ -96,6 +110,7 @@ type relayOrigin struct {
 	tomlStages int
 	csvStages  int
 	raw        rawRelay
+	csvRows    int // rows of the settings table naming the relay, read or not
 }
 
 func (b *builder) ct(w where, r rawRelay) coord.CT {
@@ -132,8 +147,11 @@ func parseCClass(s string) (float64, error) {
 
 // stage converts one stage's settings.
 func (b *builder) stage(w where, r rawStage, ct coord.CT) (coord.Stage, bool) {
-	before := len(b.errs)
+	before := b.failures
 	st := coord.Stage{Label: r.Label, Direction: b.direction(w, r.Direction)}
+	if r.Label != "" {
+		b.readable(w, "label", r.Label)
+	}
 	switch r.Measures {
 	case "phase":
 		st.Measures = coord.Phase
@@ -152,6 +170,14 @@ func (b *builder) stage(w where, r rawStage, ct coord.CT) (coord.Stage, bool) {
 	}
 	st.Shape = shape
 	ratio := ct.PrimaryA / ct.SecondaryA
+	if !(ratio > 0) || math.IsInf(ratio, 0) {
+		// The CT is reported wrong; secondary amperes cannot be converted,
+		// and what follows from that is not reported again.
+		if r.PickupSecondaryA != nil || r.PickupRangeSecA != nil {
+			b.failures++
+			return st, false
+		}
+	}
 	switch {
 	case r.PickupA != nil && r.PickupSecondaryA != nil:
 		b.fail(w, "pickup_a", "give pickup_a (primary) or pickup_secondary_a, not both")
@@ -170,23 +196,23 @@ func (b *builder) stage(w where, r rawStage, ct coord.CT) (coord.Stage, bool) {
 		st.PickupRange = b.rangeOf(w, "pickup_range_secondary_a", r.PickupRangeSecA, ratio)
 	}
 	st.MultiplierRange = b.rangeOf(w, "multiplier_range", r.MultiplierRange, 1)
-	if len(b.errs) > before || shape == 0 {
+	if b.failures > before || shape == 0 {
 		return st, false
 	}
 	st.Curve, st.Multiplier, st.DelayS = b.characteristic(w, r, shape, st.PickupA)
 	if st.Label == "" {
 		st.Label = defaultLabel(st)
 	}
-	return st, len(b.errs) == before
+	return st, b.failures == before
 }
 
 // characteristic checks which keys the shape takes, then builds the
 // stage's curve from them.
 func (b *builder) characteristic(w where, r rawStage, shape curves.Shape, pickupA float64) (curves.Characteristic, float64, float64) {
 	set := curves.StageSettings{Shape: shape, PickupA: pickupA}
-	before := len(b.errs)
+	before := b.failures
 	if !shape.Dependent() {
-		b.notFor(w, shape, map[string]bool{"tms": r.TMS != nil, "td": r.TD != nil, "max_multiple": r.MaxMultiple != nil, "min_time_s": r.MinTimeS != nil})
+		b.notFor(w, shape, given{"tms", r.TMS}, given{"td", r.TD}, given{"max_multiple", r.MaxMultiple}, given{"min_time_s", r.MinTimeS})
 		b.noConstants(w, r, shape)
 		if shape == curves.ShapeDefinite && r.DelayS == nil {
 			b.fail(w, "delay_s", "a definite-time stage needs delay_s")
@@ -214,7 +240,7 @@ func (b *builder) characteristic(w where, r rawStage, shape curves.Shape, pickup
 		set.MaxMultiple = b.optional(w, "max_multiple", r.MaxMultiple, 0, 1, 1000, true)
 		set.MinTimeS = b.optional(w, "min_time_s", r.MinTimeS, 0, 0, 100, false)
 	}
-	if len(b.errs) > before {
+	if b.failures > before {
 		return nil, 0, 0
 	}
 	c, err := curves.NewStage(set)
@@ -249,15 +275,21 @@ func (b *builder) userLaw(w where, r rawStage, shape curves.Shape) curves.Law {
 }
 
 func (b *builder) noConstants(w where, r rawStage, shape curves.Shape) {
-	b.notFor(w, shape, map[string]bool{"k": r.K != nil, "alpha": r.Alpha != nil, "c": r.C != nil,
-		"a": r.A != nil, "b": r.B != nil, "p": r.P != nil, "tr": r.TR != nil})
+	b.notFor(w, shape, given{"k", r.K}, given{"alpha", r.Alpha}, given{"c", r.C},
+		given{"a", r.A}, given{"b", r.B}, given{"p", r.P}, given{"tr", r.TR})
+}
+
+// given is an optional key of a stage and its value, nil when not given.
+type given struct {
+	key string
+	v   *float64
 }
 
 // notFor reports keys given that the shape does not use.
-func (b *builder) notFor(w where, shape curves.Shape, given map[string]bool) {
-	for _, k := range []string{"tms", "td", "max_multiple", "min_time_s", "k", "alpha", "c", "a", "b", "p", "tr"} {
-		if given[k] {
-			b.fail(w, k, "%s does not apply to a %s stage", k, shape)
+func (b *builder) notFor(w where, shape curves.Shape, keys ...given) {
+	for _, k := range keys {
+		if k.v != nil {
+			b.fail(w, k.key, "%s does not apply to a %s stage", k.key, shape)
 		}
 	}
 }

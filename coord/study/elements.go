@@ -3,6 +3,7 @@ package study
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 
 	"tripgrade/coord"
@@ -12,7 +13,7 @@ import (
 func (b *builder) buildEarthings() {
 	seen := map[string]int{}
 	for i, r := range b.raw.Earthings {
-		w := where{path: fmt.Sprintf("earthing[%d]", i), element: fmt.Sprintf("earthing %q", r.Name)}
+		w := at("earthing", i, r.Name)
 		b.named(w, r.Name, seen, "earthing")
 		bus, _ := b.busRef(w, "bus", r.Bus)
 		switch r.Kind {
@@ -37,7 +38,7 @@ func (b *builder) buildEarthings() {
 func (b *builder) buildLoads() {
 	seen := map[string]int{}
 	for i, r := range b.raw.Loads {
-		w := where{path: fmt.Sprintf("load[%d]", i), element: fmt.Sprintf("load %q", r.Name)}
+		w := at("load", i, r.Name)
 		if r.Name == "" {
 			w.element = fmt.Sprintf("load %d", i+1)
 		} else {
@@ -65,13 +66,21 @@ func (b *builder) buildLoads() {
 // checkTopology reports islands with no source and transformer loops with
 // inconsistent phase shifts.
 func (b *builder) checkTopology() {
-	for _, isl := range b.net.Islands() {
+	for _, all := range b.net.Islands() {
+		// A three-winding transformer's star point is no bus of the study.
+		isl := make([]string, 0, len(all))
+		for _, name := range all {
+			if !b.internal(name) {
+				isl = append(isl, name)
+			}
+		}
+		if len(isl) == 0 || b.anyBadName(isl) {
+			continue // none of the study's buses, or reported as the name's problem
+		}
 		first := isl[0]
 		line := 0
-		for i, r := range b.raw.Buses {
-			if r.Name == first {
-				line = b.lines.table(fmt.Sprintf("bus[%d]", i))
-			}
+		if k, ok := b.bus[first]; ok {
+			line = b.lines.table("bus[" + strconv.Itoa(k) + "]")
 		}
 		list := isl
 		more := ""
@@ -87,17 +96,57 @@ func (b *builder) checkTopology() {
 	if _, err := b.net.ZoneAngles(); err != nil {
 		if se, ok := err.(*faults.ShiftLoopError); ok {
 			path := b.branchPath(se.Branch)
-			kind := "line"
-			if strings.HasPrefix(path, "transformer") {
-				kind = "transformer"
+			element, what := fmt.Sprintf("line %q", se.Branch), "closes"
+			if ref, ok := b.starOf[se.Branch]; ok {
+				element, what = fmt.Sprintf("transformer3 %q", ref.unit), "its "+ref.winding+" winding closes"
+			} else if strings.HasPrefix(path, "transformer") {
+				element = fmt.Sprintf("transformer %q", se.Branch)
 			}
-			b.errorf(b.lines.table(path), fmt.Sprintf("%s %q", kind, se.Branch),
-				"closes a loop whose transformer phase shifts disagree by %.0f° at bus %q; transformers in parallel must have the same clock number", se.Mismatch, se.Bus)
+			at := fmt.Sprintf(" at bus %q", se.Bus)
+			if b.internal(se.Bus) {
+				at = ""
+			}
+			b.errorf(b.lines.table(path), element,
+				"%s a loop whose transformer phase shifts disagree by %.0f°%s; transformers in parallel must have the same clock number", what, se.Mismatch, at)
 		}
 	}
 }
 
+// anyBadName reports whether a bus of the list has a name already
+// reported unreadable: its island most likely comes from references that
+// were meant for it.
+func (b *builder) anyBadName(buses []string) bool {
+	for _, n := range buses {
+		if b.badNames[n] {
+			return true
+		}
+	}
+	return false
+}
+
+// internal reports whether a bus name is a three-winding transformer's
+// star point rather than a bus of the study. The star points are
+// gathered on the first call, which comes after every element is built,
+// so that an island of thousands of buses costs a lookup per bus.
+func (b *builder) internal(name string) bool {
+	if _, declared := b.bus[name]; declared {
+		return false
+	}
+	if b.stars == nil {
+		b.stars = map[string]bool{}
+		for _, bus := range b.net.Buses {
+			if bus.Internal {
+				b.stars[bus.Name] = true
+			}
+		}
+	}
+	return b.stars[name]
+}
+
 func (b *builder) branchPath(name string) string {
+	if p, ok := b.starPath[name]; ok {
+		return p
+	}
 	k, ok := b.branch[name]
 	if !ok {
 		return ""

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"sort"
 	"strings"
+	"unicode/utf8"
 )
 
 // Error is one problem in a study file, with where it is.
@@ -44,6 +45,10 @@ func (l ErrorList) Error() string {
 // the files it refers to; within a file by line, then by message. It drops
 // exact duplicates, so the report is stable.
 func (l ErrorList) sorted(study string) ErrorList {
+	text := make(map[*Error]string, len(l))
+	for _, e := range l {
+		text[e] = e.Error()
+	}
 	sort.SliceStable(l, func(i, j int) bool {
 		a, b := l[i], l[j]
 		if (a.File == study) != (b.File == study) {
@@ -59,14 +64,57 @@ func (l ErrorList) sorted(study string) ErrorList {
 			}
 			return a.Line < b.Line
 		}
-		return a.Error() < b.Error()
+		return text[a] < text[b]
 	})
 	var out ErrorList
 	for _, e := range l {
-		if len(out) > 0 && e.Error() == out[len(out)-1].Error() {
+		if len(out) > 0 && text[e] == text[out[len(out)-1]] {
 			continue
 		}
 		out = append(out, e)
 	}
 	return out
 }
+
+// How much user text a message echoes: a name or a value, an element
+// (kind and name), and a whole message. A 20 MB key name must not become
+// 20 MB of messages.
+const (
+	maxEchoName    = 60
+	maxEchoElement = 90
+	maxEchoMessage = 400
+)
+
+// clipText shortens s to at most n runes, marking the cut with "…".
+func clipText(s string, n int) string {
+	if len(s) <= n {
+		return s
+	}
+	i, count := 0, 0
+	for i < len(s) && count < n {
+		_, size := utf8.DecodeRuneInString(s[i:])
+		i += size
+		count++
+	}
+	if i >= len(s) {
+		return s
+	}
+	return s[:i] + "…"
+}
+
+// verbatim marks text of our own passed as an argument of a message,
+// which message does not shorten as it does user text.
+type verbatim string
+
+// message formats a problem, shortening long text arguments (user text)
+// and the result.
+func message(format string, args ...any) string {
+	for i, a := range args {
+		if s, ok := a.(string); ok && len(s) > maxEchoName {
+			args[i] = clipText(s, maxEchoName)
+		}
+	}
+	return clipText(fmt.Sprintf(format, args...), maxEchoMessage)
+}
+
+func sortStrings(s []string) { sort.Strings(s) }

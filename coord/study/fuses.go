@@ -9,7 +9,7 @@ import (
 
 func (b *builder) buildFuses() {
 	for i, r := range b.raw.Fuses {
-		w := where{path: fmt.Sprintf("fuse[%d]", i), element: fmt.Sprintf("fuse %q", r.Name)}
+		w := at("fuse", i, r.Name)
 		b.named(w, r.Name, b.deviceSeen, "relay or fuse")
 		d := coord.Device{Name: r.Name, Kind: coord.Fuse}
 		d.Point, _ = b.point(w, r.Branch, r.At)
@@ -73,7 +73,9 @@ func (b *builder) buildPairs() {
 				b.fail(w, k.key, "%s is missing (a relay or fuse name)", k.key)
 				ok = false
 			} else if _, found := b.deviceSeen[k.name]; !found {
-				b.fail(w, k.key, "%s = %q: no relay or fuse of that name%s", k.key, k.name, b.closest(k.name, b.deviceSeen))
+				if !b.unread("relay", "fuse") {
+					b.fail(w, k.key, "%s = %q: no relay or fuse of that name%s", k.key, k.name, b.closest(k.name, b.deviceSeen))
+				}
 				ok = false
 			}
 		}

@@ -1,87 +1,19 @@
 package study
 
 import (
-	"fmt"
-	"regexp"
+	"strconv"
 	"strings"
+
+	"tripgrade/coord/study/internal/tomltext"
 )
 
-// lineIndex remembers on which line each table and key of a TOML file
-// stands, so that errors found after decoding can name the line. TOML
-// decoders keep no positions for decoded values, so the file is scanned
-// once more, line by line. It understands headers ([t], [[t]], dotted
-// names) and key = value lines, including values that continue over
-// several lines; keys inside inline tables are attributed to the line of
-// the key that holds the inline table.
+// lineIndex finds the line of a table or key of the study file from its
+// indexed path ("relay[2].stage[0]", "" for the root) in the parsed tree,
+// which keeps the line of every table and key (package tomltext). Paths
+// are resolved only when a message needs a line, so loading a large study
+// pays nothing for them.
 type lineIndex struct {
-	tables map[string]int   // "relay[2]", "relay[2].stage[0]", "study" → header line
-	keys   map[string]int   // "relay[2].stage[0].pickup_a" → line
-	plain  map[string][]int // "relay.stage.pickup_a" → every line with that key
-}
-
-var bareKey = regexp.MustCompile(`^\s*("[^"]*"|'[^']*'|[A-Za-z0-9_.\-" ]+?)\s*=`)
-
-func indexLines(src string) *lineIndex {
-	ix := &lineIndex{tables: map[string]int{}, keys: map[string]int{}, plain: map[string][]int{}}
-	counts := map[string]int{} // array-of-tables path (indexed parent + name) → elements so far
-	current, currentPlain := "", ""
-	depth := 0 // open brackets of a value continued from earlier lines
-	for n, line := range strings.Split(src, "\n") {
-		num := n + 1
-		text := stripComment(line)
-		if depth > 0 {
-			depth += bracketBalance(text)
-			continue
-		}
-		t := strings.TrimSpace(text)
-		switch {
-		case t == "":
-		case strings.HasPrefix(t, "[["):
-			name := strings.TrimSpace(strings.TrimSuffix(strings.TrimPrefix(t, "[["), "]]"))
-			current, currentPlain = ix.resolve(name, counts, true)
-			ix.tables[current] = num
-		case strings.HasPrefix(t, "["):
-			name := strings.TrimSpace(strings.TrimSuffix(strings.TrimPrefix(t, "["), "]"))
-			current, currentPlain = ix.resolve(name, counts, false)
-			ix.tables[current] = num
-		default:
-			m := bareKey.FindStringSubmatch(text)
-			if m == nil {
-				continue
-			}
-			key := strings.Trim(strings.TrimSpace(m[1]), `"'`)
-			full, plain := join(current, key), join(currentPlain, key)
-			if _, dup := ix.keys[full]; !dup {
-				ix.keys[full] = num
-			}
-			ix.plain[plain] = append(ix.plain[plain], num)
-			depth = bracketBalance(text[len(m[0]):])
-		}
-	}
-	return ix
-}
-
-// resolve turns a header name into its indexed and plain paths, counting
-// one more element when the header opens an array of tables.
-func (ix *lineIndex) resolve(name string, counts map[string]int, array bool) (indexed, plain string) {
-	parts := strings.Split(name, ".")
-	for i, p := range parts {
-		p = strings.Trim(strings.TrimSpace(p), `"'`)
-		plain = join(plain, p)
-		base := join(indexed, p)
-		last := i == len(parts)-1
-		switch {
-		case last && array:
-			k := counts[base]
-			counts[base] = k + 1
-			indexed = fmt.Sprintf("%s[%d]", base, k)
-		case counts[base] > 0:
-			indexed = fmt.Sprintf("%s[%d]", base, counts[base]-1)
-		default:
-			indexed = base
-		}
-	}
-	return indexed, plain
+	root *tomltext.Tab
 }
 
 func join(a, b string) string {
@@ -91,65 +23,57 @@ func join(a, b string) string {
 	return a + "." + b
 }
 
-// scan walks s outside quoted strings, calling at for each byte there
-// with its index; at returns false to stop.
-func scan(s string, at func(i int, c byte) bool) {
-	var quote byte
-	for i := 0; i < len(s); i++ {
-		c := s[i]
-		switch {
-		case quote != 0:
-			if c == '\\' && quote == '"' {
-				i++
-			} else if c == quote {
-				quote = 0
-			}
-		case c == '"' || c == '\'':
-			quote = c
-		default:
-			if !at(i, c) {
-				return
-			}
-		}
+// find returns the table at path and the line of its header (or of the
+// key that holds it), or nil.
+func (ix *lineIndex) find(path string) (*tomltext.Tab, int) {
+	t, line := ix.root, 0
+	if path == "" || t == nil {
+		return t, line
 	}
-}
-
-// stripComment removes a # comment that is not inside a string.
-func stripComment(s string) string {
-	end := len(s)
-	scan(s, func(i int, c byte) bool {
-		if c == '#' {
-			end = i
-			return false
+	for _, part := range strings.Split(path, ".") {
+		key, index := part, -1
+		if i := strings.IndexByte(part, '['); i >= 0 && strings.HasSuffix(part, "]") {
+			n, err := strconv.Atoi(part[i+1 : len(part)-1])
+			if err != nil {
+				return nil, 0
+			}
+			key, index = part[:i], n
 		}
-		return true
-	})
-	return s[:end]
-}
-
-// bracketBalance counts [ and { minus ] and } outside strings.
-func bracketBalance(s string) int {
-	d := 0
-	scan(s, func(_ int, c byte) bool {
-		switch c {
-		case '[', '{':
-			d++
-		case ']', '}':
-			d--
+		e := t.Get(key)
+		if e == nil {
+			return nil, 0
 		}
-		return true
-	})
-	return d
+		v := e.Value
+		if index >= 0 {
+			if v.Kind != tomltext.Array || index >= len(v.Items) {
+				return nil, 0
+			}
+			v = v.Items[index]
+		}
+		if v.Kind != tomltext.Table {
+			return nil, 0
+		}
+		t, line = v.Table, v.Line
+	}
+	return t, line
 }
 
 // table returns the line of the header of an indexed table, or 0.
-func (ix *lineIndex) table(path string) int { return ix.tables[path] }
+func (ix *lineIndex) table(path string) int {
+	_, line := ix.find(path)
+	return line
+}
 
-// key returns the line of key in the indexed table path, falling back to
-// the table's header line.
+// key returns the line of key in the indexed table path; for a key that
+// is not there, the line of a table of that name (a key given as [key]),
+// or else the line of the table itself.
 func (ix *lineIndex) key(path, key string) int {
-	if n, ok := ix.keys[join(path, key)]; ok {
-		return n
+	t, line := ix.find(path)
+	if t == nil {
+		return 0
 	}
-	return ix.tables[path]
+	if e := t.Get(key); e != nil {
+		return e.Line
+	}
+	return line
 }

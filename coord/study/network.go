@@ -1,10 +1,8 @@
 package study
 
 import (
-	"fmt"
 	"math"
-	"strings"
-	"unicode"
+	"strconv"
 
 	"tripgrade/coord"
 	"tripgrade/curves"
@@ -21,11 +19,21 @@ type builder struct {
 	bus    map[string]int // bus name → index
 	branch map[string]int // line or transformer name → branch index
 
-	branchSeen map[string]int // branch names → line, for duplicates
-	deviceSeen map[string]int // relay and fuse names → line
-	relayRaw   []relayOrigin
-	badRef     bool         // some element refers to a bus that does not exist
-	branchBad  map[int]bool // branches whose ends are already reported wrong
+	unit3       map[string]int     // three-winding transformer name → index
+	unitRaw     []where            // each generator's place, for its unit transformer
+	starPath    map[string]string  // star branch name → its transformer3's table path
+	starOf      map[string]starRef // star branch name → its transformer and winding
+	stars       map[string]bool    // the internal star-point buses' names (internal)
+	branchSeen  map[string]int     // branch names, for duplicates (values index namePaths)
+	deviceSeen  map[string]int     // relay and fuse names, likewise
+	relayRaw    []relayOrigin
+	badRef      bool            // some element refers to a bus that does not exist
+	branchBad   map[int]bool    // branches whose ends are already reported wrong
+	badNames    map[string]bool // bus names reported unreadable
+	csvUnread   bool            // the settings table could not be read at all
+	csvBlamed   map[string]bool // settings a misspelt column of the table was meant to give
+	suggestions int             // "did you mean" searches so far (closest)
+	namePaths   []string        // where each named element is; the seen maps hold indexes into it
 }
 
 // where locates an element for messages: the indexed table path in the
@@ -37,34 +45,53 @@ type where struct {
 	line          int
 }
 
+// at locates the i-th element of the array of tables key (bus, line, …),
+// named name.
+func at(key string, i int, name string) where {
+	return where{path: key + "[" + strconv.Itoa(i) + "]", element: key + " " + strconv.Quote(name)}
+}
+
+// fail reports a problem of the element at w, on the line of key. A key
+// whose value was already refused (or that an unknown key was probably
+// meant to be) gets no second message: whatever else is wrong with it
+// follows from the first.
 func (b *builder) fail(w where, key, format string, args ...any) {
 	if w.file != "" {
-		b.errs = append(b.errs, &Error{File: w.file, Line: w.line, Element: w.element, Msg: fmt.Sprintf(format, args...)})
+		b.failures++
+		if key != "" && b.csvBlamed[key] {
+			return
+		}
+		b.errs = append(b.errs, &Error{File: w.file, Line: w.line, Element: clipText(w.element, maxEchoElement), Msg: message(format, args...)})
+		return
+	}
+	if key != "" && b.blamed[join(w.path, key)] {
+		b.failures++
 		return
 	}
 	b.errorf(b.lines.key(w.path, key), w.element, format, args...)
 }
 
-// named checks an element's name: present, and unique in its namespace.
-func (b *builder) named(w where, name string, seen map[string]int, kind string) bool {
-	if strings.TrimSpace(name) == "" {
-		b.fail(w, "name", "name is missing")
-		return false
-	}
-	if strings.IndexFunc(name, unicode.IsControl) >= 0 {
-		b.fail(w, "name", "name %q contains a control character (a tab or line break?)", name)
-		return false
-	}
-	if first, dup := seen[name]; dup {
-		at := ""
-		if first > 0 {
-			at = fmt.Sprintf(" (line %d)", first)
+// blamedAny reports whether any of the keys of w had its value refused.
+func (b *builder) blamedAny(w where, keys ...string) bool {
+	for _, k := range keys {
+		if b.blamed[join(w.path, k)] {
+			return true
 		}
-		b.fail(w, "name", "duplicate name: another %s is called %q%s", kind, name, at)
-		return false
 	}
-	seen[name] = b.lines.table(w.path)
-	return true
+	return false
+}
+
+// unread reports whether one of the arrays of tables keys could not be
+// read at all ([line] written for [[line]], say): a name that is not
+// found may then be in it, and the reference follows from that one
+// problem.
+func (b *builder) unread(keys ...string) bool {
+	for _, k := range keys {
+		if b.blamed[k] {
+			return true
+		}
+	}
+	return false
 }
 
 // busRef resolves a bus name given under key.
@@ -76,19 +103,28 @@ func (b *builder) busRef(w where, key, name string) (int, bool) {
 	}
 	k, ok := b.bus[name]
 	if !ok {
-		b.fail(w, key, "%s = %q: no bus of that name%s", key, name, b.closest(name, b.bus))
+		if !b.unread("bus") {
+			b.fail(w, key, "%s = %q: no bus of that name%s", key, name, b.closest(name, b.bus))
+		}
 		b.badRef = true
 	}
 	return k, ok
 }
 
+// closest proposes the name nearest to an unknown one, as a message
+// suffix. A suggestion costs a pass over every name, so a file with
+// thousands of unknown names gets one for the first maxSuggestions only:
+// every problem is still reported, and the load stays fast.
 func (b *builder) closest(name string, names map[string]int) string {
-	set := make(map[string]int, len(names))
-	for n := range names {
-		set[n] = 0
+	if b.suggestions >= maxSuggestions {
+		return ""
 	}
-	return suggest(name, set)
+	b.suggestions++
+	return suggest(name, names)
 }
+
+// maxSuggestions bounds the "did you mean" searches of one load.
+const maxSuggestions = 100
 
 // positive returns *p, requiring it present and > 0.
 func (b *builder) positive(w where, key string, p *float64) float64 {
@@ -100,16 +136,23 @@ func (b *builder) positive(w where, key string, p *float64) float64 {
 		b.fail(w, key, "%s must be > 0 (got %g)", key, *p)
 		return math.NaN()
 	}
+	if !b.withinLimit(w, key, *p) {
+		return math.NaN()
+	}
 	return *p
 }
 
 // optional returns *p or def, requiring lo <= *p <= hi when given
-// (strictly above lo when open is true).
+// (strictly above lo when open is true). An infinite hi stands for the
+// key's physical limit (limits.go).
 func (b *builder) optional(w where, key string, p *float64, def, lo, hi float64, open bool) float64 {
 	if p == nil {
 		return def
 	}
 	v := *p
+	if math.IsInf(hi, 1) && !(v < lo || (open && v == lo)) && !b.withinLimit(w, key, v) {
+		return def
+	}
 	if v < lo || v > hi || (open && v == lo) {
 		op := "≥"
 		if open {
@@ -135,7 +178,7 @@ func boolOr(p *bool, def bool) bool {
 func (b *builder) buildBuses() {
 	seen := map[string]int{}
 	for i, r := range b.raw.Buses {
-		w := where{path: fmt.Sprintf("bus[%d]", i), element: fmt.Sprintf("bus %q", r.Name)}
+		w := at("bus", i, r.Name)
 		ok := b.named(w, r.Name, seen, "bus")
 		kv := b.positive(w, "kv", r.KV)
 		if kv > 2000 {
@@ -146,7 +189,7 @@ func (b *builder) buildBuses() {
 		}
 		b.net.Buses = append(b.net.Buses, faults.Bus{Name: r.Name, KV: kv})
 	}
-	if len(b.raw.Buses) == 0 {
+	if len(b.raw.Buses) == 0 && !b.blamed["bus"] {
 		b.errorf(0, "", "the study has no [[bus]]")
 	}
 }
@@ -154,7 +197,7 @@ func (b *builder) buildBuses() {
 func (b *builder) buildSources() {
 	seen := map[string]int{}
 	for i, r := range b.raw.Sources {
-		w := where{path: fmt.Sprintf("source[%d]", i), element: fmt.Sprintf("source %q", r.Name)}
+		w := at("source", i, r.Name)
 		b.named(w, r.Name, seen, "source")
 		bus, _ := b.busRef(w, "bus", r.Bus)
 		s := faults.Source{Name: r.Name, Bus: bus}
@@ -169,7 +212,7 @@ func (b *builder) buildSources() {
 		s.Earthed = boolOr(r.Earthed, true)
 		switch {
 		case s.Earthed && !z0Given:
-			b.fail(w, "name", "an earthed source needs its zero-sequence impedance: z0_z1, or r0_ohm_max/x0_ohm_max (say earthed = false if it has no zero-sequence path)")
+			b.fail(w, "z0_z1", "an earthed source needs its zero-sequence impedance: z0_z1, or r0_ohm_max/x0_ohm_max (say earthed = false if it has no zero-sequence path)")
 		case s.Earthed:
 			s.Z0Z1 = b.optional(w, "z0_z1", r.Z0Z1, 0, 0, math.Inf(1), true)
 			s.X0R0 = b.optional(w, "x0_r0", r.X0R0, 0, 0, math.Inf(1), true)
@@ -202,8 +245,8 @@ func (b *builder) strength(w where, cs string, mva, r, x *float64, xr float64) f
 		return faults.Strength{SCMVA: b.positive(w, mvaKey, mva), XR: xr}
 	case r != nil || x != nil:
 		return faults.Strength{Z1Ohm: b.ohms(w, "r1_ohm_"+cs, "x1_ohm_"+cs, r, x)}
-	default:
-		b.fail(w, "name", "the %s-case strength is missing: give %s (or r1_ohm_%s and x1_ohm_%s)", longCase(cs), mvaKey, cs, cs)
+	case !b.blamedAny(w, "r1_ohm_"+cs, "x1_ohm_"+cs):
+		b.fail(w, mvaKey, "the %s-case strength is missing: give %s (or r1_ohm_%s and x1_ohm_%s)", longCase(cs), mvaKey, cs, cs)
 	}
 	return faults.Strength{}
 }
@@ -228,7 +271,7 @@ func (b *builder) ohms(w where, rKey, xKey string, r, x *float64) complex128 {
 func (b *builder) buildGenerators() {
 	seen := map[string]int{}
 	for i, r := range b.raw.Generators {
-		w := where{path: fmt.Sprintf("generator[%d]", i), element: fmt.Sprintf("generator %q", r.Name)}
+		w := at("generator", i, r.Name)
 		b.named(w, r.Name, seen, "generator")
 		bus, ok := b.busRef(w, "bus", r.Bus)
 		g := faults.Generator{Name: r.Name, Bus: bus}
@@ -243,6 +286,13 @@ func (b *builder) buildGenerators() {
 		}
 		g.X2Pct = b.optional(w, "x2_pct", r.X2Pct, 0, 0, 100, true)
 		g.RPct = b.optional(w, "r_pct", r.RPct, 0, 0, 100, true)
+		if r.ROhm != nil {
+			if r.RPct != nil {
+				b.fail(w, "r_ohm", "give r_pct or r_ohm, not both")
+			} else if rOhm := b.optional(w, "r_ohm", r.ROhm, 0, 0, math.Inf(1), true); rOhm > 0 && g.MVA > 0 && g.KV > 0 {
+				g.RPct = rOhm / (g.KV * g.KV / g.MVA) * 100
+			}
+		}
 		g.PF = b.optional(w, "pf", r.PF, defaultGeneratorPF, 0, 1, true)
 		g.InMax = boolOr(r.InMax, true)
 		g.InMin = boolOr(r.AlwaysRunning, false)
@@ -259,6 +309,7 @@ func (b *builder) buildGenerators() {
 			b.fail(w, "neutral_ohm", "neutral_ohm is given but the generator is not earthed (add earthed = true)")
 		}
 		b.net.Generators = append(b.net.Generators, g)
+		b.unitRaw = append(b.unitRaw, w)
 	}
 }
 

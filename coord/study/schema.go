@@ -11,8 +11,10 @@ type rawFile struct {
 	Buses       []rawBus         `key:"bus"`
 	Sources     []rawSource      `key:"source"`
 	Generators  []rawGenerator   `key:"generator"`
+	Motors      []rawMotor       `key:"motor"`
 	Lines       []rawLine        `key:"line"`
 	Transformer []rawTransformer `key:"transformer"`
+	Transf3     []rawTransf3     `key:"transformer3"`
 	Earthings   []rawEarthing    `key:"earthing"`
 	Loads       []rawLoad        `key:"load"`
 	Relays      []rawRelay       `key:"relay"`
@@ -31,6 +33,7 @@ type rawStudy struct {
 	EndTempC       *float64  `key:"conductor_end_temp_c"`
 	LinePositions  []float64 `key:"line_fault_positions"`
 	SettingsCSV    string    `key:"settings_csv"`
+	MinTimeDelayS  *float64  `key:"min_time_delay_s"`
 }
 
 type rawCriteria struct {
@@ -93,6 +96,7 @@ type rawGenerator struct {
 	X2Pct         *float64 `key:"x2_pct"`
 	X0Pct         *float64 `key:"x0_pct"`
 	RPct          *float64 `key:"r_pct"`
+	ROhm          *float64 `key:"r_ohm"`
 	PF            *float64 `key:"pf"`
 	Earthed       *bool    `key:"earthed"`
 	NeutralOhm    *float64 `key:"neutral_ohm"`
@@ -100,6 +104,24 @@ type rawGenerator struct {
 	InMax         *bool    `key:"in_max_case"`
 	AlwaysRunning *bool    `key:"always_running"`
 	OwnProt       *bool    `key:"own_protection"`
+	// A power station unit: the generator's unit transformer and its taps.
+	UnitTransformer string   `key:"unit_transformer"`
+	OnLoadTaps      *bool    `key:"on_load_tap_changer"`
+	TapPct          *float64 `key:"tap_pct"`
+	PGPct           *float64 `key:"pg_pct"`
+}
+
+type rawMotor struct {
+	Name          string   `key:"name"`
+	Bus           string   `key:"bus"`
+	MW            *float64 `key:"mw"`
+	KV            *float64 `key:"kv"`
+	PF            *float64 `key:"pf"`
+	EfficiencyPct *float64 `key:"efficiency_pct"`
+	ILRIrM        *float64 `key:"ilr_irm"`
+	PolePairs     *float64 `key:"pole_pairs"`
+	RX            *float64 `key:"r_x"`
+	Count         *float64 `key:"count"`
 }
 
 type rawLine struct {
@@ -131,6 +153,7 @@ type rawTransformer struct {
 	KVTo           *float64 `key:"kv_to"`
 	ZPct           *float64 `key:"z_pct"`
 	XR             *float64 `key:"x_r"`
+	RPct           *float64 `key:"r_pct"`
 	Z0Pct          *float64 `key:"z0_pct"`
 	X0R0           *float64 `key:"x0_r0"`
 	VectorGroup    string   `key:"vector_group"`
@@ -141,6 +164,42 @@ type rawTransformer struct {
 	NoCorrection   *bool    `key:"no_kt_correction"`
 	Category       *float64 `key:"damage_category"`
 	FrequentFaults *bool    `key:"frequent_faults"`
+}
+
+// rawTransf3 is a three-winding transformer: a bus, rated voltage and
+// neutral per winding (hv, mv, lv), and a short-circuit test per winding
+// pair (hv_mv, hv_lv, mv_lv).
+type rawTransf3 struct {
+	Name         string   `key:"name"`
+	HV           string   `key:"hv"`
+	MV           string   `key:"mv"`
+	LV           string   `key:"lv"`
+	KVHV         *float64 `key:"kv_hv"`
+	KVMV         *float64 `key:"kv_mv"`
+	KVLV         *float64 `key:"kv_lv"`
+	MVAHVMV      *float64 `key:"mva_hv_mv"`
+	MVAHVLV      *float64 `key:"mva_hv_lv"`
+	MVAMVLV      *float64 `key:"mva_mv_lv"`
+	ZHVMV        *float64 `key:"z_hv_mv_pct"`
+	ZHVLV        *float64 `key:"z_hv_lv_pct"`
+	ZMVLV        *float64 `key:"z_mv_lv_pct"`
+	RHVMV        *float64 `key:"r_hv_mv_pct"`
+	RHVLV        *float64 `key:"r_hv_lv_pct"`
+	RMVLV        *float64 `key:"r_mv_lv_pct"`
+	Z0HVMV       *float64 `key:"z0_hv_mv_pct"`
+	Z0HVLV       *float64 `key:"z0_hv_lv_pct"`
+	Z0MVLV       *float64 `key:"z0_mv_lv_pct"`
+	R0HVMV       *float64 `key:"r0_hv_mv_pct"`
+	R0HVLV       *float64 `key:"r0_hv_lv_pct"`
+	R0MVLV       *float64 `key:"r0_mv_lv_pct"`
+	VectorGroup  string   `key:"vector_group"`
+	NeutralOhmHV *float64 `key:"neutral_ohm_hv"`
+	NeutralXHV   *float64 `key:"neutral_x_ohm_hv"`
+	NeutralOhmMV *float64 `key:"neutral_ohm_mv"`
+	NeutralXMV   *float64 `key:"neutral_x_ohm_mv"`
+	NeutralOhmLV *float64 `key:"neutral_ohm_lv"`
+	NeutralXLV   *float64 `key:"neutral_x_ohm_lv"`
+	NoCorrection *bool    `key:"no_kt_correction"`
 }
 
 type rawEarthing struct {

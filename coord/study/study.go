@@ -3,44 +3,124 @@ package study
 import (
 	"errors"
 	"fmt"
+	"io"
 	"io/fs"
 	"math"
 	"os"
 	"path/filepath"
 
-	"github.com/BurntSushi/toml"
-
 	"tripgrade/coord"
+	"tripgrade/coord/study/internal/tomltext"
 	"tripgrade/curves"
 	"tripgrade/faults"
 )
 
+// Size limits, checked before anything is decoded: a study of 150,000
+// buses is about 128 MiB of TOML (package gen writes 42 MiB for 50,000),
+// and a settings table of 32 MiB holds some 400,000 stages. Lists and
+// inline tables nest at most maxNesting deep; a study needs three.
+const (
+	MaxStudyBytes = tomltext.DefaultMaxBytes
+	MaxTableBytes = 32 << 20
+	maxNesting    = 16
+)
+
 // Load reads and checks the study file at path. Files it refers to (a
-// settings table) are read from the same folder. The error, when not nil,
-// is an ErrorList with every problem found, or the error of reading the
-// file.
+// settings table) are found relative to the study's folder, as a user
+// typing a path expects: "settings.csv", "../relays/settings.csv" and
+// absolute paths all work. The error, when not nil, is an ErrorList with
+// every problem found, or the error of reading the file.
 func Load(path string) (*coord.Study, error) {
-	src, err := os.ReadFile(path)
+	src, err := readLimited(path, MaxStudyBytes)
+	if err != nil {
+		var tl *tooLarge
+		if errors.As(err, &tl) {
+			return nil, ErrorList{{File: path, Line: 1, Msg: tl.Error()}}
+		}
+		return nil, err
+	}
+	return Parse(path, src, folder(filepath.Dir(path)))
+}
+
+// tooLarge reports a file beyond its size limit.
+type tooLarge struct{ size, limit int64 }
+
+func (e *tooLarge) Error() string {
+	return fmt.Sprintf("the file is %s, more than the %s tripgrade reads (is it the right file?)", mib(e.size), mib(e.limit))
+}
+
+func mib(n int64) string {
+	if n >= 1<<20 {
+		return fmt.Sprintf("%.1f MiB", float64(n)/(1<<20))
+	}
+	return fmt.Sprintf("%.1f KiB", float64(n)/(1<<10))
+}
+
+// readLimited reads a file of at most limit bytes, refusing a larger one
+// before reading it (a special file's size shows only while reading).
+func readLimited(path string, limit int64) ([]byte, error) {
+	f, err := os.Open(path)
 	if err != nil {
 		return nil, err
 	}
-	return Parse(path, src, os.DirFS(filepath.Dir(path)))
+	defer f.Close()
+	if info, err := f.Stat(); err == nil && info.Mode().IsRegular() && info.Size() > limit {
+		return nil, &tooLarge{info.Size(), limit}
+	}
+	data, err := io.ReadAll(io.LimitReader(f, limit+1))
+	if err != nil {
+		return nil, err
+	}
+	if int64(len(data)) > limit {
+		return nil, &tooLarge{int64(len(data)), limit}
+	}
+	return data, nil
 }
+
+// folder is the file system of a study's folder on disk. Unlike os.DirFS
+// it takes paths that leave the folder or are absolute, since a study's
+// settings table may sit anywhere the user keeps it. It opens regular
+// files only: a study naming a device or a pipe gets an error, not a
+// stalled read.
+type folder string
+
+func (f folder) path(name string) string {
+	if filepath.IsAbs(name) {
+		return filepath.Clean(name)
+	}
+	return filepath.Join(string(f), filepath.FromSlash(name))
+}
+
+func (f folder) Open(name string) (fs.File, error) {
+	p := f.path(name)
+	info, err := os.Stat(p)
+	if err != nil {
+		return nil, err
+	}
+	if !info.Mode().IsRegular() {
+		return nil, &fs.PathError{Op: "open", Path: p, Err: errNotRegular}
+	}
+	return os.Open(p)
+}
+
+func (f folder) Stat(name string) (fs.FileInfo, error) { return os.Stat(f.path(name)) }
+
+var errNotRegular = errors.New("not a regular file")
 
 // Parse checks a study given as text; name is used in messages and dir
 // resolves the files the study refers to (nil: it may refer to none).
 func Parse(name string, src []byte, dir fs.FS) (*coord.Study, error) {
-	var tree map[string]any
-	if _, err := toml.Decode(string(src), &tree); err != nil {
-		var pe toml.ParseError
-		if errors.As(err, &pe) {
-			return nil, ErrorList{{File: name, Line: pe.Position.Line, Msg: "not valid TOML: " + pe.Message}}
+	root, err := tomltext.Parse(src, tomltext.Limits{MaxBytes: MaxStudyBytes, MaxDepth: maxNesting})
+	if err != nil {
+		var te *tomltext.Error
+		if errors.As(err, &te) {
+			return nil, ErrorList{{File: name, Line: te.Line, Msg: "not valid TOML: " + te.Msg}}
 		}
 		return nil, ErrorList{{File: name, Msg: "not valid TOML: " + err.Error()}}
 	}
-	d := &decoder{file: name, lines: indexLines(string(src))}
+	d := newDecoder(name, root)
 	var raw rawFile
-	d.table(tree, "", "", &raw)
+	d.table(root, "", "", &raw)
 	b := &builder{
 		decoder:    d,
 		raw:        &raw,
@@ -48,8 +128,12 @@ func Parse(name string, src []byte, dir fs.FS) (*coord.Study, error) {
 		st:         &coord.Study{},
 		bus:        map[string]int{},
 		branch:     map[string]int{},
+		unit3:      map[string]int{},
+		starPath:   map[string]string{},
+		starOf:     map[string]starRef{},
 		deviceSeen: map[string]int{},
 		branchBad:  map[int]bool{},
+		badNames:   map[string]bool{},
 	}
 	b.st.Network = b.net
 	b.st.Inputs = []coord.InputFile{coord.NewInputFile(name, src)}
@@ -68,12 +152,15 @@ func (b *builder) build(dir fs.FS) {
 	b.buildGenerators()
 	b.buildLines()
 	b.buildTransformers()
+	b.buildTransformers3()
+	b.buildUnits()
+	b.buildMotors()
 	b.buildEarthings()
 	b.buildLoads()
-	if len(b.raw.Sources) == 0 && len(b.raw.Generators) == 0 {
+	if len(b.raw.Sources) == 0 && len(b.raw.Generators) == 0 && !b.blamed["source"] && !b.blamed["generator"] {
 		b.errorf(0, "", "the study has no [[source]] and no [[generator]]: nothing drives fault current")
-	} else if !b.badRef {
-		b.checkTopology()
+	} else if !b.badRef && len(b.raw.Buses) > 0 && !b.unread("source", "generator", "line", "transformer", "transformer3") {
+		b.checkTopology() // islands and loops would follow from a table that could not be read
 	}
 	b.buildRelays()
 	b.buildFuses()
@@ -82,8 +169,8 @@ func (b *builder) build(dir fs.FS) {
 	}
 	for _, o := range b.relayRaw {
 		d := &b.st.Devices[o.device]
-		if len(d.Stages) == 0 && o.tomlStages == 0 && o.csvStages == 0 {
-			b.fail(o.where, "name", "the relay has no stages: add [[relay.stage]] tables or rows in the settings table")
+		if len(d.Stages) == 0 && o.tomlStages == 0 && o.csvRows == 0 && !b.csvUnread {
+			b.fail(o.where, "stage", "the relay has no stages: add [[relay.stage]] tables or rows in the settings table")
 		}
 		b.directional(o.where, o.raw, d)
 		uniqueLabels(d)
@@ -134,11 +221,13 @@ func (b *builder) buildStudy() {
 	b.st.Name = r.Name
 	if r.Name == "" {
 		b.fail(w, "name", "name is missing (a title for the reports)")
+	} else {
+		b.readable(w, "name", r.Name)
 	}
 	if r.FrequencyHz != nil && *r.FrequencyHz != 50 && *r.FrequencyHz != 60 {
 		b.fail(w, "frequency_hz", "frequency_hz must be 50 or 60 (got %g)", *r.FrequencyHz)
 	}
-	b.net.BaseMVA = b.optional(w, "base_mva", r.BaseMVA, 100, 0, 1e6, true)
+	b.net.BaseMVA = b.optional(w, "base_mva", r.BaseMVA, 100, minBaseMVA, maxBaseMVA, false)
 	if r.LVTolerancePct != nil {
 		switch *r.LVTolerancePct {
 		case 6:
@@ -150,6 +239,7 @@ func (b *builder) buildStudy() {
 	}
 	b.voltageFactors(w, r)
 	b.st.Faults.EndTempC = b.optional(w, "conductor_end_temp_c", r.EndTempC, 0, 20, 400, false)
+	b.st.Faults.MinTimeDelayS = b.optional(w, "min_time_delay_s", r.MinTimeDelayS, 0, 0.02, 10, false)
 	for _, f := range r.LinePositions {
 		if !(f > 0 && f < 1) {
 			b.fail(w, "line_fault_positions", "line_fault_positions must lie strictly between 0 and 1 (got %g)", f)

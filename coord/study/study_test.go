@@ -8,11 +8,26 @@ import (
 	"testing"
 
 	"tripgrade/coord"
+	"tripgrade/coord/study/internal/tomltext"
 	"tripgrade/curves"
 	"tripgrade/faults"
 )
 
 var update = flag.Bool("update", false, "rewrite the golden files under testdata/errors")
+
+// loadAndPrepare loads a study and, when it loads, builds its fault
+// engine, with the engine's errors located in the file as the command
+// line reports them.
+func loadAndPrepare(path string) error {
+	s, err := Load(path)
+	if err != nil {
+		return err
+	}
+	if _, _, err := coord.Prepare(s); err != nil {
+		return Locate(path, err)
+	}
+	return nil
+}
 
 // TestErrorsGolden loads each broken study under testdata/errors and
 // compares every message with its golden file: the messages are the
@@ -24,7 +39,7 @@ func TestErrorsGolden(t *testing.T) {
 	}
 	for _, f := range files {
 		t.Run(filepath.Base(f), func(t *testing.T) {
-			_, err := Load(f)
+			err := loadAndPrepare(f)
 			list, ok := err.(ErrorList)
 			if !ok {
 				t.Fatalf("got %v (%T), want an ErrorList", err, err)
@@ -53,7 +68,7 @@ func TestErrorsGolden(t *testing.T) {
 func TestEveryProblemHasALine(t *testing.T) {
 	files, _ := filepath.Glob("../../testdata/errors/*.toml")
 	for _, f := range files {
-		_, err := Load(f)
+		err := loadAndPrepare(f)
 		for _, e := range err.(ErrorList) {
 			if e.Line == 0 && e.Element == "" {
 				t.Errorf("%s: %q has neither a line nor an element", f, e.Msg)
@@ -159,11 +174,18 @@ func TestConversion(t *testing.T) {
 	}
 }
 
-// TestLineIndex: the scanner finds tables and keys of arrays of tables,
-// nested ones, and keys after values that span lines.
+// TestLineIndex: the decoder records the lines of tables and keys of
+// arrays of tables, nested ones, and keys after values that span lines.
 func TestLineIndex(t *testing.T) {
 	src := "[study]\nname = \"x\" # comment with = sign\n\n[[relay]]\nname = \"a\"\n  [[relay.stage]]\n  curve = \"iec-si\"\n  [[relay.stage]]\n  tms = 0.1\n[[relay]]\nname = \"b\"\n[[fuse]]\nmelt = [\n  [1, 2],\n  [3, 4],\n]\nrating_a = 5\n"
-	ix := indexLines(src)
+	root, err := tomltext.Parse([]byte(src), tomltext.Limits{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	d := newDecoder("x.toml", root)
+	var raw rawFile
+	d.table(root, "", "", &raw)
+	ix := d.lines
 	cases := []struct {
 		path, key string
 		want      int

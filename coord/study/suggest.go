@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"sort"
 	"strings"
+	"unicode/utf8"
 )
 
 // Closest returns the name in names nearest to want, ignoring case, when
@@ -11,18 +12,27 @@ import (
 // length in single-character edits (at least one). Ties go to the earlier
 // name; "" when none is near.
 func Closest(want string, names []string) string {
-	best, bestD := "", -1
-	w := strings.ToLower(want)
-	for _, n := range names {
-		if d := editDistance(w, strings.ToLower(n)); bestD < 0 || d < bestD {
-			best, bestD = n, d
-		}
+	n := utf8.RuneCountInString(want)
+	if n > maxSuggestRunes {
+		return "" // no one mistypes a name that long; and the search would be slow
 	}
-	if bestD < 0 || bestD > max(1, len([]rune(want))/3) {
-		return ""
+	limit := max(1, n/3)
+	best, bestD := "", limit+1
+	w := strings.ToLower(want)
+	for _, name := range names {
+		m := utf8.RuneCountInString(name)
+		if m > maxSuggestRunes || m-n > limit || n-m > limit {
+			continue // too far apart in length to be near
+		}
+		if d := editDistance(w, strings.ToLower(name)); d < bestD {
+			best, bestD = name, d
+		}
 	}
 	return best
 }
+
+// maxSuggestRunes is the longest name "did you mean" considers.
+const maxSuggestRunes = 64
 
 // suggest proposes the known name closest to an unknown one, as a
 // message suffix.
@@ -31,16 +41,20 @@ func suggest(name string, known map[string]int) string {
 	for k := range known {
 		names = append(names, k)
 	}
-	sort.Strings(names)
+	sort.Strings(names) // ties go to the first in order, whatever the map's
 	if c := Closest(name, names); c != "" {
 		return fmt.Sprintf(" (did you mean %q?)", c)
 	}
 	return ""
 }
 
-// editDistance is the Levenshtein distance between a and b, in runes.
+// editDistance is the number of single-rune insertions, deletions,
+// substitutions and swaps of neighbours that turn a into b (the optimal
+// string alignment distance: Levenshtein's, with a swapped pair such as
+// "tsm" for "tms" counted as one slip of the keyboard).
 func editDistance(a, b string) int {
 	ra, rb := []rune(a), []rune(b)
+	prev2 := make([]int, len(rb)+1)
 	prev := make([]int, len(rb)+1)
 	cur := make([]int, len(rb)+1)
 	for j := range prev {
@@ -54,8 +68,11 @@ func editDistance(a, b string) int {
 				cost = 0
 			}
 			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
+			if i > 1 && j > 1 && ra[i-1] == rb[j-2] && ra[i-2] == rb[j-1] {
+				cur[j] = min(cur[j], prev2[j-2]+1)
+			}
 		}
-		prev, cur = cur, prev
+		prev2, prev, cur = prev, cur, prev2
 	}
 	return prev[len(rb)]
 }

@@ -2,7 +2,9 @@ package tcc
 
 import (
 	"fmt"
+	"slices"
 	"strings"
+	"sync"
 
 	"tripgrade/coord"
 	"tripgrade/faults"
@@ -19,15 +21,21 @@ type Input struct {
 	Levels   []faults.PointSummary
 }
 
-// Atlas is the set of charts of one study: one per coordination path and
-// one per failing pair, with a colour for every device that is the same
-// in all of them.
+// Atlas is the set of charts of one study: for every coordination path a
+// phase-fault chart (split at a transformer when one axis would stretch
+// too far) and an earth-fault chart for each part of the path that
+// zero-sequence current can reach, and a chart for every failing pair,
+// with a look for every device that is the same in all of them where the
+// palette allows.
 type Atlas struct {
 	in      Input
 	paths   []Path
 	failing []coord.Pair
-	slots   []int // palette slot per device
+	specs   []chartSpec
+	slots   []int // look per device (see assignStyles)
 	timers  []*coord.Timer
+	mu      sync.Mutex // guards routes, which charts fill as they are drawn
+	routes  map[[2]int][]int
 }
 
 // NewAtlas prepares the charts of a study. It reports inputs that do not
@@ -40,25 +48,26 @@ func NewAtlas(in Input) (*Atlas, error) {
 	if len(in.Levels) != n {
 		return nil, fmt.Errorf("tcc: %d fault-level summaries for %d devices", len(in.Levels), n)
 	}
+	if len(in.Topology.Zones) != n {
+		return nil, fmt.Errorf("tcc: a topology of %d devices for a study of %d", len(in.Topology.Zones), n)
+	}
 	for _, p := range in.Result.Pairs {
 		if p.Upstream < 0 || p.Upstream >= n || p.Downstream < 0 || p.Downstream >= n {
 			return nil, fmt.Errorf("tcc: pair %d→%d names a device outside the study's %d", p.Upstream, p.Downstream, n)
 		}
 	}
-	a := &Atlas{in: in}
-	a.paths = findPaths(in.Result.Pairs, n, MaxPaths)
-	a.failing = failingPairs(in.Result, in.Study)
-	groups := make([][]int, 0, len(a.paths)+len(a.failing))
-	for _, p := range a.paths {
-		groups = append(groups, p)
-	}
-	for _, p := range a.failing {
-		groups = append(groups, []int{p.Downstream, p.Upstream})
-	}
-	a.slots = assignColours(n, groups)
+	a := &Atlas{in: in, routes: map[[2]int][]int{}}
 	for i := range in.Study.Devices {
 		a.timers = append(a.timers, coord.NewTimer(&in.Study.Devices[i]))
 	}
+	a.paths = findPaths(in.Result.Pairs, n, MaxPaths)
+	a.failing = failingPairs(in.Result, in.Study)
+	a.specs = a.chartSpecs()
+	groups := make([][]int, len(a.specs))
+	for k, sp := range a.specs {
+		groups[k] = sp.members(a)
+	}
+	a.slots = assignStyles(n, groups)
 	return a, nil
 }
 
@@ -68,31 +77,32 @@ func (a *Atlas) Paths() []Path { return a.paths }
 // FailingPairs returns the pairs whose grading fails.
 func (a *Atlas) FailingPairs() []coord.Pair { return a.failing }
 
-// Charts returns a chart for every coordination path, then one for every
-// failing pair, named with unique, sanitised stems: "path-D--...--U" and
-// "pair-D-under-U" (see Sanitise and Namer).
+// Charts returns every chart of the study: for each coordination path its
+// phase-fault charts and its earth-fault charts, then one for every
+// failing pair, named with unique, sanitised stems (see Sanitise and
+// Namer): "path-D--...--U" for a phase-fault chart, the same with
+// "-earth" for an earth-fault chart, "pair-D-under-U" for a failing pair.
+// A chart two paths share is drawn once.
 func (a *Atlas) Charts() []*Chart {
 	var nm Namer
-	var out []*Chart
-	for _, p := range a.paths {
-		c := a.pathChart(p)
+	out := make([]*Chart, len(a.specs))
+	for k, sp := range a.specs {
+		c := newChart(a, sp)
 		c.Name = nm.Unique(c.Name)
-		out = append(out, c)
+		out[k] = c
 	}
-	for _, p := range a.failing {
-		c := a.pairChart(p)
-		c.Name = nm.Unique(c.Name)
-		out = append(out, c)
+	for k, c := range out {
+		c.elsewhere = a.elsewhere(k, out)
 	}
 	return out
 }
 
-// PathCharts returns the charts of the paths through device i (a device on
-// no path gets a chart of its own), named as Charts names them.
+// PathCharts returns the charts of the coordination paths that draw device
+// i (phase-fault and earth-fault charts), named as Charts names them.
 func (a *Atlas) PathCharts(i int) []*Chart {
 	var out []*Chart
 	for _, c := range a.Charts() {
-		if c.pair == nil && Path(c.Devices).Contains(i) {
+		if c.pair == nil && slices.Contains(c.Devices, i) {
 			out = append(out, c)
 		}
 	}
@@ -117,37 +127,80 @@ func (a *Atlas) names(devs []int) []string {
 	return out
 }
 
-// pathChart builds the chart of one path with the pairs along it.
-func (a *Atlas) pathChart(p Path) *Chart {
-	var pairs []coord.Pair
-	for k := 0; k+1 < len(p); k++ {
-		for _, q := range a.in.Result.Pairs {
-			if q.Downstream == p[k] && q.Upstream == p[k+1] {
-				pairs = append(pairs, q)
-				break
-			}
-		}
-	}
-	names := a.names(p)
-	c := newChart(a, p, pairs)
-	c.Name = pathStem(names)
-	c.Subtitle = "path " + strings.Join(names, " → ") + "  (downstream to source)"
-	return c
-}
-
-// pairChart builds the chart of one pair alone.
-func (a *Atlas) pairChart(p coord.Pair) *Chart {
-	d, u := a.in.Study.Devices[p.Downstream].Name, a.in.Study.Devices[p.Upstream].Name
-	c := newChart(a, []int{p.Downstream, p.Upstream}, []coord.Pair{p})
-	c.Name = pairStem(d, u)
-	c.Subtitle = "pair " + u + " over " + d + "  (failing grading margin)"
-	pp := p
-	c.pair = &pp
-	return c
+// bus returns the bus where device i sits.
+func (a *Atlas) bus(i int) int {
+	return coord.DeviceBus(a.in.Study.Network, a.in.Study.Devices[i])
 }
 
 // kvOf returns the nominal voltage of the bus where device i sits.
 func (a *Atlas) kvOf(i int) float64 {
-	n := a.in.Study.Network
-	return n.Buses[coord.DeviceBus(n, a.in.Study.Devices[i])].KV
+	return a.in.Study.Network.Buses[a.bus(i)].KV
 }
+
+// hasPhase reports whether device i answers to phase current: a fuse, or
+// a relay with a phase stage.
+func (a *Atlas) hasPhase(i int) bool {
+	d := &a.in.Study.Devices[i]
+	return d.Kind == coord.Fuse || d.Pickup(coord.Phase) > 0
+}
+
+// hasGround reports whether device i is a relay with a ground (residual)
+// stage.
+func (a *Atlas) hasGround(i int) bool {
+	d := &a.in.Study.Devices[i]
+	return d.Kind == coord.Relay && d.Pickup(coord.Residual) > 0
+}
+
+// seesResidual reports whether device i has a ground stage and residual
+// current reaches it from some fault of its zone.
+func (a *Atlas) seesResidual(i int) bool {
+	x := a.in.Levels[i].ResidualMax
+	return a.hasGround(i) && x.Found && x.A > 0
+}
+
+// elsewhere lists, for chart k, the pairs of two of its devices whose
+// margins are drawn on another chart (at the other kind of fault), with
+// that chart's name.
+func (a *Atlas) elsewhere(k int, charts []*Chart) []string {
+	c := charts[k]
+	if c.pair != nil {
+		return nil
+	}
+	s := a.in.Study
+	var out []string
+	seen := map[coord.Pair]bool{}
+	for _, o := range charts {
+		if o == c || o.pair != nil {
+			continue
+		}
+		for _, p := range o.Pairs {
+			if seen[p] || slices.Contains(c.Pairs, p) ||
+				!slices.Contains(c.Devices, p.Downstream) || !slices.Contains(c.Devices, p.Upstream) {
+				continue
+			}
+			seen[p] = true
+			out = append(out, fmt.Sprintf("%s over %s: worst margin at %s faults, drawn on %s",
+				s.Devices[p.Upstream].Name, s.Devices[p.Downstream].Name, kindWord(o.Kind), o.Name))
+		}
+	}
+	return out
+}
+
+// kindWord names a chart's kind in a sentence.
+func kindWord(q coord.Quantity) string {
+	if q == coord.Residual {
+		return "earth"
+	}
+	return "phase"
+}
+
+// chartTitle names a chart's kind in its title.
+func chartTitle(q coord.Quantity) string {
+	if q == coord.Residual {
+		return "earth-fault curves (residual current 3I0)"
+	}
+	return "phase-fault curves"
+}
+
+// join writes device names from downstream to source.
+func join(names []string) string { return strings.Join(names, " → ") }

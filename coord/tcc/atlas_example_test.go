@@ -11,7 +11,10 @@ import (
 )
 
 // The charts of a 33/11 kV study: one path, drawn on an 11 kV axis, where
-// the 33 kV relay's curve is referred by 33/11.
+// the 33 kV relay's curve is referred by the transformer's winding ratio
+// 33/11, and its earth-fault chart, which holds the 11 kV relay alone (the
+// 33 kV relay has no ground stage, and the Dyn11 transformer's delta
+// winding would stop residual current anyway).
 func ExampleAtlas() {
 	s, err := study.Load("testdata/two-voltage.toml")
 	if err != nil {
@@ -38,7 +41,11 @@ func ExampleAtlas() {
 		if err := c.Render(&buf, tcc.PNG, tcc.Settings{}); err != nil {
 			log.Fatal(err)
 		}
-		fmt.Printf("%s.png: currents at %g kV, %d failing pairs\n", c.Name, c.RefKV(), c.Failing())
+		kind := "phase"
+		if c.Kind == coord.Residual {
+			kind = "earth"
+		}
+		fmt.Printf("%s.png: %s faults, currents at %g kV, %d failing pairs\n", c.Name, kind, c.RefKV(), c.Failing())
 		for _, tr := range c.Traces() {
 			if tr.Kind != tcc.PhaseCurve {
 				continue
@@ -50,7 +57,8 @@ func ExampleAtlas() {
 		}
 	}
 	// Output:
-	// path-R11--R33.png: currents at 11 kV, 0 failing pairs
+	// path-R11--R33.png: phase faults, currents at 11 kV, 0 failing pairs
 	// R11 at 2000 A: 0.30 s
 	// R33 at 3000 A: 1.49 s
+	// path-R11-earth.png: earth faults, currents at 11 kV, 0 failing pairs
 }

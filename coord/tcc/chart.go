@@ -1,7 +1,9 @@
 package tcc
 
 import (
-	"math"
+	"slices"
+	"strconv"
+	"sync"
 
 	"tripgrade/coord"
 )
@@ -13,40 +15,91 @@ const (
 	TimeMaxS = 1000
 )
 
-// Chart is one time–current plot: the curves of a path's devices (or of
-// one failing pair's two devices) with what a protection engineer judges
-// them against. Every current on it is referred to RefKV.
+// Chart is one time–current plot: the curves of a part of a coordination
+// path (or of one failing pair) for one kind of fault, with what a
+// protection engineer judges them against. Every current on it is
+// referred to one bus (RefKV) by the transformers' rated winding ratios.
 type Chart struct {
 	// Name is the chart's file stem, safe to use as a file name.
 	Name string
 	// Subtitle names the path or the pair.
 	Subtitle string
+	// Kind is coord.Phase for a phase-fault chart (phase stages, fuses,
+	// phase fault levels) and coord.Residual for an earth-fault chart
+	// (ground stages and residual fault levels).
+	Kind coord.Quantity
 	// Devices are the devices drawn, the most downstream first.
 	Devices []int
 	// Pairs are the backup pairs whose margins are drawn.
 	Pairs []coord.Pair
 
-	atlas *Atlas
-	pair  *coord.Pair // set for a failing pair's chart
-	built bool
+	atlas     *Atlas
+	spec      chartSpec
+	pair      *coord.Pair // set for a failing pair's chart
+	elsewhere []string    // pairs of its devices drawn on another chart
+	once      sync.Once
 
+	refBus     int
 	refKV      float64
+	referred   bool
 	xMin, xMax float64
+	looks      map[int]Style
 	traces     []Trace
 	bands      []band
+	seen       []seenCurve
 	levels     []level
 	loads      []vline
 	inrush     []inrushMark
 	damages    []damage
 	margins    []margin
+	offAxis    []string // what lies beyond the current axis, for the key
 }
 
-func newChart(a *Atlas, devs []int, pairs []coord.Pair) *Chart {
-	return &Chart{Devices: devs, Pairs: pairs, atlas: a}
+func newChart(a *Atlas, sp chartSpec) *Chart {
+	c := &Chart{Kind: sp.kind, Devices: sp.devices, Pairs: sp.pairs, atlas: a, spec: sp, pair: sp.pair}
+	names := a.names(sp.devices)
+	switch {
+	case sp.pair != nil:
+		s := a.in.Study
+		d, u := s.Devices[sp.pair.Downstream].Name, s.Devices[sp.pair.Upstream].Name
+		c.Name = pairStem(d, u)
+		c.Subtitle = "pair " + u + " over " + d + " (failing grading margin, at " + kindWord(sp.kind) + " faults)"
+	default:
+		c.Name = pathStem(names)
+		if sp.kind == coord.Residual {
+			c.Name = truncateStem(c.Name + "-earth")
+		}
+		c.Subtitle = c.pathSubtitle(names)
+	}
+	return c
+}
+
+// pathSubtitle says which devices the chart draws and how it lies on its
+// path.
+func (c *Chart) pathSubtitle(names []string) string {
+	a, sp := c.atlas, c.spec
+	s := join(names) + " (downstream to source)"
+	whole := a.names(sp.path)
+	n := a.in.Study.Network
+	switch {
+	case sp.kind == coord.Residual && !slices.Equal(sp.devices, []int(sp.path)):
+		s += ": the ground stages on this part of the path that residual current reaches"
+	case sp.below >= 0 && sp.above >= 0:
+		s += "; part of path " + whole[0] + " to " + whole[len(whole)-1] + ", split at " + n.BranchName(sp.below) + " and " + n.BranchName(sp.above)
+	case sp.below >= 0 || sp.above >= 0:
+		b := sp.below
+		if b < 0 {
+			b = sp.above
+		}
+		s += "; part of path " + whole[0] + " to " + whole[len(whole)-1] + ", split at " + n.BranchName(b)
+	}
+	return s
 }
 
 // RefKV returns the voltage every current of the chart is referred to:
-// that of the bus of its most downstream device.
+// that of its most downstream device's bus by the rated winding ratios of
+// the transformers from the highest-voltage bus (coord.Topology.RatioKV),
+// so 0.433 for the LV side of an 11/0.433 kV transformer.
 func (c *Chart) RefKV() float64 {
 	c.build()
 	return c.refKV
@@ -58,10 +111,22 @@ func (c *Chart) CurrentRange() (minA, maxA float64) {
 	return c.xMin, c.xMax
 }
 
-// Traces returns the device curves as drawn, in axis units.
+// Traces returns the curves as drawn, in axis units: every device's own,
+// then the upstream curves drawn as they respond to a pair's worst fault
+// (kind SeenCurve).
 func (c *Chart) Traces() []Trace {
 	c.build()
-	return c.traces
+	out := slices.Clone(c.traces)
+	for _, s := range c.seen {
+		out = append(out, s.trace)
+	}
+	return out
+}
+
+// Looks returns the look of every device with a curve on the chart.
+func (c *Chart) Looks() map[int]Style {
+	c.build()
+	return c.looks
 }
 
 // Failing reports how many of the chart's pairs fail their grading margin.
@@ -77,76 +142,81 @@ func (c *Chart) Failing() int {
 }
 
 // factor returns the ratio that refers device i's currents to the chart's
-// voltage: the ratio of the two buses' nominal voltages.
-func (c *Chart) factor(i int) float64 { return c.atlas.kvOf(i) / c.refKV }
+// bus, by the transformers' rated winding ratios.
+func (c *Chart) factor(i int) float64 { return c.atlas.refer(i, c.refBus) }
+
+// axisLabel names the current axis: the voltage, and how currents of other
+// voltages were brought to it.
+func (c *Chart) axisLabel() string {
+	c.build()
+	s := "current (A at " + fmtKV(c.refKV) + " kV"
+	if c.referred {
+		s += ", referred by winding ratios"
+	}
+	return s + ")"
+}
+
+// fmtKV writes a voltage with at most four significant figures, so a ratio
+// of winding voltages shows as 0.433 and not as its rounding residue.
+func fmtKV(kv float64) string { return strconv.FormatFloat(kv, 'g', 4, 64) }
 
 // build computes everything drawn, once.
 func (c *Chart) build() {
-	if c.built {
-		return
-	}
-	c.built = true
-	c.refKV = c.atlas.kvOf(c.Devices[0])
-	c.levels = c.faultLevels()
-	c.loads = c.loadLines()
-	c.inrush = c.inrushMarks()
-	c.margins = c.marginMarks()
-	c.xMin, c.xMax = c.currentAxis()
-	for _, i := range c.Devices {
-		tr, bs := c.deviceTraces(i)
-		c.traces = append(c.traces, tr...)
-		c.bands = append(c.bands, bs...)
-	}
-	c.damages = c.damageCurves()
-	for k := range c.levels {
-		c.levels[k].timeS = c.levelTime(c.levels[k])
-	}
+	c.once.Do(func() {
+		a := c.atlas
+		c.refBus = a.bus(c.Devices[0])
+		c.refKV = a.in.Topology.RatioKV(c.refBus)
+		for _, i := range c.spec.members(a) {
+			if a.bus(i) != c.refBus && a.in.Topology.RatioKV(a.bus(i)) != c.refKV {
+				c.referred = true
+			}
+		}
+		c.looks = c.chartLooks()
+		c.margins = c.marginMarks()
+		var extra []float64
+		for _, m := range c.margins {
+			if m.drawable {
+				extra = append(extra, m.dA, m.uA)
+			}
+		}
+		c.xMin, c.xMax = a.axisSpan(c.Kind, c.Devices, c.spec.overlapTop, c.refBus, extra)
+		c.levels = c.faultLevels()
+		if c.Kind == coord.Phase {
+			c.loads = c.loadLines()
+			c.inrush = c.inrushMarks()
+			c.damages = c.damageCurves()
+		}
+		for _, i := range c.Devices {
+			tr, bs := c.deviceTraces(i)
+			c.traces = append(c.traces, tr...)
+			c.bands = append(c.bands, bs...)
+		}
+		c.seen = c.seenCurves()
+		for k := range c.levels {
+			c.levels[k].timeS = c.levelTime(c.levels[k])
+		}
+	})
 }
 
-// currentAxis chooses whole decades that hold every pickup, load, fault
-// level, inrush point and margin of the chart, with some room.
-func (c *Chart) currentAxis() (lo, hi float64) {
-	lo, hi = math.Inf(1), math.Inf(-1)
-	see := func(a float64) {
-		if a > 0 && !math.IsInf(a, 0) {
-			lo, hi = math.Min(lo, a), math.Max(hi, a)
+// chartLooks gives each device with a curve on the chart its look from the
+// study-wide assignment, and another where that would repeat a look
+// already on the chart (more devices drawn together than the study-wide
+// assignment could keep apart).
+func (c *Chart) chartLooks() map[int]Style {
+	looks := map[int]Style{}
+	var heldLook [styleCount]bool
+	var heldColour [len(deviceColours)]bool
+	for _, i := range c.spec.members(c.atlas) {
+		k := c.atlas.slots[i]
+		if heldLook[k] {
+			k = firstFree(heldLook[:], heldColour[:])
 		}
+		heldLook[k] = true
+		heldColour[styleOf(k).Colour] = true
+		looks[i] = styleOf(k)
 	}
-	s := c.atlas.in.Study
-	for _, i := range c.Devices {
-		d := &s.Devices[i]
-		f := c.factor(i)
-		see(d.Pickup(coord.Phase) * f)
-		see(d.Pickup(coord.Residual) * f)
-		for _, st := range d.Stages {
-			see(st.PickupA * f)
-		}
-		if d.Kind == coord.Fuse && d.Clear != nil {
-			l, h := d.Clear.Span()
-			see(l * f)
-			see(h * f)
-		}
-	}
-	for _, l := range c.levels {
-		see(l.a)
-	}
-	for _, l := range c.loads {
-		see(l.a)
-	}
-	for _, m := range c.inrush {
-		see(m.a)
-	}
-	for _, m := range c.margins {
-		see(m.dA)
-		see(m.uA)
-	}
-	if math.IsInf(lo, 1) {
-		return 1, 1e4
-	}
-	lo = math.Pow(10, math.Floor(math.Log10(lo/1.5)))
-	hi = math.Pow(10, math.Ceil(math.Log10(hi*1.5)))
-	if hi/lo < 100 {
-		hi = lo * 100
-	}
-	return lo, hi
+	return looks
 }
+
+// within reports whether a current lies on the axis.
+func (c *Chart) within(a float64) bool { return a >= c.xMin && a <= c.xMax }

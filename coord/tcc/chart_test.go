@@ -9,6 +9,8 @@ import (
 	"io"
 	"math"
 	"os"
+	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 
@@ -28,7 +30,7 @@ func loadAtlas(t *testing.T, path string, edit func(string) string) *Atlas {
 	if edit != nil {
 		text = edit(text)
 	}
-	s, err := study.Parse(path, []byte(text), nil)
+	s, err := study.Parse(path, []byte(text), os.DirFS(filepath.Dir(path)))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -77,32 +79,33 @@ func traceOf(t *testing.T, c *Chart, dev int, kind TraceKind) Trace {
 func TestCurvesWhereTheFormulasPutThem(t *testing.T) {
 	a := loadAtlas(t, twoVoltage, nil)
 	charts := a.Charts()
-	if len(charts) != 1 || charts[0].Name != "path-R11--R33" {
-		t.Fatalf("charts %v, want one named path-R11--R33", chartNames(charts))
+	if got := chartNames(charts); !slices.Equal(got, []string{"path-R11--R33", "path-R11-earth"}) {
+		t.Fatalf("charts %v, want the phase chart path-R11--R33 and the earth chart path-R11-earth", got)
 	}
-	c := charts[0]
+	phase, earth := charts[0], charts[1]
 	r11, r33 := a.Device("R11"), a.Device("R33")
-	if got := c.RefKV(); got != 11 {
+	if got := phase.RefKV(); got != 11 {
 		t.Fatalf("RefKV %g, want 11 (the most downstream device's bus)", got)
 	}
 	cases := []struct {
 		name     string
+		chart    *Chart
 		dev      int
 		kind     TraceKind
 		currentA float64 // on the 11 kV axis
 		want     float64
 	}{
 		// R11: 200 A, TMS 0.1, on its own voltage.
-		{"R11 phase at 10× pickup", r11, PhaseCurve, 2000, iecSIAt10 * 0.1},
-		// R11 51N: 40 A, TMS 0.2.
-		{"R11 ground at 10× pickup", r11, GroundCurve, 400, iecSIAt10 * 0.2},
+		{"R11 phase at 10× pickup", phase, r11, PhaseCurve, 2000, iecSIAt10 * 0.1},
+		// R11 51N: 40 A, TMS 0.2, on the earth chart.
+		{"R11 ground at 10× pickup", earth, r11, GroundCurve, 400, iecSIAt10 * 0.2},
 		// R33: 100 A at 33 kV, TMS 0.5: 10× pickup is 1000 A at 33 kV,
-		// drawn at 3000 A on the 11 kV axis.
-		{"R33 at 10× pickup, referred 33/11", r33, PhaseCurve, 3000, iecSIAt10 * 0.5},
+		// drawn at 3000 A on the 11 kV axis (winding ratio 33/11).
+		{"R33 at 10× pickup, referred 33/11", phase, r33, PhaseCurve, 3000, iecSIAt10 * 0.5},
 	}
 	for _, tc := range cases {
 		t.Run(tc.name, func(t *testing.T) {
-			got, ok := traceOf(t, c, tc.dev, tc.kind).TimeAt(tc.currentA)
+			got, ok := traceOf(t, tc.chart, tc.dev, tc.kind).TimeAt(tc.currentA)
 			if !ok || math.Abs(got/tc.want-1) > curveTol {
 				t.Errorf("time at %g A: got %g s (drawn %v), want %g s", tc.currentA, got, ok, tc.want)
 			}
@@ -110,31 +113,44 @@ func TestCurvesWhereTheFormulasPutThem(t *testing.T) {
 	}
 	// Unreferred, R33's 10× point would sit at 1000 A; there the drawn
 	// curve is far slower (1000 A is only 3.3× its referred pickup).
-	if got, _ := traceOf(t, c, r33, PhaseCurve).TimeAt(1000); math.Abs(got/(iecSIAt10*0.5)-1) < 0.5 {
+	if got, _ := traceOf(t, phase, r33, PhaseCurve).TimeAt(1000); math.Abs(got/(iecSIAt10*0.5)-1) < 0.5 {
 		t.Errorf("R33 at 1000 A on the 11 kV axis: %g s, as if not referred", got)
 	}
 	// Below pickup the device does not operate: no line there.
-	if _, ok := traceOf(t, c, r33, PhaseCurve).TimeAt(250); ok {
+	if _, ok := traceOf(t, phase, r33, PhaseCurve).TimeAt(250); ok {
 		t.Errorf("R33 drawn at 250 A, below its 300 A referred pickup")
+	}
+	// Phase and earth apart: no ground curve on the phase chart, only
+	// ground curves on the earth chart, and R33 (no ground stage) not on it.
+	for _, tr := range phase.Traces() {
+		if tr.Kind == GroundCurve {
+			t.Errorf("a ground curve of device %d on the phase chart", tr.Device)
+		}
+	}
+	for _, tr := range earth.Traces() {
+		if tr.Kind != GroundCurve || tr.Device != r11 {
+			t.Errorf("a %s curve of device %d on the earth chart", tr.Kind, tr.Device)
+		}
 	}
 }
 
 func TestToleranceBand(t *testing.T) {
 	a := loadAtlas(t, twoVoltage, nil)
-	c := a.Charts()[0]
 	r11, r33 := a.Device("R11"), a.Device("R33")
-	c.build()
 	var got []band
-	for _, b := range c.bands {
-		if b.device == r33 {
-			t.Errorf("R33 declares no accuracy but has a band")
-		}
-		if b.device == r11 {
-			got = append(got, b)
+	for _, c := range a.Charts() {
+		c.build()
+		for _, b := range c.bands {
+			if b.device == r33 {
+				t.Errorf("R33 declares no accuracy but has a band")
+			}
+			if b.device == r11 {
+				got = append(got, b)
+			}
 		}
 	}
 	if len(got) != 2 {
-		t.Fatalf("R11 has %d bands, want 2 (phase and ground)", len(got))
+		t.Fatalf("R11 has %d bands, want 2 (phase on one chart, ground on the other)", len(got))
 	}
 	// IEC 60255-151 cl. 5.2 with "5 % or 40 ms": at 10× setting the class
 	// counts once (5 % of 0.297 s = 15 ms), so the 40 ms floor governs; at
@@ -223,10 +239,10 @@ func TestFailingPairGetsItsChart(t *testing.T) {
 	a := loadAtlas(t, twoVoltage, func(s string) string { return strings.Replace(s, "tms = 0.5", "tms = 0.05", 1) })
 	charts := a.Charts()
 	names := chartNames(charts)
-	if len(charts) != 2 || names[1] != "pair-R11-under-R33" {
-		t.Fatalf("charts %v, want the path and pair-R11-under-R33", names)
+	if len(charts) != 3 || names[2] != "pair-R11-under-R33" {
+		t.Fatalf("charts %v, want the path's two and pair-R11-under-R33", names)
 	}
-	pc := charts[1]
+	pc := charts[2]
 	if pc.Failing() != 1 {
 		t.Errorf("pair chart counts %d failing pairs, want 1", pc.Failing())
 	}
@@ -241,7 +257,7 @@ func TestFailingPairGetsItsChart(t *testing.T) {
 		m.dS != f.Fault.DeviceS || m.uS != f.Fault.OtherS {
 		t.Errorf("margin %+v, want the finding's point %+v with the upstream current ×3", m, *f.Fault)
 	}
-	if got := marginText(f); !strings.Contains(got, " < 0.30 s") {
+	if got := marginText(f); !strings.Contains(got, " < 0.30\u00a0s") {
 		t.Errorf("margin text %q, want it to say it is below 0.30 s", got)
 	}
 	var buf bytes.Buffer
@@ -263,8 +279,8 @@ func TestSVGAndSizes(t *testing.T) {
 	if err := c.Render(&buf, SVG, Settings{}); err != nil {
 		t.Fatal(err)
 	}
-	if !strings.Contains(buf.String(), "<svg") || !strings.Contains(buf.String(), "R33") {
-		t.Errorf("SVG output lacks <svg> or the device names")
+	if !strings.Contains(buf.String(), "<svg") || !strings.Contains(buf.String(), "<title>Two-voltage test · phase-fault curves · R11 → R33") {
+		t.Errorf("SVG output lacks <svg> or a title naming the chart")
 	}
 	buf.Reset()
 	if err := c.Render(&buf, PNG, Settings{WidthPx: 800, HeightPx: 600, DPI: 80}); err != nil {
@@ -303,8 +319,9 @@ func chartNames(cs []*Chart) []string {
 	return out
 }
 
-// TestSVGEscapesUserText: a device name carrying markup appears as text in
-// the SVG, which stays well-formed XML.
+// TestSVGEscapesUserText: a device name carrying markup appears escaped in
+// the SVG's title (the picture's own text is outlines), and the SVG stays
+// well-formed XML.
 func TestSVGEscapesUserText(t *testing.T) {
 	a := loadAtlas(t, twoVoltage, func(s string) string {
 		return strings.Replace(s, `name = "R33"`, `name = "R33 <script>alert(1)</script> & co"`, 1)

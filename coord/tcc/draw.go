@@ -13,9 +13,12 @@ import (
 
 // layers draws everything inside the plot's data area, in a fixed order:
 // grid, shaded bands, damage curves, load and fault-level lines, device
-// curves, marks, margins and last the labels, which are placed so that
-// they do not cover each other.
-type layers struct{ c *Chart }
+// curves, the curves seen at a worst fault, marks, margins and last the
+// labels, placed beforehand (layoutLabels) so that none covers another.
+type layers struct {
+	c   *Chart
+	lay *layout
+}
 
 var _ plot.Plotter = layers{}
 
@@ -49,14 +52,17 @@ func (l layers) Plot(dc draw.Canvas, p *plot.Plot) {
 		dc.StrokeLine2(sty, x, dc.Min.Y, x, dc.Max.Y)
 	}
 	for _, t := range c.traces {
-		sty := draw.LineStyle{Color: c.colour(t.Device), Width: vg.Points(curveWidth)}
-		switch t.Kind {
-		case GroundCurve:
-			sty.Dashes = groundDashes
-		case MeltCurve:
+		sty := draw.LineStyle{Color: c.colour(t.Device), Width: vg.Points(curveWidth), Dashes: c.looks[t.Device].dashes()}
+		if t.Kind == MeltCurve {
 			sty.Width = vg.Points(meltWidth)
 		}
 		for _, run := range t.Runs {
+			dc.StrokeLines(sty, dc.ClipLinesXY(project(run, at))...)
+		}
+	}
+	for _, s := range c.seen {
+		sty := draw.LineStyle{Color: c.colour(s.trace.Device), Width: vg.Points(seenWidth), Dashes: c.looks[s.trace.Device].dashes()}
+		for _, run := range s.trace.Runs {
 			dc.StrokeLines(sty, dc.ClipLinesXY(project(run, at))...)
 		}
 	}
@@ -72,14 +78,14 @@ func (l layers) Plot(dc draw.Canvas, p *plot.Plot) {
 	}
 	for _, m := range c.margins {
 		if m.drawable {
-			drawBracket(dc, at, m, c.colour(m.pair.Downstream), c.colour(m.pair.Upstream))
+			c.drawBracket(dc, at, m)
 		}
 	}
-	newPlacer(dc, at, c).placeAll()
+	drawLabels(dc, l.lay)
 }
 
 // colour returns the colour of device i.
-func (c *Chart) colour(i int) color.NRGBA { return colourFor(c.atlas.slots[i]) }
+func (c *Chart) colour(i int) color.NRGBA { return c.looks[i].colour() }
 
 // project maps a run of chart points to the canvas.
 func project(run []Point, at func(Point) vg.Point) []vg.Point {
@@ -172,66 +178,84 @@ func hatched(dc draw.Canvas, pts []vg.Point) {
 	}
 }
 
+// bracket is where a pair's margin is drawn: the downstream device's
+// operating point d, the bracket's upper end e at the upstream device's
+// time, the upstream device's own operating point u, the bracket's middle,
+// the box of the bracket with the required interval beside it, and the
+// radius of the ring round a failing one (0: none).
+type bracket struct {
+	d, e, u, mid vg.Point
+	req          vg.Length // top of the required interval, when drawn
+	hasReq       bool
+	bar          vg.Rectangle
+	ringR        vg.Length
+}
+
+// bracketGeometry lays out a margin's bracket.
+func (c *Chart) bracketGeometry(m margin, at func(Point) vg.Point) bracket {
+	clampS := func(s float64) float64 { return math.Min(math.Max(s, floorS), TimeMaxS) }
+	g := bracket{
+		d: at(Point{m.dA, clampS(m.dS)}),
+		e: at(Point{m.dA, clampS(m.uS)}),
+		u: at(Point{m.uA, clampS(m.uS)}),
+	}
+	g.mid = vg.Point{X: g.d.X, Y: (g.d.Y + g.e.Y) / 2}
+	lo, hi := min(g.d.Y, g.e.Y), max(g.d.Y, g.e.Y)
+	if r := m.f.Required; m.f.Unit == "s" && r > 0 {
+		g.req, g.hasReq = at(Point{m.dA, clampS(m.dS + r)}).Y, true
+		lo, hi = min(lo, g.req), max(hi, g.req)
+	}
+	g.bar = vg.Rectangle{Min: vg.Point{X: g.d.X - vg.Points(10), Y: lo - vg.Points(dotRadius+1)},
+		Max: vg.Point{X: g.d.X + vg.Points(5), Y: hi + vg.Points(dotRadius+1)}}
+	if span := max(g.d.Y, g.e.Y) - min(g.d.Y, g.e.Y); m.f.Verdict == coord.Fail && span < vg.Points(30) {
+		g.ringR = vg.Points(11) + span/2
+	}
+	return g
+}
+
 // drawBracket draws a pair's margin at its worst fault: a vertical bracket
 // at the downstream device's current between the two devices' times, with
-// a dot on each device's own operating point. When the upstream device
-// sees a different current (a share of the fault through parallel
-// incomers, or the current on the other side of a transformer), a dotted
-// link joins its own operating point to the bracket's end.
-func drawBracket(dc draw.Canvas, at func(Point) vg.Point, m margin, dCol, uCol color.NRGBA) {
+// a dot on each device's own operating point, and beside it, dashed, the
+// interval the criteria require. When the upstream device sees another
+// current (a share of the fault through parallel incomers, or the current
+// on the other side of a transformer), a dotted link joins its own
+// operating point to the bracket's end; the curve drawn as seen at that
+// fault (seenCurves) passes through the end itself. A short failing
+// bracket is ringed, so it is found at a glance.
+func (c *Chart) drawBracket(dc draw.Canvas, at func(Point) vg.Point, m margin) {
+	g := c.bracketGeometry(m, at)
 	fail := m.f.Verdict == coord.Fail
 	col, w := passColour, bracketWidth
 	if fail {
 		col, w = failColour, failBracketW
 	}
-	clampS := func(s float64) float64 { return math.Min(math.Max(s, floorS), TimeMaxS) }
-	d := at(Point{m.dA, clampS(m.dS)})
-	e := at(Point{m.dA, clampS(m.uS)})
-	u := at(Point{m.uA, clampS(m.uS)})
 	sty := draw.LineStyle{Color: col, Width: vg.Points(w)}
 	if fail {
 		halo := draw.LineStyle{Color: withAlpha(failColour, 0x40), Width: vg.Points(w + 5)}
-		dc.StrokeLine2(halo, d.X, d.Y, e.X, e.Y)
+		dc.StrokeLine2(halo, g.d.X, g.d.Y, g.e.X, g.e.Y)
 	}
-	dc.StrokeLine2(sty, d.X, d.Y, e.X, e.Y)
+	dc.StrokeLine2(sty, g.d.X, g.d.Y, g.e.X, g.e.Y)
 	capW := vg.Points(4)
-	for _, y := range []vg.Length{d.Y, e.Y} {
-		dc.StrokeLine2(sty, d.X-capW, y, d.X+capW, y)
+	for _, y := range []vg.Length{g.d.Y, g.e.Y} {
+		dc.StrokeLine2(sty, g.d.X-capW, y, g.d.X+capW, y)
 	}
 	if math.Abs(math.Log(m.uA/m.dA)) > 0.01 {
-		dc.StrokeLine2(draw.LineStyle{Color: col, Width: vg.Points(0.8), Dashes: linkDashes}, u.X, u.Y, e.X, e.Y)
+		dc.StrokeLine2(draw.LineStyle{Color: col, Width: vg.Points(0.8), Dashes: linkDashes}, g.u.X, g.u.Y, g.e.X, g.e.Y)
 	}
-	if r := m.f.Required; m.f.Unit == "s" && r > 0 {
-		// The interval the criteria require above the downstream time: where
-		// the upstream device's time should be at least.
-		q := at(Point{m.dA, clampS(m.dS + r)})
-		x := d.X - vg.Points(7)
+	if g.hasReq {
+		x := g.d.X - vg.Points(7)
 		req := draw.LineStyle{Color: col, Width: vg.Points(0.9), Dashes: linkDashes}
-		dc.StrokeLine2(req, x, d.Y, x, q.Y)
-		dc.StrokeLine2(draw.LineStyle{Color: col, Width: vg.Points(0.9)}, x-vg.Points(2.5), q.Y, x+vg.Points(2.5), q.Y)
+		dc.StrokeLine2(req, x, g.d.Y, x, g.req)
+		dc.StrokeLine2(draw.LineStyle{Color: col, Width: vg.Points(0.9)}, x-vg.Points(2.5), g.req, x+vg.Points(2.5), g.req)
 	}
-	if fail && ringed(d, e) {
-		// A ring round a failing margin, so it is found at a glance even
-		// when the bracket itself is short.
-		mid := vg.Point{X: d.X, Y: (d.Y + e.Y) / 2}
-		r := ringRadius(d, e)
+	if g.ringR > 0 {
 		var ring vg.Path
-		ring.Move(vg.Point{X: mid.X + r, Y: mid.Y})
-		ring.Arc(mid, r, 0, 2*math.Pi)
+		ring.Move(vg.Point{X: g.mid.X + g.ringR, Y: g.mid.Y})
+		ring.Arc(g.mid, g.ringR, 0, 2*math.Pi)
 		ring.Close()
 		dc.SetLineStyle(draw.LineStyle{Color: failColour, Width: vg.Points(1.4)})
 		dc.Stroke(ring)
 	}
-	dc.DrawGlyph(draw.GlyphStyle{Color: dCol, Radius: vg.Points(dotRadius + 0.8), Shape: draw.CircleGlyph{}}, d)
-	dc.DrawGlyph(draw.GlyphStyle{Color: uCol, Radius: vg.Points(dotRadius + 0.8), Shape: draw.CircleGlyph{}}, u)
+	dc.DrawGlyph(draw.GlyphStyle{Color: c.colour(m.pair.Downstream), Radius: vg.Points(dotRadius + 0.8), Shape: draw.CircleGlyph{}}, g.d)
+	dc.DrawGlyph(draw.GlyphStyle{Color: c.colour(m.pair.Upstream), Radius: vg.Points(dotRadius + 0.8), Shape: draw.CircleGlyph{}}, g.u)
 }
-
-// ringRadius is the radius of the ring round a failing bracket from d to
-// e: clear of its ends by 11 points.
-func ringRadius(d, e vg.Point) vg.Length {
-	return vg.Points(11) + (max(d.Y, e.Y)-min(d.Y, e.Y))/2
-}
-
-// ringed reports whether a failing bracket from d to e is short enough to
-// need a ring to be seen; a longer one stands out by itself.
-func ringed(d, e vg.Point) bool { return max(d.Y, e.Y)-min(d.Y, e.Y) < vg.Points(30) }

@@ -22,7 +22,11 @@ func (c *Chart) markKey() []keyEntry {
 		return func(dc draw.Canvas, x0, x1, y vg.Length) { dc.StrokeLine2(sty, x0, y, x1, y) }
 	}
 	if len(c.levels) > 0 {
-		out = append(out, keyEntry{"fault level seen by the device over its zone: solid max, dotted min (3I0: residual); ring: its time there",
+		what := "fault level seen by the device over its zone"
+		if c.Kind == coord.Residual {
+			what = "residual (3I0) fault level seen by the device over its zone"
+		}
+		out = append(out, keyEntry{what + ": solid max, dotted min; ring: its time there",
 			func(dc draw.Canvas, x0, x1, y vg.Length) {
 				sty := draw.LineStyle{Color: passColour, Width: vg.Points(markWidth)}
 				m := (x0 + x1) / 2
@@ -37,15 +41,19 @@ func (c *Chart) markKey() []keyEntry {
 				dc.FillPolygon(withAlpha(passColour, bandAlpha+0x10), []vg.Point{{X: x0, Y: y - 3}, {X: x1, Y: y - 3}, {X: x1, Y: y + 3}, {X: x0, Y: y + 3}})
 			}})
 	}
+	if len(c.seen) > 0 {
+		out = append(out, keyEntry{"thin line in a device's colour: an upstream device's curve as it responds to the kind of fault of a pair's worst margin, drawn against the downstream device's current (I × the ratio of the two currents at that fault)",
+			line(draw.LineStyle{Color: passColour, Width: vg.Points(seenWidth)})})
+	}
 	if len(c.damages) > 0 {
-		out = append(out, keyEntry{"damage curve (C57.109 through-fault, cable adiabatic I²t); ticks on the damage side",
+		out = append(out, keyEntry{"damage curve (C57.109 through-fault, cable adiabatic I²t) of equipment on this part of the path; ticks on the damage side",
 			func(dc draw.Canvas, x0, x1, y vg.Length) {
 				hatched(dc, []vg.Point{{X: x0, Y: y - 2}, {X: x1, Y: y - 2}})
 			}})
 	}
 	if len(c.inrush) > 0 {
 		crit := c.atlas.in.Study.Criteria
-		out = append(out, keyEntry{fmt.Sprintf("inrush: %g × full-load current of the transformers energised, %g s", crit.InrushMultiple, crit.InrushTimeS),
+		out = append(out, keyEntry{fmt.Sprintf("inrush: %g × full-load current of the path's transformers a device energises, %g s", crit.InrushMultiple, crit.InrushTimeS),
 			func(dc draw.Canvas, x0, x1, y vg.Length) {
 				(draw.CrossGlyph{}).DrawGlyph(&dc, draw.GlyphStyle{Color: inkColour, Radius: vg.Points(3.2)}, vg.Point{X: (x0 + x1) / 2, Y: y})
 			}})
@@ -71,6 +79,8 @@ func (c *Chart) markKey() []keyEntry {
 				dc.StrokeLine2(sty, m-4, y+5, m+4, y+5)
 			}})
 	}
-	out = append(out, keyEntry{fmt.Sprintf("every current on the plot, labels included, is referred to %g kV by the ratio of nominal bus voltages; the key above gives each device's own", c.refKV), nil})
+	if c.referred {
+		out = append(out, keyEntry{fmt.Sprintf("every current on the plot, labels included, is referred to %s kV by the transformers' rated winding ratios; the key above gives each device's own", fmtKV(c.refKV)), nil})
+	}
 	return out
 }

@@ -3,6 +3,7 @@ package tcc
 import (
 	"image/color"
 	"math"
+	"strings"
 
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
@@ -10,20 +11,23 @@ import (
 	"tripgrade/coord"
 )
 
-// placer puts labels on the data area greedily, most important first, each
-// at the first of its candidate places that neither leaves the area nor
-// covers a label already placed. A label with no free place goes to its
-// first candidate. Every label has a pale backing so a curve under it
-// does not make it unreadable.
-type placer struct {
-	dc    draw.Canvas
-	at    func(Point) vg.Point
-	c     *Chart
-	taken []vg.Rectangle
+// layout is where the labels of a chart's data area go: each placed label
+// with its box, the marks no label may cover, and the texts that found no
+// free place (the key lists them instead). A label is never drawn over
+// another, over a mark, or across the edge of the data area.
+type layout struct {
+	area      vg.Rectangle
+	placed    []placedLabel
+	obstacles []vg.Rectangle
+	dropped   []string
 }
 
-func newPlacer(dc draw.Canvas, at func(Point) vg.Point, c *Chart) *placer {
-	return &placer{dc: dc, at: at, c: c}
+// placedLabel is a label in its box, with a leader line to what it names
+// when it had to sit away from it.
+type placedLabel struct {
+	label
+	box    vg.Rectangle
+	leader *[2]vg.Point
 }
 
 // label is one text to place: its lines, drawn from the top down.
@@ -34,30 +38,53 @@ type label struct {
 
 func (l label) size() (w, h vg.Length) {
 	for k, s := range l.lines {
-		r := l.styles[k].Rectangle(s)
-		w = max(w, r.Size().X)
-		h += r.Size().Y
+		lw, lh := measure(l.styles[k], s)
+		w = max(w, lw)
+		h += lh
 	}
 	return w + 2*labelPad, h + 2*labelPad
 }
 
 const labelPad = 1.2 // points around a label's text
 
-// box returns the rectangle of a label whose anchor corner is at pt; ax
-// and ay (0 or 1) choose the anchor: the left or right edge, the bottom or
-// top edge; 0.5 centres.
+// box returns the rectangle of a label whose anchor is at pt; ax and ay
+// (0 or 1) choose the anchor: the left or right edge, the bottom or top
+// edge; 0.5 centres.
 func (l label) box(pt vg.Point, ax, ay float64) vg.Rectangle {
 	w, h := l.size()
-	min := vg.Point{X: pt.X - vg.Length(ax)*w, Y: pt.Y - vg.Length(ay)*h}
-	return vg.Rectangle{Min: min, Max: vg.Point{X: min.X + w, Y: min.Y + h}}
+	lo := vg.Point{X: pt.X - vg.Length(ax)*w, Y: pt.Y - vg.Length(ay)*h}
+	return vg.Rectangle{Min: lo, Max: vg.Point{X: lo.X + w, Y: lo.Y + h}}
+}
+
+func oneLine(s string, col color.Color, bold bool) label {
+	return label{lines: []string{s}, styles: []draw.TextStyle{textStyle(textSize, col, bold)}}
 }
 
 func overlaps(a, b vg.Rectangle) bool {
 	return a.Min.X < b.Max.X && b.Min.X < a.Max.X && a.Min.Y < b.Max.Y && b.Min.Y < a.Max.Y
 }
 
+func shifted(r vg.Rectangle, dx, dy vg.Length) vg.Rectangle {
+	return vg.Rectangle{Min: vg.Point{X: r.Min.X + dx, Y: r.Min.Y + dy}, Max: vg.Point{X: r.Max.X + dx, Y: r.Max.Y + dy}}
+}
+
+// around returns a square of half-side r about pt.
+func around(pt vg.Point, r vg.Length) vg.Rectangle {
+	return vg.Rectangle{Min: vg.Point{X: pt.X - r, Y: pt.Y - r}, Max: vg.Point{X: pt.X + r, Y: pt.Y + r}}
+}
+
+// placer puts labels greedily, most important first, each in the first of
+// its candidate boxes that lies inside the area and covers neither a
+// label already placed nor a mark.
+type placer struct {
+	lay   *layout
+	taken []vg.Rectangle
+	occ   *occupancy
+}
+
 func (p *placer) inside(r vg.Rectangle) bool {
-	return r.Min.X >= p.dc.Min.X && r.Max.X <= p.dc.Max.X && r.Min.Y >= p.dc.Min.Y && r.Max.Y <= p.dc.Max.Y
+	a := p.lay.area
+	return r.Min.X >= a.Min.X && r.Max.X <= a.Max.X && r.Min.Y >= a.Min.Y && r.Max.Y <= a.Max.Y
 }
 
 func (p *placer) free(r vg.Rectangle) bool {
@@ -69,212 +96,198 @@ func (p *placer) free(r vg.Rectangle) bool {
 			return false
 		}
 	}
+	for _, t := range p.lay.obstacles {
+		if overlaps(r, t) {
+			return false
+		}
+	}
 	return true
 }
 
-// place draws l in the first free candidate box (or the first one).
-func (p *placer) place(l label, boxes []vg.Rectangle) {
-	if len(boxes) == 0 {
-		return
-	}
-	pick, found := boxes[0], false
-	for _, b := range boxes {
-		if p.inside(b) {
-			pick = b // the fallback: inside the area, if overlapping
-			break
-		}
-	}
-	for _, b := range boxes {
-		if p.free(b) {
-			pick, found = b, true
-			break
-		}
-	}
-	// Failing that, the candidates moved up or down by half a label's
-	// height at a time.
-	h := boxes[0].Size().Y / 2
-	for k := 1; k <= 12 && !found; k++ {
-		for _, b := range boxes {
-			for _, sgn := range []vg.Length{1, -1} {
-				dy := sgn * vg.Length(k) * h
-				m := vg.Rectangle{Min: vg.Point{X: b.Min.X, Y: b.Min.Y + dy}, Max: vg.Point{X: b.Max.X, Y: b.Max.Y + dy}}
-				if !found && p.free(m) {
-					pick, found = m, true
-				}
-			}
-		}
-	}
-	p.taken = append(p.taken, pick)
-	p.dc.FillPolygon(labelBacking, []vg.Point{pick.Min, {X: pick.Max.X, Y: pick.Min.Y}, pick.Max, {X: pick.Min.X, Y: pick.Max.Y}})
-	y := pick.Max.Y - labelPad
-	for k, s := range l.lines {
-		sty := l.styles[k]
-		sty.XAlign, sty.YAlign = draw.XLeft, draw.YTop
-		p.dc.FillText(sty, vg.Point{X: pick.Min.X + labelPad, Y: y}, s)
-		y -= sty.Rectangle(s).Size().Y
-	}
+// placeOpts say how a label prefers its place: it should hide no curve
+// of another owner than owner (anyOwner: of any owner), preferably within
+// within of near when near is given; with leader, a label placed further
+// than leaderAfter from near gets a line to it.
+type placeOpts struct {
+	owner  int
+	near   *vg.Point
+	within vg.Length
+	leader bool
 }
 
-// placeAll places the chart's labels: margins first, then device names,
-// then fault levels and loads, inrush points and damage curves.
-func (p *placer) placeAll() {
-	c := p.c
-	for _, m := range c.margins {
-		if m.drawable {
-			p.placeMargin(m)
-		}
-	}
-	for _, i := range c.Devices {
-		p.placeName(i)
-	}
-	for _, l := range c.levels {
-		p.placeVertical(l.a, l.label, c.colour(l.device))
-	}
-	for _, v := range c.loads {
-		p.placeVertical(v.a, v.label, passColour)
-	}
-	for _, m := range c.inrush {
-		pt := p.at(Point{m.a, m.timeS})
-		l := oneLine(m.label, inkColour, false)
-		gap := vg.Points(4)
-		p.place(l, []vg.Rectangle{
-			l.box(vg.Point{X: pt.X + gap, Y: pt.Y}, 0, 0.5),
-			l.box(vg.Point{X: pt.X - gap, Y: pt.Y}, 1, 0.5),
-			l.box(vg.Point{X: pt.X, Y: pt.Y + gap}, 0.5, 0),
-			l.box(vg.Point{X: pt.X, Y: pt.Y - gap}, 0.5, 1),
-		})
-	}
-	for _, d := range c.damages {
-		p.placeAlong(oneLine(d.label, equipmentColour, false), d.runs)
-	}
-}
-
-func oneLine(s string, col color.Color, bold bool) label {
-	return label{lines: []string{s}, styles: []draw.TextStyle{textStyle(textSize, col, bold)}}
-}
-
-// placeMargin writes a pair's margin beside its bracket: the figures, and
-// which pair it is.
-func (p *placer) placeMargin(m margin) {
-	c := p.c
-	fail := m.f.Verdict == coord.Fail
-	col := passColour
-	if fail {
-		col = failColour
-	}
-	s := c.atlas.in.Study
-	pair := s.Devices[m.pair.Upstream].Name + " over " + s.Devices[m.pair.Downstream].Name
-	head := marginText(m.f)
-	if fail {
-		head = "FAIL " + head
-	}
-	l := label{lines: []string{head, pair},
-		styles: []draw.TextStyle{textStyle(textSize+1, col, true), textStyle(textSize, col, false)}}
-	clampS := func(t float64) float64 { return math.Min(math.Max(t, floorS), TimeMaxS) }
-	d := p.at(Point{m.dA, clampS(m.dS)})
-	e := p.at(Point{m.dA, clampS(m.uS)})
-	top := e.Y
-	if r := m.f.Required; m.f.Unit == "s" && r > 0 {
-		top = max(top, p.at(Point{m.dA, clampS(m.dS + r)}).Y)
-	}
-	// The bracket and the required interval left of it stay uncovered.
-	bar := vg.Rectangle{Min: vg.Point{X: d.X - vg.Points(10), Y: min(d.Y, e.Y, top)}, Max: vg.Point{X: d.X + vg.Points(4), Y: max(d.Y, e.Y, top)}}
-	p.taken = append(p.taken, bar)
-	mid := vg.Point{X: d.X, Y: (d.Y + e.Y) / 2}
-	gap := vg.Points(6)
-	left := vg.Points(11) // clear of the required interval
-	if fail && ringed(d, e) {
-		// Clear of the ring drawBracket puts round a failing margin.
-		r := ringRadius(d, e)
-		gap, left = r+vg.Points(2), r+vg.Points(2)
-	}
-	_, h := l.size()
-	var boxes []vg.Rectangle
-	for k := 0; k <= 6; k++ {
-		dy := vg.Length(k) * h / 2
-		for _, sgn := range []vg.Length{1, -1} {
-			boxes = append(boxes,
-				l.box(vg.Point{X: mid.X + gap, Y: mid.Y + sgn*dy}, 0, 0.5),
-				l.box(vg.Point{X: mid.X - left, Y: mid.Y + sgn*dy}, 1, 0.5))
-			if k == 0 {
-				break
-			}
-		}
-	}
-	p.place(l, boxes)
-}
-
-// placeName writes a device's name beside its main curve, trying points of
-// the curve from long times to short.
-func (p *placer) placeName(i int) {
-	c := p.c
-	var main *Trace
-	for k := range c.traces {
-		t := &c.traces[k]
-		if t.Device == i && (main == nil || t.Kind == PhaseCurve || t.Kind == ClearCurve && main.Kind == MeltCurve) {
-			main = t
-		}
-	}
-	if main == nil {
-		return
-	}
-	l := oneLine(c.atlas.in.Study.Devices[i].Name, c.colour(i), true)
-	gap := vg.Points(2.5)
-	var boxes []vg.Rectangle
-	for _, ts := range []float64{300, 100, 30, 10, 3, 1, 0.3, 0.1, 0.03} {
-		a, ok := main.currentFor(ts)
-		if !ok {
+// place puts l in a free candidate box and reports whether it found one;
+// a label without a free box is listed as dropped. It takes the first
+// free box that hides no curve (see placeOpts) near enough, failing that
+// the first free box.
+func (p *placer) place(l label, boxes []vg.Rectangle, o placeOpts) bool {
+	pick := -1
+	for k, b := range boxes {
+		if o.near != nil && o.within > 0 && dist(nearestOn(b, *o.near), *o.near) > o.within {
 			continue
 		}
-		pt := p.at(Point{a, ts})
-		boxes = append(boxes, l.box(vg.Point{X: pt.X + gap, Y: pt.Y + gap}, 0, 0),
-			l.box(vg.Point{X: pt.X - gap, Y: pt.Y - gap}, 1, 1))
+		if p.free(b) && p.occ.count(b, o.owner) == 0 {
+			pick = k
+			break
+		}
 	}
-	p.place(l, boxes)
+	for k := 0; pick < 0 && k < len(boxes); k++ {
+		if p.free(boxes[k]) {
+			pick = k
+		}
+	}
+	if pick < 0 {
+		p.lay.dropped = append(p.lay.dropped, strings.Join(l.lines, " "))
+		return false
+	}
+	b := boxes[pick]
+	p.taken = append(p.taken, b)
+	pl := placedLabel{label: l, box: b}
+	if o.leader && o.near != nil {
+		if q := nearestOn(b, *o.near); dist(q, *o.near) > leaderAfter {
+			pl.leader = &[2]vg.Point{q, *o.near}
+		}
+	}
+	p.lay.placed = append(p.lay.placed, pl)
+	return true
 }
 
-// placeVertical writes the label of a vertical line in the first free
-// lane from the top of the plot, to the right of the line or else to its
-// left.
-func (p *placer) placeVertical(a float64, text string, col color.Color) {
-	l := oneLine(text, col, false)
-	x := p.at(Point{a, 1}).X
-	_, h := l.size()
-	gap := vg.Points(1.5)
-	var boxes []vg.Rectangle
-	for lane := 0; lane < 40; lane++ {
-		y := p.dc.Max.Y - vg.Points(1) - vg.Length(lane)*(h+vg.Points(0.5))
-		boxes = append(boxes, l.box(vg.Point{X: x + gap, Y: y}, 0, 1), l.box(vg.Point{X: x - gap, Y: y}, 1, 1))
-	}
-	p.place(l, boxes)
+// anyOwner counts the curves of every owner as hidden.
+const anyOwner = -2
+
+// leaderAfter is how far a label may sit from what it names before a line
+// joins them.
+const leaderAfter = vg.Length(14)
+
+func nearestOn(r vg.Rectangle, pt vg.Point) vg.Point {
+	return vg.Point{X: min(max(pt.X, r.Min.X), r.Max.X), Y: min(max(pt.Y, r.Min.Y), r.Max.Y)}
 }
 
-// placeAlong writes a label beside a curve, trying points from its start.
-func (p *placer) placeAlong(l label, runs [][]Point) {
-	var boxes []vg.Rectangle
-	gap := vg.Points(3)
-	for _, run := range runs {
-		for k := 0; k < len(run); k += max(1, len(run)/12) {
-			pt := p.at(run[k])
-			if p.dc.Contains(pt) {
-				boxes = append(boxes, l.box(vg.Point{X: pt.X + gap, Y: pt.Y + gap}, 0, 0),
-					l.box(vg.Point{X: pt.X - gap, Y: pt.Y - gap}, 1, 1))
+func dist(a, b vg.Point) vg.Length {
+	return vg.Length(math.Hypot(float64(a.X-b.X), float64(a.Y-b.Y)))
+}
+
+// layoutLabels places the chart's labels in the data area dc whose
+// transform is at: margins first (failing ones first of all), then the
+// curves drawn as seen at a worst fault, device names, loads, fault levels,
+// inrush points and damage curves.
+func (c *Chart) layoutLabels(area vg.Rectangle, at func(Point) vg.Point) *layout {
+	lay := &layout{area: area, obstacles: c.marks(at)}
+	p := &placer{lay: lay, occ: c.curveCells(area, at)}
+	for _, fail := range []bool{true, false} {
+		for _, m := range c.margins {
+			if m.drawable && (m.f.Verdict == coord.Fail) == fail {
+				p.placeMargin(c, m, at)
 			}
 		}
 	}
-	p.place(l, boxes)
-}
-
-// currentFor returns the lowest current at which the trace reaches timeS.
-func (t Trace) currentFor(timeS float64) (float64, bool) {
-	for _, run := range t.Runs {
-		for k := 0; k+1 < len(run); k++ {
-			a, b := run[k], run[k+1]
-			if a.TimeS >= timeS && b.TimeS <= timeS && a.TimeS > b.TimeS {
-				u := math.Log(a.TimeS/timeS) / math.Log(a.TimeS/b.TimeS)
-				return math.Exp(math.Log(a.CurrentA) + u*math.Log(b.CurrentA/a.CurrentA)), true
+	for _, s := range c.seen {
+		p.placeSeen(c, s, at)
+	}
+	for _, i := range c.Devices {
+		p.placeName(c, i, at)
+	}
+	for _, v := range c.loads {
+		p.placeVertical(at(Point{v.a, 1}).X, oneLine(v.label, passColour, false))
+	}
+	for _, l := range c.levels {
+		if l.label != "" {
+			col := c.looks[l.device].colour()
+			if strings.Contains(l.label, ",") {
+				col = inkColour
 			}
+			p.placeVertical(at(Point{l.a, 1}).X, oneLine(l.label, col, false))
 		}
 	}
-	return 0, false
+	for _, m := range c.inrush {
+		pt := at(Point{m.a, m.timeS})
+		l := oneLine(m.label, inkColour, false)
+		var boxes []vg.Rectangle
+		for _, gap := range []vg.Length{5, 12, 24, 40} {
+			boxes = append(boxes,
+				l.box(vg.Point{X: pt.X + gap, Y: pt.Y}, 0, 0.5),
+				l.box(vg.Point{X: pt.X - gap, Y: pt.Y}, 1, 0.5),
+				l.box(vg.Point{X: pt.X, Y: pt.Y + gap}, 0.5, 0),
+				l.box(vg.Point{X: pt.X, Y: pt.Y - gap}, 0.5, 1),
+				l.box(vg.Point{X: pt.X + gap, Y: pt.Y + gap}, 0, 0),
+				l.box(vg.Point{X: pt.X - gap, Y: pt.Y - gap}, 1, 1),
+				l.box(vg.Point{X: pt.X + gap, Y: pt.Y - gap}, 0, 1),
+				l.box(vg.Point{X: pt.X - gap, Y: pt.Y + gap}, 1, 0))
+		}
+		p.place(l, boxes, placeOpts{owner: anyOwner, near: &pt, leader: true})
+	}
+	for _, d := range c.damages {
+		p.placeAlong(oneLine(d.label, equipmentColour, false), d.runs, at, damageOwner)
+	}
+	return lay
+}
+
+// damageOwner owns the damage curves in the occupancy grid.
+const damageOwner = -1
+
+// curveCells records where the chart's curves run.
+func (c *Chart) curveCells(area vg.Rectangle, at func(Point) vg.Point) *occupancy {
+	o := newOccupancy(area)
+	for _, t := range c.traces {
+		for _, run := range t.Runs {
+			o.add(t.Device, project(run, at))
+		}
+	}
+	for _, s := range c.seen {
+		for _, run := range s.trace.Runs {
+			o.add(s.trace.Device, project(run, at))
+		}
+	}
+	for _, d := range c.damages {
+		for _, run := range d.runs {
+			o.add(damageOwner, project(run, at))
+		}
+	}
+	o.seal()
+	return o
+}
+
+// marks returns the boxes of the marks no label may cover: every margin's
+// bracket, required interval and dots, the ring round a failing margin,
+// inrush crosses and the rings where a curve meets its fault level.
+func (c *Chart) marks(at func(Point) vg.Point) []vg.Rectangle {
+	var out []vg.Rectangle
+	for _, m := range c.margins {
+		if !m.drawable {
+			continue
+		}
+		g := c.bracketGeometry(m, at)
+		out = append(out, g.bar, around(g.u, vg.Points(dotRadius+1.5)))
+		if g.ringR > 0 {
+			out = append(out, around(g.mid, g.ringR+vg.Points(1)))
+		}
+	}
+	for _, m := range c.inrush {
+		out = append(out, around(at(Point{m.a, m.timeS}), vg.Points(4)))
+	}
+	for _, l := range c.levels {
+		if !math.IsNaN(l.timeS) {
+			out = append(out, around(at(Point{l.a, l.timeS}), vg.Points(dotRadius+0.5)))
+		}
+	}
+	return out
+}
+
+// drawLabels draws placed labels on their pale backing, so a curve under
+// one does not make it unreadable, with their leader lines.
+func drawLabels(dc draw.Canvas, lay *layout) {
+	for _, pl := range lay.placed {
+		if pl.leader != nil {
+			dc.StrokeLine2(draw.LineStyle{Color: passColour, Width: vg.Points(0.5)},
+				pl.leader[0].X, pl.leader[0].Y, pl.leader[1].X, pl.leader[1].Y)
+		}
+	}
+	for _, pl := range lay.placed {
+		b := pl.box
+		dc.FillPolygon(labelBacking, []vg.Point{b.Min, {X: b.Max.X, Y: b.Min.Y}, b.Max, {X: b.Min.X, Y: b.Max.Y}})
+		y := b.Max.Y - labelPad
+		for k, s := range pl.lines {
+			r := putText(dc, pl.styles[k], vg.Point{X: b.Min.X + labelPad, Y: y}, 0, 1, s)
+			y = r.Min.Y
+		}
+	}
 }

@@ -70,22 +70,62 @@ func TestDropContained(t *testing.T) {
 	}
 }
 
-func TestAssignColours(t *testing.T) {
-	// Devices 0–6 on one path need seven slots: the seventh shares the
-	// slot held by the fewest of them; device 7 on a path of its own
-	// takes the first slot.
+func TestAssignStyles(t *testing.T) {
+	// Devices 0–6 on one chart: six colours, then the first colour again
+	// with the next line pattern; device 7 on a chart of its own takes
+	// the first look.
 	groups := [][]int{{0, 1, 2, 3, 4, 5, 6}, {7}}
-	got := assignColours(8, groups)
-	want := []int{0, 1, 2, 3, 4, 5, 0, 0}
+	got := assignStyles(8, groups)
+	want := []int{0, 1, 2, 3, 4, 5, 6, 0}
 	if !reflect.DeepEqual(got, want) {
 		t.Errorf("got %v, want %v", got, want)
 	}
-	// Devices drawn together differ whenever the palette allows.
+	if s := styleOf(got[6]); s.Colour != 0 || s.Dash != 1 {
+		t.Errorf("the seventh device looks %+v, want colour 0 dashed", s)
+	}
+	// Devices drawn together differ in colour whenever the palette allows.
 	g2 := [][]int{{0, 2}, {1, 2}, {0, 3}}
-	s := assignColours(4, g2)
+	s := assignStyles(4, g2)
 	for _, g := range g2 {
-		if s[g[0]] == s[g[1]] {
-			t.Errorf("devices %d and %d share slot %d", g[0], g[1], s[g[0]])
+		if styleOf(s[g[0]]).Colour == styleOf(s[g[1]]).Colour {
+			t.Errorf("devices %d and %d share colour %d", g[0], g[1], styleOf(s[g[0]]).Colour)
 		}
+	}
+	// As many devices as looks, all on one chart: every look once.
+	all := make([]int, styleCount)
+	for i := range all {
+		all[i] = i
+	}
+	s = assignStyles(styleCount, [][]int{all})
+	seen := map[int]bool{}
+	for _, k := range s {
+		if seen[k] {
+			t.Fatalf("look %d given twice among %d devices drawn together", k, styleCount)
+		}
+		seen[k] = true
+	}
+}
+
+func TestChunkKeepsChartsWithinTheLooks(t *testing.T) {
+	devs := make([]int, 80)
+	for i := range devs {
+		devs[i] = i
+	}
+	parts := chunk(section{devs: devs, below: -1, above: -1})
+	next := 0
+	for k, p := range parts {
+		if len(p.devs) > maxChartDevices {
+			t.Errorf("part %d has %d devices, more than %d", k, len(p.devs), maxChartDevices)
+		}
+		if p.devs[0] != next {
+			t.Errorf("part %d starts at device %d, want %d (one device overlapping the part below)", k, p.devs[0], next)
+		}
+		next = p.devs[len(p.devs)-1]
+		if p.overlapTop != (k < len(parts)-1) {
+			t.Errorf("part %d overlapTop %v", k, p.overlapTop)
+		}
+	}
+	if next != 79 {
+		t.Errorf("the parts end at device %d, want 79", next)
 	}
 }

@@ -1,9 +1,14 @@
 package tcc
 
 import (
+	"bytes"
+	"encoding/xml"
 	"fmt"
+	"image"
+	"image/png"
 	"io"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -79,7 +84,8 @@ func (s Settings) size() (w, h vg.Length) {
 
 // WriterTo draws the chart and returns it ready to be written in the
 // given format, as gonum/plot's Plot.WriterTo does. The caller opens the
-// file (or any io.Writer).
+// file (or any io.Writer). Every text is drawn as glyph outlines, so an
+// SVG needs no font on the machine that shows it.
 func (c *Chart) WriterTo(f Format, s Settings) (io.WriterTo, error) {
 	s = s.norm()
 	w, h := s.size()
@@ -90,14 +96,67 @@ func (c *Chart) WriterTo(f Format, s Settings) (io.WriterTo, error) {
 	switch f {
 	case PNG:
 		cv := vgimg.NewWith(vgimg.UseWH(w, h), vgimg.UseDPI(s.DPI), vgimg.UseBackgroundColor(paperColour))
-		c.drawAll(draw.New(cv))
-		return vgimg.PngCanvas{Canvas: cv}, nil
+		c.drawAll(draw.New(outlined{CanvasSizer: cv}))
+		return fastPNG{cv.Image()}, nil
 	case SVG:
 		cv := vgsvg.New(w, h)
-		c.drawAll(draw.New(cv))
-		return cv, nil
+		c.drawAll(draw.New(outlined{CanvasSizer: cv}))
+		return titled{cv, c.atlas.in.Study.Name + " · " + chartTitle(c.Kind) + " · " + c.Subtitle}, nil
 	}
 	return nil, fmt.Errorf("tcc: unknown format %d", f)
+}
+
+// fastPNG writes an image as PNG with the fastest compression: a chart's
+// large flat areas compress almost as well as with the default level
+// (about 3 % larger) in two thirds of the time, which counts when a study
+// writes hundreds of charts.
+type fastPNG struct{ img image.Image }
+
+// WriteTo encodes the image.
+func (p fastPNG) WriteTo(w io.Writer) (int64, error) {
+	cw := &countingWriter{w: w}
+	err := (&png.Encoder{CompressionLevel: png.BestSpeed}).Encode(cw, p.img)
+	return cw.n, err
+}
+
+// countingWriter counts the bytes written through it.
+type countingWriter struct {
+	w io.Writer
+	n int64
+}
+
+func (c *countingWriter) Write(b []byte) (int, error) {
+	n, err := c.w.Write(b)
+	c.n += int64(n)
+	return n, err
+}
+
+// titled writes an SVG with a <title> after its opening tag: the chart's
+// name for screen readers and file browsers, escaped, since the picture's
+// own text is outlines.
+type titled struct {
+	svg   io.WriterTo
+	title string
+}
+
+// WriteTo writes the SVG.
+func (t titled) WriteTo(w io.Writer) (int64, error) {
+	var buf bytes.Buffer
+	if _, err := t.svg.WriteTo(&buf); err != nil {
+		return 0, err
+	}
+	doc := buf.Bytes()
+	at := bytes.Index(doc, []byte("<svg"))
+	if at >= 0 {
+		if end := bytes.IndexByte(doc[at:], '>'); end >= 0 {
+			var esc bytes.Buffer
+			xml.EscapeText(&esc, []byte(t.title))
+			cut := at + end + 1
+			doc = slices.Concat(doc[:cut], []byte("\n<title>"), esc.Bytes(), []byte("</title>"), doc[cut:])
+		}
+	}
+	n, err := w.Write(doc)
+	return int64(n), err
 }
 
 // Render writes the chart to w.
@@ -113,29 +172,63 @@ func (c *Chart) Render(w io.Writer, f Format, s Settings) error {
 // Layout of the page, in points.
 const (
 	headerH   = 44 // title lines above everything
+	footerH   = 12 // the caution below everything
 	panelW    = 212
 	pageInset = 8
 )
 
-// regions splits the page into the header, the plot and the key panel.
-func regions(full draw.Canvas) (header, plotArea, panel draw.Canvas) {
+// regions splits the page into the header, the plot, the key panel and
+// the footer.
+func regions(full draw.Canvas) (header, plotArea, panel, footer draw.Canvas) {
 	header = draw.Crop(full, pageInset, -pageInset, full.Max.Y-full.Min.Y-headerH, -pageInset/2)
-	body := draw.Crop(full, pageInset, -pageInset, pageInset, -headerH)
+	footer = draw.Crop(full, pageInset, -pageInset, pageInset/2, -(full.Max.Y - full.Min.Y - pageInset/2 - footerH))
+	body := draw.Crop(full, pageInset, -pageInset, pageInset/2+footerH, -headerH)
 	plotArea = draw.Crop(body, 0, -(panelW + pageInset), 0, 0)
 	panel = draw.Crop(body, body.Max.X-body.Min.X-panelW, 0, 0, 0)
-	return header, plotArea, panel
+	return header, plotArea, panel, footer
 }
 
 func (c *Chart) drawAll(full draw.Canvas) {
 	full.SetColor(paperColour)
 	full.Fill(full.Rectangle.Path())
-	header, plotArea, panel := regions(full)
-	c.newPlot().Draw(plotArea)
+	header, plotArea, panel, footer := regions(full)
+	f := c.frame(plotArea)
+	f.plot.Add(layers{c: c, lay: f.lay})
+	f.plot.Draw(f.area)
+	// The current axis's name, centred under the data area: gonum/plot
+	// would centre it on the arithmetic middle of a log axis, near its
+	// right end, and narrow the plot to make room for it there.
+	putText(plotArea, textStyle(axisTextSize, inkColour, false),
+		vg.Point{X: (f.data.Min.X + f.data.Max.X) / 2, Y: plotArea.Min.Y}, 0.5, 0, c.axisLabel())
 	c.drawHeader(header)
-	c.drawPanel(panel)
+	c.drawPanel(panel, f.lay)
+	drawFooter(footer)
 }
 
-// newPlot sets up the axes and adds the chart's layers.
+// xLabelH is the height below the plot kept for the current axis's name.
+const xLabelH = axisTextSize + 4
+
+// frame is the plot of a chart laid out in its plot area: the area the
+// plot is drawn in, the data area inside its axes and where the labels
+// of the data area go.
+type frame struct {
+	plot       *plot.Plot
+	area, data draw.Canvas
+	lay        *layout
+}
+
+// frame sets up the plot for the plot area and places the labels of its
+// data area.
+func (c *Chart) frame(plotArea draw.Canvas) frame {
+	f := frame{plot: c.newPlot(), area: draw.Crop(plotArea, 0, 0, xLabelH, 0)}
+	f.data = f.plot.DataCanvas(f.area)
+	trX, trY := f.plot.Transforms(&f.data)
+	at := func(pt Point) vg.Point { return vg.Point{X: trX(pt.CurrentA), Y: trY(pt.TimeS)} }
+	f.lay = c.layoutLabels(f.data.Rectangle, at)
+	return f
+}
+
+// newPlot sets up the axes.
 func (c *Chart) newPlot() *plot.Plot {
 	p := plot.New()
 	p.BackgroundColor = nil
@@ -143,7 +236,6 @@ func (c *Chart) newPlot() *plot.Plot {
 	p.X.Min, p.X.Max = c.xMin, c.xMax
 	p.Y.Min, p.Y.Max = TimeMinS, TimeMaxS
 	p.X.Tick.Marker, p.Y.Tick.Marker = decadeTicks{}, decadeTicks{}
-	p.X.Label.Text = fmt.Sprintf("current (A at %g kV)", c.refKV)
 	p.Y.Label.Text = "time (s)"
 	for _, ax := range []*plot.Axis{&p.X, &p.Y} {
 		ax.Label.TextStyle.Font = font.From(sans, axisTextSize)
@@ -153,8 +245,13 @@ func (c *Chart) newPlot() *plot.Plot {
 		ax.Color, ax.Tick.Color = inkColour, inkColour
 		ax.Padding = 0
 	}
-	p.Add(layers{c})
 	return p
+}
+
+// pageAt returns the page of a chart of the given size, in points.
+func pageAt(s Settings) draw.Canvas {
+	w, h := s.size()
+	return draw.Canvas{Rectangle: vg.Rectangle{Max: vg.Point{X: w, Y: h}}}
 }
 
 // Locate returns the pixel (x right, y down from the top-left corner of
@@ -162,15 +259,21 @@ func (c *Chart) newPlot() *plot.Plot {
 // drawn at the given size: the plot's own coordinate transform.
 func (c *Chart) Locate(s Settings, currentA, timeS float64) (x, y float64) {
 	s = s.norm()
-	w, h := s.size()
 	c.build()
-	full := draw.Canvas{Rectangle: vg.Rectangle{Max: vg.Point{X: w, Y: h}}}
-	_, plotArea, _ := regions(full)
-	p := c.newPlot()
-	dc := p.DataCanvas(plotArea)
-	trX, trY := p.Transforms(&dc)
+	_, plotArea, _, _ := regions(pageAt(s))
+	f := c.frame(plotArea)
+	trX, trY := f.plot.Transforms(&f.data)
 	k := float64(s.DPI) / float64(vg.Inch)
 	return float64(trX(currentA)) * k, float64(s.HeightPx) - float64(trY(timeS))*k
+}
+
+// labelLayout returns where the labels of the data area go at the given
+// size, in points from the page's bottom-left corner.
+func (c *Chart) labelLayout(s Settings) *layout {
+	s = s.norm()
+	c.build()
+	_, plotArea, _, _ := regions(pageAt(s))
+	return c.frame(plotArea).lay
 }
 
 // decadeTicks marks every decade with a label and 2…9 times it without.

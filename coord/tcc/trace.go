@@ -19,15 +19,20 @@ type TraceKind uint8
 
 // Trace kinds.
 const (
-	PhaseCurve  TraceKind = iota // a relay's phase stages combined (solid)
-	GroundCurve                  // a relay's ground (residual) stages combined (dashed)
+	PhaseCurve  TraceKind = iota // a relay's phase stages combined
+	GroundCurve                  // a relay's ground (residual) stages combined
 	MeltCurve                    // a fuse's minimum-melting curve (thin)
 	ClearCurve                   // a fuse's total-clearing curve (thick)
+	// SeenCurve is an upstream device's curve as it responds to the kind
+	// of fault that set a pair's worst margin, drawn against the
+	// downstream device's current (thin): it passes through the upper end
+	// of the pair's margin bracket.
+	SeenCurve
 )
 
 // String names the kind as the chart's key does.
 func (k TraceKind) String() string {
-	return [...]string{"phase", "ground", "minimum melting", "total clearing"}[k]
+	return [...]string{"phase", "ground", "minimum melting", "total clearing", "as seen at the worst fault"}[k]
 }
 
 // Trace is one curve of one device as drawn: runs of points where the
@@ -77,55 +82,62 @@ const (
 	floorS           = TimeMinS * 1.03
 )
 
-// deviceTraces samples a device's curves across the chart's current axis.
+// deviceTraces samples device i's curves of the chart's kind across the
+// current axis: a relay's phase (or ground) stages combined, a fuse's
+// melting and clearing curves, and the shaded band between the edges of a
+// declared tolerance or between a fuse's two curves.
 func (c *Chart) deviceTraces(i int) ([]Trace, []band) {
 	d := &c.atlas.in.Study.Devices[i]
 	t := c.atlas.timers[i]
 	f := c.factor(i)
 	var pickups []float64
 	for _, s := range d.Stages {
-		pickups = append(pickups, s.PickupA)
+		if s.Measures == c.Kind {
+			pickups = append(pickups, s.PickupA)
+		}
 	}
 	if d.Kind == coord.Fuse {
-		if d.Melt == nil || d.Clear == nil {
+		if d.Melt == nil || d.Clear == nil || c.Kind != coord.Phase {
 			return nil, nil
 		}
 		for _, tb := range []*curves.Table{d.Melt, d.Clear} {
 			lo, hi := tb.Span()
 			pickups = append(pickups, lo, hi)
 		}
-		melt := c.sample(d.Melt, f, pickups, false)
-		clear := c.sample(d.Clear, f, pickups, false)
+		melt := c.sample(d.Melt, f, pickups, false, c.xMin, c.xMax)
+		clear := c.sample(d.Clear, f, pickups, false, c.xMin, c.xMax)
 		return []Trace{{Device: i, Kind: MeltCurve, Runs: melt}, {Device: i, Kind: ClearCurve, Runs: clear}},
 			[]band{{device: i, fuse: true, lower: melt, upper: clear}}
 	}
-	var out []Trace
+	ch, kind := t.Phase, PhaseCurve
+	if c.Kind == coord.Residual {
+		ch, kind = t.Ground, GroundCurve
+	}
+	if ch[coord.Nominal] == nil {
+		return nil, nil
+	}
+	out := []Trace{{Device: i, Kind: kind, Runs: c.sample(ch[coord.Nominal], f, pickups, true, c.xMin, c.xMax)}}
 	var bands []band
-	for _, q := range []struct {
-		ch   [3]curves.Characteristic
-		kind TraceKind
-	}{{t.Phase, PhaseCurve}, {t.Ground, GroundCurve}} {
-		if q.ch[coord.Nominal] == nil {
-			continue
-		}
-		out = append(out, Trace{Device: i, Kind: q.kind, Runs: c.sample(q.ch[coord.Nominal], f, pickups, true)})
-		if d.Accuracy.ClassPct > 0 {
-			bands = append(bands, band{device: i,
-				lower: c.sample(q.ch[coord.Early], f, pickups, true), upper: c.sample(q.ch[coord.Late], f, pickups, true)})
-		}
+	if d.Accuracy.ClassPct > 0 {
+		bands = append(bands, band{device: i,
+			lower: c.sample(ch[coord.Early], f, pickups, true, c.xMin, c.xMax),
+			upper: c.sample(ch[coord.Late], f, pickups, true, c.xMin, c.xMax)})
 	}
 	return out, bands
 }
 
 // sample evaluates ch (in the device's own amperes) at log-spaced currents
-// across the axis and just either side of every break current (a stage's
-// pickup, a table's ends), where the curve steps; f refers the device's
-// currents to the axis. With floored, times below the axis are drawn on
-// its floor (a relay's instantaneous stage, modelled as 0 s, stays in
-// sight); otherwise the curve leaves the plot there (a fuse clearing in a
-// few milliseconds, a damage curve).
-func (c *Chart) sample(ch curves.Characteristic, f float64, breaks []float64, floored bool) [][]Point {
-	lo, hi := c.xMin/f, c.xMax/f
+// from fromA to toA on the axis and just either side of every break
+// current (a stage's pickup, a table's ends), where the curve steps; f
+// refers the device's currents to the axis. With floored, times below the
+// axis are drawn on its floor (a relay's instantaneous stage, modelled as
+// 0 s, stays in sight); otherwise the curve leaves the plot there (a fuse
+// clearing in a few milliseconds, a damage curve).
+func (c *Chart) sample(ch curves.Characteristic, f float64, breaks []float64, floored bool, fromA, toA float64) [][]Point {
+	lo, hi := fromA/f, toA/f
+	if !(hi > lo) || !(lo > 0) || math.IsInf(hi, 0) {
+		return nil
+	}
 	n := int(math.Ceil(math.Log10(hi/lo) * samplesPerDecade))
 	xs := make([]float64, 0, n+1+8*len(breaks))
 	for k := 0; k <= n; k++ {
@@ -192,7 +204,7 @@ func (c *Chart) levelTime(l level) float64 {
 	switch {
 	case d.Kind == coord.Fuse:
 		ch = d.Clear
-	case l.ground:
+	case c.Kind == coord.Residual:
 		ch = t.Ground[coord.Nominal]
 	default:
 		ch = t.Phase[coord.Nominal]

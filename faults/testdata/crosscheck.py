@@ -33,6 +33,14 @@ allows one:
 * The current at a measuring point for a fault close in at its own branch
   terminal comes from Kirchhoff's current law at the bus: minus the sum of
   the currents into every other element there.
+* A three-winding transformer is a three-port: its star equivalent (each
+  winding pair corrected by its own K_T first) is reduced to a 3x3
+  admittance between its terminals (Kron reduction of the star point), with
+  the windings' complex ratios applied in SI units; the Go engine keeps the
+  star point as an internal bus joined to three two-port branches.
+* A power station unit's factor K_S or K_SO is applied to its generator and
+  its unit transformer; asynchronous motors are shunt impedances in the
+  maximum case only, from their rating by the IEC 60909-0 formulas.
 
 Conventions (faults/doc.go): per unit on the network's base MVA and each
 bus's nominal kV; the driving voltage c*Un/sqrt(3) at the fault location
@@ -105,6 +113,45 @@ def parse_group(text):
     return sides[0], sides[1], int(s)
 
 
+def parse_group3(text):
+    """Winding letters of the HV, MV and LV windings and the clock numbers
+    of MV and LV against HV, of a three-winding group such as 'YNyn0d5'."""
+    s = text.strip().lower()
+    letters, clocks = [], [0]
+    for w in range(3):
+        for code, name in (("yn", "YN"), ("y", "Y"), ("d", "D")):
+            if s.startswith(code):
+                letters.append(name)
+                s = s[len(code):]
+                break
+        else:
+            raise ValueError("bad vector group %r" % text)
+        if w > 0:
+            digits = len(s) - len(s.lstrip("0123456789"))
+            clocks.append(int(s[:digits]))
+            s = s[digits:]
+    return letters, clocks
+
+
+def motor_impedance(m):
+    """IEC 60909-0 asynchronous motor (group): Z_M = U_rM^2 / (I_LR/I_rM
+    S_rM), S_rM = P_rM / (eta cos phi), R_M/X_M by voltage and power per
+    pair of poles (0.42 low voltage, 0.10 from 1 MW per pair, else 0.15),
+    divided by the number of motors; in ohms."""
+    s_rm = m["mw"] / (m["efficiency"] * m["pf"])
+    z = m["kv"] ** 2 / (m["ilr_irm"] * s_rm) / max(m["count"], 1)
+    rx = m["r_x"]
+    if rx == 0:
+        if m["kv"] <= LV_LIMIT_KV:
+            rx = 0.42
+        elif m["mw"] / m["pole_pairs"] >= 1:
+            rx = 0.10
+        else:
+            rx = 0.15
+    x = z / math.sqrt(1 + rx * rx)
+    return complex(rx * x, x)
+
+
 def earthed_star(letter, neutral):
     return letter == "YN" and not neutral["isolated"]
 
@@ -125,10 +172,19 @@ class Model:
         self.zbase = self.kv ** 2 / self.base
         self.shunt = np.zeros((3, self.nb), dtype=complex)
         self.branches = []  # dicts: f, t, y (3 x (2x2 or None)), z (line sections)
+        # Three-ports: buses, y (3 x (3x3 or None)), ground (3 bools: a path
+        # to earth inside); star maps an engine branch index (a winding) to
+        # (port, winding).
+        self.ports = []
+        self.star = {}
+        # Power station units: unit transformer index -> generator.
+        self.unit_of = {g["unit"]["transformer"]: g for g in net["generators"] if g.get("unit")}
         self.add_sources()
         self.add_generators()
+        self.add_motors()
         self.add_lines()
         self.add_transformers()
+        self.add_transformers3()
         self.add_earthings()
 
     def c(self, bus):
@@ -169,7 +225,9 @@ class Model:
                 else:
                     r = 0.07 * xd
             kg = 1.0
-            if self.case == "max" and g["pf"] > 0:
+            if self.case == "max" and g.get("unit"):
+                kg = self.unit_factor(g)
+            elif self.case == "max" and g["pf"] > 0:
                 # IEC 60909-0: K_G = (Un/U_rG) c_max / (1 + x"d sin phi_rG).
                 sin_phi = math.sqrt(1 - g["pf"] ** 2)
                 kg = self.kv[k] / g["kv"] * self.c(k) / (1 + xd * sin_phi)
@@ -179,6 +237,108 @@ class Model:
             self.shunt[NEG, k] += self.zbase[k] / z[NEG]
             if not g["neutral"]["isolated"]:
                 self.shunt[ZERO, k] += self.zbase[k] / (z[ZERO] + 3 * cx(g["neutral"]["z_ohm"]))
+
+    def unit_factor(self, g):
+        """IEC 60909-0 power station unit: with an on-load tap changer
+        K_S = (U_nQ/U_rG)^2 (U_rTLV/U_rTHV)^2 c_max / (1 + |x"d - x_T| sin phi),
+        without one K_SO = U_nQ/(U_rG (1 + p_G)) (U_rTLV/U_rTHV) (1 + p_T)
+        c_max / (1 + x"d sin phi); U_nQ the nominal voltage at the unit
+        transformer's network side."""
+        u = g["unit"]
+        tr = self.net["transformers"][u["transformer"]]
+        if tr["to"] == g["bus"]:
+            hv, kv_hv, kv_lv = tr["from"], tr["kv_from"], tr["kv_to"]
+        else:
+            hv, kv_hv, kv_lv = tr["to"], tr["kv_to"], tr["kv_from"]
+        unq = self.kv[hv]
+        cmax = voltage_factor(unq, "max", self.tol10)
+        x_t = tr["z_pct"] / 100 * math.sin(math.atan(tr["x_r"]))
+        xd = g["xd_pct"] / 100
+        sin_phi = math.sqrt(1 - g["pf"] ** 2)
+        if u["on_load_tap_changer"]:
+            return (unq / g["kv"] * kv_lv / kv_hv) ** 2 * cmax / (1 + abs(xd - x_t) * sin_phi)
+        return (unq / (g["kv"] * (1 + u["pg_pct"] / 100)) * kv_lv / kv_hv * (1 + u["tap_pct"] / 100)
+                * cmax / (1 + xd * sin_phi))
+
+    def add_motors(self):
+        if self.case != "max":
+            return  # IEC 60909-0: motors are left out of the minimum case
+        for m in self.net["motors"]:
+            k = m["bus"]
+            y = self.zbase[k] / motor_impedance(m)
+            self.shunt[POS, k] += y
+            self.shunt[NEG, k] += y
+
+    def add_transformers3(self):
+        for t in self.net["transformers3"]:
+            pi = len(self.ports)
+            self.ports.append(self.transformer3(t))
+            for w, bi in enumerate(t["branches"]):
+                self.star[bi] = (pi, w)
+
+    def transformer3(self, t):
+        """A three-winding transformer as a three-port. Pair impedances in
+        ohms on the HV winding's rated voltage, each corrected by its own
+        K_T = 0.95 c_max / (1 + 0.6 x_T) in the maximum case (c_max of the
+        lower of the pair's bus voltages), converted to a star; the star
+        point is eliminated: Y_ref = diag(y) - y y^T / sum(y) (plus the
+        delta windings' shunts to earth in the zero sequence). A winding's
+        voltage referred to the HV side and frame is a_w V_w, a_w =
+        (U_rHV/U_rw) e^(+j30 h_w) in the positive sequence (the winding lags
+        by 30 h_w) and the conjugate angle in the negative sequence, so the
+        terminal currents are conj(a) Y_ref a V."""
+        buses, kv = t["buses"], t["kv"]
+        kva = kv[0]
+        letters, clocks = parse_group3(t["vector_group"])
+        pair_windings = ((0, 1), (0, 2), (1, 2))
+        p1, p0 = [], []
+        for p, pr in enumerate(t["pairs"]):
+            zr = kva ** 2 / pr["mva"]
+            x = math.sqrt(pr["z_pct"] ** 2 - pr["r_pct"] ** 2)
+            z1 = complex(pr["r_pct"], x) * zr / 100
+            z0 = z1
+            if pr["z0_pct"] > 0:
+                z0 = complex(pr["r0_pct"], math.sqrt(pr["z0_pct"] ** 2 - pr["r0_pct"] ** 2)) * zr / 100
+            k = 1.0
+            if self.case == "max" and not t["not_corrected"]:
+                a, b = pair_windings[p]
+                cmax = voltage_factor(min(self.kv[buses[a]], self.kv[buses[b]]), "max", self.tol10)
+                k = 0.95 * cmax / (1 + 0.6 * x / 100)
+            p1.append(k * z1)
+            p0.append(k * z0)
+
+        def star(z):
+            return [(z[0] + z[1] - z[2]) / 2, (z[0] + z[2] - z[1]) / 2, (z[1] + z[2] - z[0]) / 2]
+
+        s1, s0 = star(p1), star(p0)
+        un = np.array([self.kv[b] for b in buses])
+        to_pu = np.outer(un, un) / self.base
+
+        def ported(yref, a):
+            return np.conj(a)[:, None] * yref * a[None, :] * to_pu
+
+        y = np.array([1 / z for z in s1])
+        yref = np.diag(y) - np.outer(y, y) / y.sum()
+        ratio = np.array([kva / kv[w] for w in range(3)])
+        ang = np.radians(30 * np.array(clocks))
+        ys = [None, ported(yref, ratio * np.exp(1j * ang)), ported(yref, ratio * np.exp(-1j * ang))]
+
+        # Zero sequence: earthed star windings join their terminal to the
+        # star point through Z0 + 3Zn (referred), delta windings tie the
+        # star point to earth through Z0, unearthed stars are open.
+        ys0 = np.zeros(3, dtype=complex)
+        shunt_s = 0
+        for w in range(3):
+            nt = t["neutrals"][w]
+            if earthed_star(letters[w], nt):
+                ys0[w] = 1 / (s0[w] + 3 * cx(nt["z_ohm"]) * ratio[w] ** 2)
+            elif letters[w] == "D":
+                shunt_s += 1 / s0[w]
+        ground = shunt_s != 0
+        if ys0.any():
+            yref0 = np.diag(ys0) - np.outer(ys0, ys0) / (ys0.sum() + shunt_s)
+            ys[ZERO] = ported(yref0, ratio.astype(complex))
+        return {"buses": buses, "y": ys, "ground": [ground, False, False]}
 
     def add_lines(self):
         set_end = self.net["settings"]["end_temp_c"]
@@ -198,10 +358,10 @@ class Model:
             self.branches.append({"f": f, "t": t, "y": ys, "z": zs})
 
     def add_transformers(self):
-        for tr in self.net["transformers"]:
-            self.branches.append(self.transformer(tr))
+        for i, tr in enumerate(self.net["transformers"]):
+            self.branches.append(self.transformer(tr, self.unit_of.get(i)))
 
-    def transformer(self, tr):
+    def transformer(self, tr, unit_gen=None):
         """A two-winding transformer: its impedance in ohms on the From
         winding, in series with an ideal transformer of complex ratio N
         towards the To bus (V_x = N V_to at the internal node x). With I_f
@@ -211,7 +371,9 @@ class Model:
         unf, unt = self.kv[f], self.kv[t]
         kvf, kvt = tr["kv_from"], tr["kv_to"]
         kt = 1.0
-        if self.case == "max" and not tr["not_corrected"]:
+        if self.case == "max" and unit_gen is not None:
+            kt = self.unit_factor(unit_gen)  # the unit's K_S or K_SO, not K_T
+        elif self.case == "max" and not tr["not_corrected"]:
             # IEC 60909-0 network transformer: K_T = 0.95 c_max / (1 + 0.6 x_T),
             # c_max of the low-voltage side.
             cmax = voltage_factor(min(unf, unt), "max", self.tol10)
@@ -261,10 +423,12 @@ class Model:
             self.shunt[ZERO, k] += self.zbase[k] / (cx(e["z0_ohm"]) + 3 * cx(e["neutral_ohm"]))
 
 
-def earthed_buses(nb, shunt, branches):
+def earthed_buses(nb, shunt, branches, ports):
     """Buses with a path to earth (the reference) in one sequence: those in
     a part of the network, connected through series couplings, that holds
-    a shunt admittance somewhere."""
+    a shunt admittance somewhere. ports are (buses, 3x3 y, ground) of the
+    three-ports: coupled terminals join, and a three-port with a path to
+    earth inside ties its terminals that see it."""
     parent = list(range(nb))
 
     def root(x):
@@ -282,17 +446,31 @@ def earthed_buses(nb, shunt, branches):
         else:
             tie[f] |= y[0, 0] != 0
             tie[t] |= y[1, 1] != 0
+    for buses, y, ground in ports:
+        if y is None:
+            continue
+        for i in range(3):
+            for j in range(i + 1, 3):
+                if y[i, j] != 0:
+                    parent[root(buses[i])] = root(buses[j])
+            if ground and y[i, i] != 0:
+                tie[buses[i]] = True
     tied_roots = {root(i) for i in range(nb) if tie[i]}
     return np.array([root(i) in tied_roots for i in range(nb)])
 
 
-def admittance(nb, shunt, branches):
+def admittance(nb, shunt, branches, ports):
     y = np.diag(shunt.astype(complex))
     for f, t, yb in branches:
         if yb is None:
             continue
         idx = np.array([f, t])
         y[np.ix_(idx, idx)] += yb
+    for buses, yp, _ in ports:
+        if yp is None:
+            continue
+        idx = np.array(buses)
+        y[np.ix_(idx, idx)] += yp
     return y
 
 
@@ -362,8 +540,9 @@ class CaseSolver:
         self.seqs = []
         for s in range(3):
             brs = [(b["f"], b["t"], b["y"][s]) for b in md.branches]
-            y = admittance(nb, md.shunt[s], brs)
-            g = earthed_buses(nb, md.shunt[s], brs)
+            prs = [(p["buses"], p["y"][s], p["ground"][s]) for p in md.ports]
+            y = admittance(nb, md.shunt[s], brs, prs)
+            g = earthed_buses(nb, md.shunt[s], brs, prs)
             keep = np.flatnonzero(g)
             row = np.full(nb, -1)
             row[keep] = np.arange(len(keep))
@@ -379,6 +558,20 @@ class CaseSolver:
         for bi, b in enumerate(md.branches):
             self.incident[b["f"]].append((bi, 0))
             self.incident[b["t"]].append((bi, 1))
+        for bi, (pi, w) in md.star.items():
+            self.incident[md.ports[pi]["buses"][w]].append((bi, 0))
+
+    def end_bus(self, bi, end):
+        """The bus at end 0 (From) or 1 (To) of engine branch bi; a
+        winding of a three-winding transformer has only its terminal."""
+        md = self.model
+        if bi in md.star:
+            pi, w = md.star[bi]
+            if end != 0:
+                raise ValueError("a point or place at the star point of a three-winding transformer")
+            return md.ports[pi]["buses"][w]
+        b = md.branches[bi]
+        return b["f"] if end == 0 else b["t"]
 
     def fault_impedance_pu(self, kind, bus):
         """Fault impedance of the case (faults/cases.go Settings and
@@ -398,8 +591,17 @@ class CaseSolver:
 
     def into_branch(self, s, bi, end, dv):
         """Current of sequence s from the bus at `end` into branch bi for
-        bus voltage changes dv (kinds x buses)."""
-        b = self.model.branches[bi]
+        bus voltage changes dv (kinds x buses); for a winding of a
+        three-winding transformer, the current into its terminal."""
+        md = self.model
+        if bi in md.star:
+            pi, w = md.star[bi]
+            port = md.ports[pi]
+            y = port["y"][s]
+            if y is None:
+                return np.zeros(dv.shape[0], dtype=complex)
+            return sum(y[w, j] * dv[:, port["buses"][j]] for j in range(3))
+        b = md.branches[bi]
         y = b["y"][s]
         if y is None:
             return np.zeros(dv.shape[0], dtype=complex)
@@ -408,16 +610,14 @@ class CaseSolver:
     def solve_place(self, place, points):
         """Fault and point phase currents in amperes for the four kinds:
         arrays (4, 3) and (4, npoints, 3)."""
-        md = self.model
         if place["kind"] == "line":
             return self.solve_line(place, points)
         if place["kind"] == "bus":
             k = place["bus"]
             own = None
         else:
-            b = md.branches[place["branch"]]
             end = 0 if place["end"] == "from" else 1
-            k = b["f"] if end == 0 else b["t"]
+            k = self.end_bus(place["branch"], end)
             own = (place["branch"], end)
         zth = [self.seqs[s]["z"][k, k] if self.seqs[s]["earthed"][k] else None for s in range(3)]
         iseq = self.kind_currents(zth, k)
@@ -509,8 +709,7 @@ class CaseSolver:
 
     def to_phases(self, iseq, k, ipts, points):
         fault = iseq @ SEQ_TO_PHASE.T * self.ibase[k]
-        md = self.model
-        buses = [md.branches[bi]["f"] if end == 0 else md.branches[bi]["t"] for bi, end in points]
+        buses = [self.end_bus(bi, end) for bi, end in points]
         pts = ipts @ SEQ_TO_PHASE.T * self.ibase[buses][None, :, None] if points else ipts
         return fault, pts
 
