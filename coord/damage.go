@@ -199,6 +199,7 @@ type damageTally struct {
 	extended    int           // above a transformer curve's end, by its I²t law
 	long        int           // points left out: a cable cleared after its adiabatic withstand beyond 5 s
 	lowerBound  int           // cable points beyond 5 s judged on the adiabatic withstand as a lower bound
+	byClearing  int           // cable points beyond 5 s the device does not clear in time, within the maximum clearing time
 	endA, lowA  float64       // the transformer curve's span, for the note
 	transformer bool
 }
@@ -272,8 +273,16 @@ func (c *checker) damageOf(dev int, sub damageSubject) (Finding, error) {
 			// continuous rating and thermal time constant, which the
 			// study does not give, govern it).
 			tw = lim.I2tA2S / (s.up * s.up)
-			if stc == curves.Operates && tc > tw {
-				tl.long++
+			if stc != curves.Operates || tc > tw {
+				// The device is slower than that, or does not
+				// operate: the fault-clearing check holds the fault
+				// to the maximum clearing time, which is enough
+				// when it is within the cable's time.
+				if c.s.Criteria.MaxClearingS <= tw {
+					tl.byClearing++
+				} else {
+					tl.long++
+				}
 				continue
 			}
 			tl.lowerBound++
@@ -314,8 +323,13 @@ func (c *checker) damageFinding(d *Device, t *Timer, sub damageSubject, worst *s
 	}
 	if worst == nil {
 		why := "the device does not operate for any through-fault where the withstand curve is defined"
-		if tl.long > 0 {
-			why = fmt.Sprintf("at all %d points the device clears after the cable's adiabatic withstand, beyond its 5 s validity, where the cable's continuous rating and thermal time constant (not in the study) govern", tl.long)
+		switch {
+		case tl.long > 0:
+			why = fmt.Sprintf("at %d points the device clears after the cable's adiabatic withstand, beyond its 5 s validity, where the cable's continuous rating and thermal time constant (not in the study) govern", tl.long)
+		case tl.byClearing > 0 && len(gaps) == 0:
+			f := Finding{Check: Damage, Verdict: Pass, Device: d.Name, Other: sub.name,
+				Note: fmt.Sprintf("every through-fault current is one the cable withstands for longer than 5 s, and longer than the maximum clearing time, %g s, to which the fault-clearing check holds every fault (the device itself clears none of them in that time)", c.s.Criteria.MaxClearingS)}
+			return f
 		}
 		if len(gaps) > 0 {
 			why = "no time at the through-fault currents: " + joinNotes(gaps...)
@@ -351,6 +365,9 @@ func (c *checker) damageFinding(d *Device, t *Timer, sub damageSubject, worst *s
 	}
 	if tl.lowerBound > 0 {
 		notes = append(notes, "below the current the cable withstands for 5 s (the adiabatic limit's validity), I²t/I² is taken as a lower bound of its withstand (heat loss neglected)")
+	}
+	if tl.byClearing > 0 {
+		notes = append(notes, fmt.Sprintf("at %d points beyond 5 s the device clears after the cable's adiabatic time or not at all; the fault-clearing check holds those faults to the maximum clearing time, %g s, which the cable withstands there", tl.byClearing, c.s.Criteria.MaxClearingS))
 	}
 	if tl.long > 0 {
 		notes = append(notes, fmt.Sprintf("not checked: %d points where the device clears after the adiabatic withstand, which beyond 5 s understates what the cable bears (its continuous rating and thermal time constant, which the study does not give, govern there)", tl.long))

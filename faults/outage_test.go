@@ -110,7 +110,10 @@ func TestSolveOpenMatchesRewiredNetwork(t *testing.T) {
 					}
 					// A column cache changes nothing but the work done
 					// and the rounding (its entries come by backward
-					// substitution, not by path products).
+					// substitution, not by path products; the low-rank
+					// update amplifies the difference where an opening
+					// nearly splits the network, so 1e-7, well inside
+					// the 1e-6 both keep to the rewired network).
 					cached, err := eng.SolveOpenWith(f, opening, cols)
 					if err != nil {
 						t.Fatal(err)
@@ -118,7 +121,7 @@ func TestSolveOpenMatchesRewiredNetwork(t *testing.T) {
 					cf, gf := cached.FaultCurrents(), got.FaultCurrents()
 					ca, ga := cached.At(pts[0]), got.At(pts[0])
 					for q := range 3 {
-						if !closeRel(cf.Seq[q], gf.Seq[q], 1e-9) || !closeRel(ca.Seq[q], ga.Seq[q], 1e-9) {
+						if !closeRel(cf.Seq[q], gf.Seq[q], 1e-7) || !closeRel(ca.Seq[q], ga.Seq[q], 1e-7) {
 							t.Fatalf("with a column cache: %v, without: %v", cf, gf)
 						}
 					}

@@ -39,8 +39,11 @@ type PointSummary struct {
 	Point Point
 	// PhaseMax: the largest phase current, maximum case, any fault kind.
 	PhaseMax Extreme
-	// PhaseMin: the smallest phase current, minimum case, LLL and LL
-	// faults (the faults a phase element must detect).
+	// PhaseMin: the smallest non-zero phase current, minimum case, LLL
+	// and LL faults (the faults a phase element must detect). Faults that
+	// drive no current through the point (a fault of its zone fed only
+	// from the other side, as a transformer fault is in the minimum case
+	// at an LV incomer with no generation behind it) are left out.
 	PhaseMin Extreme
 	// ResidualMax: the largest residual current 3I0, maximum case, LG and
 	// LLG faults.
@@ -118,7 +121,9 @@ func (e *Engine) SummarisePoint(pt Point, places []Place) (PointSummary, error) 
 						s.ResidualMin.offer(r, f, c, v, false)
 					}
 				default:
-					s.PhaseMin.offer(c.PhaseMaxA(), f, c, v, false)
+					if a := c.PhaseMaxA(); a > floor {
+						s.PhaseMin.offer(a, f, c, v, false)
+					}
 				}
 			}
 		}
