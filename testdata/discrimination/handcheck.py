@@ -509,9 +509,10 @@ def clear_sequence(fault, relays, sides, margin_s=0.3):
     events = []
     records = {}  # relay -> (margin, other)
 
-    def offer(name, margin, other):
+    def offer(name, margin, other, d_a, d_s, m_a, m_s):
+        # The first of equal margins stays (as the checker keeps it).
         if name not in records or margin < records[name][0]:
-            records[name] = (margin, other)
+            records[name] = (margin, other, d_a, d_s, m_a, m_s)
 
     for _ in range(20):
         times = {name: by[name].time(x) for name, x in sn.items()}
@@ -552,7 +553,8 @@ def clear_sequence(fault, relays, sides, margin_s=0.3):
                 if name not in must:
                     m = min(must, key=lambda d: trip_at.get(d, T + (1 - prog[d]) * times[d]))
                     m_t = trip_at.get(m, T + (1 - prog[m]) * times[m])
-                    offer(name, trip_at[name] - m_t, m)
+                    offer(name, trip_at[name] - m_t, m, by[name].governing(sn[name]), trip_at[name],
+                          by[m].governing(sn[m]), m_t)
             else:
                 prog[name] = p
         now = [name for name in must if name in trip_at and trip_at[name] + by[name].breaker_s <= next_t * (1 + 1e-12) + 1e-12]
@@ -570,7 +572,8 @@ def clear_sequence(fault, relays, sides, margin_s=0.3):
                 continue
             still = name in sn_new and math.isfinite(by[name].time(sn_new[name]))
             if not still:
-                offer(name, p - trip_at[first], first)
+                offer(name, p - trip_at[first], first, by[name].governing(sn[name]), p,
+                      by[first].governing(sn[first]), trip_at[first])
         if isolated:
             return T, events, records
         sn = sn_new
@@ -762,7 +765,8 @@ def twin_relays(directional):
 def twin_cases():
     for variant, directional in (("non", False), ("dir", True)):
         relays = twin_relays(directional)
-        worst = None
+        records = {}
+        slowest = None
         for end in (0, 1):  # T1's close-in faults at its 33 kV and 11 kV ends
             for case in (MAX, MIN):
                 for kind in KINDS:
@@ -770,13 +774,12 @@ def twin_cases():
                     sides = [(("T1", 0), ["T1-HV"]), (("T1", 1), ["T1-LV", "T2-LV", "T2-HV"])]
                     iso, events, rec = clear_sequence(f, relays, sides)
                     tag = f"twin.{variant}.T1@{end}.{case}.{kind}"
-                    put(f"{tag}.clear", iso)
+                    if slowest is None or iso > slowest[0] * (1 + 1e-9):
+                        slowest = (iso, end, case, kind, events)
                     if "T2-LV" in rec:
-                        m, other = rec["T2-LV"]
-                        put(f"{tag}.T2-LV.margin", m)
-                        if worst is None or m < worst[0] - 1e-9:
-                            worst = (m, end, case, kind, other)
+                        records[(f"T1, {['HX-33', 'HX-11'][end]} end", case, kind)] = rec["T2-LV"]
                     if end == 1 and case == MAX and kind == "LLL":
+                        put(f"{tag}.clear", iso)
                         s = f.solve()
                         for r in relays:
                             sn = r.seen(s, bus_of(twin_transformers(MAX), r))
@@ -785,9 +788,8 @@ def twin_cases():
                             put(f"{tag}.{r.name}.s", t if math.isfinite(t) else -1)
                             if r.name in ("T1-LV", "T2-LV"):
                                 put(f"{tag}.{r.name}.dira", r.phase_dirs(sn)[0][0])
-        m, end, case, kind, other = worst
-        put(f"twin.{variant}.worst.T2-LV.margin", m)
-        put(f"twin.{variant}.worst.T2-LV.end", end)
+        put_worst(f"twin.{variant}.T2-LV", records, relays)
+        put_slowest(f"twin.{variant}.slowest", slowest, relays)
 
 
 # testdata/discrimination/parallel-lines.toml
@@ -819,35 +821,39 @@ LINE_POSITIONS = [0, 0.1, 0.3, 0.5, 0.7, 0.9, 1]
 def line_cases():
     for variant, directional in (("non", False), ("dir", True)):
         relays = line_relays(directional)
-        worst = {}
+        # The healthy line's relays whose margins the tests judge: the
+        # receiving end L2-R (it is the only one that can trip with L1-R),
+        # and, directional, the sending end L2-S (non-directional, its
+        # worst fault may lie at SC-R, which this script does not solve).
+        judged = ["L2-R"] if variant == "non" else ["L2-R", "L2-S"]
+        worst = {name: {} for name in judged}
         slowest = None
         for frac in LINE_POSITIONS:
+            place = {0: "L1, SC-S end", 1: "L1, SC-R end"}.get(frac, f"L1 {frac * 100:.0f} %")
             for case in (MAX, MIN):
                 for kind in KINDS:
                     f = Fault(parallel_lines, ("branch", "L1", frac), kind, case)
                     sides = [(("L1", 0), ["L1-S"]), (("L1", 1), ["L1-R", "L2-R", "L2-S"])]
                     iso, events, rec = clear_sequence(f, relays, sides)
-                    tag = f"lines.{variant}.L1@{frac:g}.{case}.{kind}"
-                    put(f"{tag}.clear", iso)
-                    if slowest is None or iso > slowest[0] + 1e-9:
-                        slowest = (iso, frac, case, kind)
-                    for name in ("L2-R", "L2-S"):
+                    if slowest is None or iso > slowest[0] * (1 + 1e-9):
+                        slowest = (iso, frac, case, kind, events)
+                    for name in judged:
                         if name in rec:
-                            m, other = rec[name]
-                            if name not in worst or m < worst[name][0] - 1e-9:
-                                worst[name] = (m, frac, case, kind)
-                    if case == MAX and kind == "LLL":
-                        s = f.solve()
-                        for r in relays:
-                            sn = r.seen(s, bus_of(parallel_lines(MAX), r))
-                            put(f"{tag}.{r.name}.A", r.governing(sn))
-                            t = r.time(sn)
-                            put(f"{tag}.{r.name}.s", t if math.isfinite(t) else -1)
-                            if r.name in ("L1-R", "L2-R"):
-                                put(f"{tag}.{r.name}.dira", default_element(r.branch, r.end, 33).phase_dirs(sn)[0][0])
-        for name, (m, frac, case, kind) in worst.items():
-            put(f"lines.{variant}.worst.{name}.margin", m)
-        put(f"lines.{variant}.slowest.clear", slowest[0])
+                            worst[name][(place, case, kind)] = rec[name]
+                    # What the receiving ends see in the intact network.
+                    s = f.solve()
+                    tag = f"lines.{variant}.L1@{frac:g}.{case}.{kind}"
+                    for r in relays[2:]:
+                        sn = r.seen(s, "SC-R")
+                        put(f"{tag}.{r.name}.A", np.abs(sn["I"]).max())
+                        put(f"{tag}.{r.name}.3I0", abs(sn["I"].sum()))
+                        t = r.time(sn)
+                        put(f"{tag}.{r.name}.s", t if math.isfinite(t) else -1)
+        for name, records in worst.items():
+            put(f"lines.{variant}.{name}.operates", len(records))
+            if records:
+                put_worst(f"lines.{variant}.{name}", records, relays)
+        put_slowest(f"lines.{variant}.slowest", slowest, relays)
 
 
 # testdata/discrimination/ring.toml
@@ -866,14 +872,16 @@ def ring(case):
     return n
 
 
-def ring_relays():
+def ring_relays(pickup=250):
+    """The ring's relays; pickup is that of the directional relays at RF-B
+    and RF-C."""
     return [
         Relay("AB-A", "AB", 0, 33, [("phase", "non", si(400, 0.35))], 0.06),
-        Relay("BC-B", "BC", 0, 33, [("phase", "fwd", si(250, 0.2))], 0.06),
-        Relay("CA-C", "CA", 0, 33, [("phase", "fwd", si(250, 0.05))], 0.06),
+        Relay("BC-B", "BC", 0, 33, [("phase", "fwd", si(pickup, 0.2))], 0.06),
+        Relay("CA-C", "CA", 0, 33, [("phase", "fwd", si(pickup, 0.05))], 0.06),
         Relay("CA-A", "CA", 1, 33, [("phase", "non", si(400, 0.35))], 0.06),
-        Relay("BC-C", "BC", 1, 33, [("phase", "fwd", si(250, 0.2))], 0.06),
-        Relay("AB-B", "AB", 1, 33, [("phase", "fwd", si(250, 0.05))], 0.06),
+        Relay("BC-C", "BC", 1, 33, [("phase", "fwd", si(pickup, 0.2))], 0.06),
+        Relay("AB-B", "AB", 1, 33, [("phase", "fwd", si(pickup, 0.05))], 0.06),
     ]
 
 
@@ -886,29 +894,63 @@ RING_SIDES = {
 }
 
 
+def put_worst(key, records, relays):
+    """A relay's worst margin over the faults others must clear, and the
+    figures of every fault that gives it (the checker names one of them)."""
+    worst = min(r[0] for r in records.values())
+    put(f"{key}.worst", worst)
+    for (place, case, kind), (m, other, d_a, d_s, m_a, m_s) in records.items():
+        if m > worst + 1e-6:
+            continue
+        k = f"{key}|{place}|{case}|{kind}"
+        put(f"{k}.margin", m)
+        put(f"{k}.other", [r.name for r in relays].index(other))
+        put(f"{k}.A", d_a)
+        put(f"{k}.s", d_s)
+        put(f"{k}.otherA", m_a)
+        put(f"{k}.otherS", m_s)
+
+
+def put_slowest(key, slowest, relays):
+    """The slowest-cleared fault of an element and its openings."""
+    iso, frac, case, kind, events = slowest
+    put(f"{key}.clear", iso)
+    put(f"{key}.frac", frac)
+    put(f"{key}.max", case == MAX)
+    put(f"{key}.kind", KINDS.index(kind))
+    put(f"{key}.events", len(events))
+    for i, (name, at, now_a, first_a) in enumerate(events):
+        put(f"{key}.{i}.relay", [r.name for r in relays].index(name))
+        put(f"{key}.{i}.s", at)
+        put(f"{key}.{i}.A", now_a)
+        put(f"{key}.{i}.intactA", first_a)
+
+
 def ring_cases():
+    for pickup, name in ((250, "ring"), (400, "ring400")):
+        relays = ring_relays(pickup)
+        for line in ("AB", "BC", "CA"):
+            ring_line(name, line, relays)
+    ring_by_hand()
+
+
+def ring_line(name, line, relays):
+    """The slowest-cleared fault of one line of the ring: every position
+    the study solves (close in at both ends and the line positions), both
+    cases, every kind."""
+    slowest = None
+    for frac in (0, 0.25, 0.5, 0.75, 1):
+        for case in (MAX, MIN):
+            for kind in KINDS:
+                f = Fault(ring, ("branch", line, frac), kind, case)
+                iso, events, rec = clear_sequence(f, relays, RING_SIDES[line])
+                if slowest is None or iso > slowest[0] * (1 + 1e-9):
+                    slowest = (iso, frac, case, kind, events)
+    put_slowest(f"{name}.{line}.slowest", slowest, relays)
+
+
+def ring_by_hand():
     relays = ring_relays()
-    for line in ("AB", "BC", "CA"):
-        slowest = None
-        for frac in (0, 0.25, 0.5, 0.75, 1):
-            for case in (MAX, MIN):
-                for kind in KINDS:
-                    f = Fault(ring, ("branch", line, frac), kind, case)
-                    iso, events, rec = clear_sequence(f, relays, RING_SIDES[line])
-                    if slowest is None or iso > slowest[0] * (1 + 1e-9):
-                        slowest = (iso, frac, case, kind, events)
-        iso, frac, case, kind, events = slowest
-        key = f"ring.{line}.slowest"
-        put(f"{key}.clear", iso)
-        put(f"{key}.frac", frac)
-        put(f"{key}.max", case == MAX)
-        put(f"{key}.kind", KINDS.index(kind))
-        put(f"{key}.events", len(events))
-        for i, (name, at, now_a, first_a) in enumerate(events):
-            put(f"{key}.{i}.relay", [r.name for r in relays].index(name))
-            put(f"{key}.{i}.s", at)
-            put(f"{key}.{i}.A", now_a)
-            put(f"{key}.{i}.intactA", first_a)
     # One fault by hand, step by step: LLL in the maximum case a quarter of
     # the way along BC from RF-B.
     f = Fault(ring, ("branch", "BC", 0.25), "LLL", MAX)
@@ -935,11 +977,6 @@ def ring_cases():
     put("ring.BC@0.25.BC-C.dira0", by["BC-C"].phase_dirs(c0)[0][0])
     put("ring.BC@0.25.BC-C.dira1", by["BC-C"].phase_dirs(c1)[0][0])
     del net
-    # The intact current of AB-B for the ring's slowest AB fault, which it
-    # cannot clear until AB-A has opened.
-    f = Fault(ring, ("branch", "AB", 0.25), "LL", MIN)
-    s0 = f.solve()
-    put("ring.AB@0.25.min.LL.AB-B.A0", abs(by["AB-B"].seen(s0, "RF-B")["I"]).max())
 
 
 def main():
