@@ -3,7 +3,8 @@
 
 Usage: handcheck.py            print every figure as JSON {key: number}
        handcheck.py --go       print the same figures as the Go table that
-                               coord/handfigures_test.go embeds
+                               coord/handfigures_test.go embeds:
+           python3 testdata/discrimination/handcheck.py --go | gofmt > coord/handfigures_test.go
 
 The Go tests (coord/direction_test.go, coord/discrimination_test.go) embed
 these figures as constants and, when Python with numpy is available, run
@@ -274,7 +275,6 @@ def solve(net, place, kind, case, zf_ohm=0.0, opened=()):
             i2 = -i1 * z0 / (zff[2] + z0)
             i0 = -i1 * zff[2] / (zff[2] + z0)
     iseq = [i0, i1, i2]
-    s.fault_seq_pu = iseq
     s.fault_a = np.abs(SEQ_TO_PHASE @ (np.array(iseq) * ibase[f])).max()
 
     def v_node(i):
@@ -296,7 +296,7 @@ def solve(net, place, kind, case, zf_ohm=0.0, opened=()):
 
     s.v = {}
     s.pre = {}
-    for k, (name, kv, _) in enumerate(net.buses):
+    for k, (name, _, _) in enumerate(net.buses):
         vb = vbase[k]
         s.v[name] = SEQ_TO_PHASE @ (to_bus_frame(v_node(k), k) * vb)
         s.pre[name] = SEQ_TO_PHASE @ (to_bus_frame([0, c, 0], k) * vb)
@@ -325,8 +325,6 @@ def solve(net, place, kind, case, zf_ohm=0.0, opened=()):
                 seq = [seq[q] + iseq[q] for q in range(3)]
             bus = br["ends"][e]
             s.i[(name, e)] = SEQ_TO_PHASE @ (to_bus_frame(seq, bus) * ibase[x])
-            if br["kind"] == "line" or e == 0:
-                pass
         if br["kind"] == "dyn":
             lv = terminals[(name, 1)]
             v0 = v_node(lv)[0]
@@ -368,6 +366,12 @@ QUADRATURE = [(1, 2), (2, 0), (0, 1)]  # Ia-Vbc, Ib-Vca, Ic-Vab
 
 
 class Relay:
+    """A relay at one end of a branch: its stages (quantity "phase" or
+    "ground", direction "non", "fwd" or "rev", and a curve), its breaker
+    time, an optional neutral CT (a Dyn transformer whose neutral current
+    its ground stages measure), and its directional element settings
+    (tripgrade's defaults)."""
+
     def __init__(self, name, branch, end, kv, stages, breaker_s, neutral_ct=None,
                  phase_rca=45.0, ground_rca=-45.0, phase_min_pct=1.0, ground_min_pct=2.0, memory=True):
         self.name, self.branch, self.end, self.kv = name, branch, end, kv
@@ -594,7 +598,6 @@ def put_seen(prefix, relay, sn):
         put(f"{prefix}.dir{ph}", d)
         put(f"{prefix}.ang{ph}", ang)
         put(f"{prefix}.mem{ph}", mem)
-    x, y = QUADRATURE[0]
     put(f"{prefix}.Vbc", abs(sn["V"][1] - sn["V"][2]))
     put(f"{prefix}.3I0", abs(sn["I"].sum()))
     put(f"{prefix}.3V0", abs(sn["V"].sum()))
@@ -943,18 +946,20 @@ def ring_line(name, line, relays):
         for case in (MAX, MIN):
             for kind in KINDS:
                 f = Fault(ring, ("branch", line, frac), kind, case)
-                iso, events, rec = clear_sequence(f, relays, RING_SIDES[line])
+                iso, events, _ = clear_sequence(f, relays, RING_SIDES[line])
                 if slowest is None or iso > slowest[0] * (1 + 1e-9):
                     slowest = (iso, frac, case, kind, events)
     put_slowest(f"{name}.{line}.slowest", slowest, relays)
 
 
 def ring_by_hand():
+    """One fault step by step: LLL in the maximum case a quarter of the way
+    along BC from RF-B. BC-B trips first on the intact ring's current; by
+    the time its breaker opens, BC-C has done that time's share of its own
+    operating time t0, and it finishes the rest on the current it carries
+    once BC-B is open."""
     relays = ring_relays()
-    # One fault by hand, step by step: LLL in the maximum case a quarter of
-    # the way along BC from RF-B.
     f = Fault(ring, ("branch", "BC", 0.25), "LLL", MAX)
-    net = ring(MAX)
     by = {r.name: r for r in relays}
     s0 = f.solve()
     b0 = by["BC-B"].seen(s0, "RF-B")
@@ -976,7 +981,6 @@ def ring_by_hand():
     put("ring.BC@0.25.second.open", second_trip + 0.06)
     put("ring.BC@0.25.BC-C.dira0", by["BC-C"].phase_dirs(c0)[0][0])
     put("ring.BC@0.25.BC-C.dira1", by["BC-C"].phase_dirs(c1)[0][0])
-    del net
 
 
 def main():
