@@ -190,10 +190,10 @@ func (r *clearRecord) offer(o clearRecord) {
 // event is one opening in a fault's sequence: a device's breaker (or a
 // fuse), or a source or generator taken out by its own protection.
 type event struct {
-	dev             int // −1 for an infeed
-	infeed          string
-	atS             float64 // when it opens
-	beforeA, afterA float64 // the device's current in the intact network and when it opened
+	dev            int // −1 for an infeed
+	infeed         string
+	atS            float64 // when it opens
+	intactA, openA float64 // the device's current in the intact network and when it opened
 }
 
 // tally is one worker's results, merged at the end.

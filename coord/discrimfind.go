@@ -150,9 +150,9 @@ func (x *netIndex) sequenceText(evs []event) string {
 			parts[i] = fmt.Sprintf("%s's own protection (declared; taken to act within %g s)", e.infeed, x.s.Criteria.MaxClearingS)
 			continue
 		}
-		cur := fmtA(e.afterA) + " A"
-		if math.Abs(e.beforeA-e.afterA) > 1e-3*math.Max(e.beforeA, e.afterA) {
-			cur = fmtA(e.afterA) + " A → " + fmtA(e.beforeA) + " A"
+		cur := fmtA(e.intactA) + " A"
+		if math.Abs(e.openA-e.intactA) > 1e-3*math.Max(e.openA, e.intactA) {
+			cur = fmtA(e.intactA) + " A → " + fmtA(e.openA) + " A"
 		}
 		s := fmt.Sprintf("%s at %.3f s (%s)", x.s.Devices[e.dev].Name, e.atS, cur)
 		parts[i] = s

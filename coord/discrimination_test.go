@@ -234,10 +234,6 @@ func TestParallelTransformersBusbar(t *testing.T) {
 // that it trips before the fault is isolated, as T1-LV's does for the
 // mirror fault on T2.
 func TestParallelTransformersTripNote(t *testing.T) {
-	t.Skip("bug: coord/sequence.go unwanted() projects a must-clear device's trip as now + (1 − prog)·t with the " +
-		"progress already advanced to the next opening, so the earliest must-clear trip depends on the order of the " +
-		"devices and can be too early; T2-LV's unwanted trip is then recorded against T1-HV at a 0.383 s margin and " +
-		"only the later relief record (no trip note) is kept; remove this Skip when fixed")
 	r := checkStudy(t, loadVariant(t, discriminationDir+"parallel-transformers.toml"))
 	if iso := hand(t, "twin.non.T1@1.max.LLL.clear"); !(hand(t, "twin.non.T1@1.max.LLL.T2-LV.s") < iso) {
 		t.Fatalf("script: T2-LV does not trip before isolation (%g s)", iso)
@@ -269,9 +265,6 @@ func directionalIncomers(t *testing.T, path string) *coord.Study {
 // report that slowest sequence (1.960 s), not the 1.413 s of the faults at
 // T1's 11 kV end.
 func TestParallelTransformersBackfeed(t *testing.T) {
-	t.Skip("bug: a fault fed from one side in the intact network is taken as isolated when that side's device opens " +
-		"(the one-side shortcut in coord/judge.go), though opening it can leave the fault fed along another path: " +
-		"T1's 33 kV terminal fault backfed through T2 and T1; remove this Skip when fixed")
 	s := loadVariant(t, discriminationDir+"parallel-transformers.toml")
 	r := checkStudy(t, s)
 	checkSlowest(t, s, oneFinding(t, r, coord.Clearing, "T1"), "twin.non.slowest", "T1")
@@ -490,8 +483,6 @@ func TestRingSequentialClearing(t *testing.T) {
 // opened (1619 A). The sequence must print its intact current, 365 A, not
 // 0 A.
 func TestRingSequenceIntactCurrent(t *testing.T) {
-	t.Skip("bug: coord/sequence.go records 0 A as the intact current of a device that joins a sequence after the " +
-		"first opening (st.touch(d, 0)), so the clearing note reads \"AB-B at 1.378 s (0 A → 1619 A)\"; remove this Skip when fixed")
 	path := discriminationDir + "ring.toml"
 	s := loadVariant(t, path, "pickup_a = 250", "pickup_a = 400")
 	r := checkStudy(t, s)

@@ -125,14 +125,24 @@ func (x *netIndex) judge(ws *workspace, t *tally, crit Criteria, v *view, devs [
 		return nil // fed only along paths without any device of the study
 	}
 	rec := clearRecord{key: key, place: ne.place, must: cl.must, failed: cl.failed, board: cl.board, isoS: math.Inf(1), above: -1}
+	m := -1
 	if cl.sides <= 1 && len(cl.failed) == 0 && len(cl.direct) == 0 && len(cl.own) == 0 && onePoint(x, cl.must) {
-		// One side: the fastest device there isolates the fault.
-		m := cl.must[0]
+		m = cl.must[0]
 		for _, d := range cl.must[1:] {
 			if tt.get(d).trip+x.breaker(d) < tt.get(m).trip+x.breaker(m) {
 				m = d
 			}
 		}
+		// Fed from one side, the fault is isolated when the fastest
+		// device there opens, unless the opening leaves it connected to
+		// an infeed some other way (a transformer fault fed back through
+		// its parallel unit once its own HV breaker opens): then the
+		// sequence follows it.
+		if x.isl.fedAfter(x.s.Devices[m].Point, ne.place, v.cs) {
+			m = -1
+		}
+	}
+	if m >= 0 {
 		rec.isoS = tt.get(m).trip + x.breaker(m)
 		if tt.get(m).above {
 			rec.above = m

@@ -37,6 +37,8 @@ type netIndex struct {
 	// topo is the study's topology, once it is known (the zone pass that
 	// builds it runs without).
 	topo *Topology
+	// isl tells whether an opening cuts a fault off from every infeed.
+	isl *islands
 }
 
 // pickupLimits are a relay's lowest pickups (+Inf where it has no stage of
@@ -103,6 +105,7 @@ func newNetIndex(s *Study, eng *faults.Engine, ratio []float64) *netIndex {
 		}
 	}
 	x.tauPhase, x.tauGround = explorationThresholds(s, x.devBus, ratio)
+	x.isl = newIslands(n, x.adj)
 	return x
 }
 

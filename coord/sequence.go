@@ -18,6 +18,7 @@ import (
 // arrays of the worker's reused from fault to fault.
 type seqState struct {
 	prog, progUp []float64
+	prog0        []float64 // prog at the start of the step being advanced
 	tripAt       []float64 // NaN until the device has tripped
 	open         []bool
 	firstA       []float64 // its current in the intact network
@@ -29,7 +30,7 @@ type seqState struct {
 
 func (x *netIndex) newSeqState() *seqState {
 	nd := len(x.s.Devices)
-	return &seqState{prog: make([]float64, nd), progUp: make([]float64, nd), tripAt: make([]float64, nd),
+	return &seqState{prog: make([]float64, nd), prog0: make([]float64, nd), progUp: make([]float64, nd), tripAt: make([]float64, nd),
 		open: make([]bool, nd), firstA: make([]float64, nd), proj: make([]float64, nd), stamp: make([]uint32, nd)}
 }
 
@@ -149,7 +150,11 @@ func (x *netIndex) sequence(ws *workspace, t *tally, crit Criteria, v0 *view, tt
 		if math.IsInf(nextT, 1) || nextT > limit {
 			return math.Inf(1), evs, failed, nil, nil
 		}
-		// Advance every device to it.
+		// Advance every device to it; an unwanted trip in the step is
+		// judged against the must-clear devices' progress at its start.
+		for _, d := range st.ids {
+			st.prog0[d] = st.prog[d]
+		}
 		for _, d := range st.ids {
 			if st.open[d] {
 				continue
@@ -186,7 +191,7 @@ func (x *netIndex) sequence(ws *workspace, t *tally, crit Criteria, v0 *view, tt
 			}
 			st.open[d] = true
 			opening.Ends = append(opening.Ends, x.s.Devices[d].Point)
-			evs = append(evs, event{dev: d, atS: nextT, beforeA: x.governA(d, tt.get(d).seen), afterA: st.firstA[d]})
+			evs = append(evs, event{dev: d, atS: nextT, intactA: st.firstA[d], openA: x.governA(d, tt.get(d).seen)})
 			lastDev = nextT
 			if first < 0 || d < first {
 				first = d
@@ -250,7 +255,7 @@ func (x *netIndex) sequence(ws *workspace, t *tally, crit Criteria, v0 *view, tt
 		tt, must, failed, own = nt, cl.must, cl.failed, cl.own
 		for i, d := range nt.ids {
 			if x.candidate(d, &nt.rows[i]) && (contains(must, d) || nt.rows[i].up <= T+horizon) {
-				st.touch(d, 0)
+				st.touch(d, x.governA(d, tt0.get(d).seen))
 			}
 		}
 		if len(must) == 0 && len(failed) == 0 && len(own) == 0 && len(cl.direct) > 0 {
@@ -294,7 +299,7 @@ func (x *netIndex) unwanted(t *tally, crit Criteria, d int, tripS float64, tt *t
 		}
 		at := st.tripAt[c]
 		if math.IsNaN(at) {
-			at = now + (1-st.prog[c])*tm.trip
+			at = now + (1-st.prog0[c])*tm.trip
 		}
 		if at < mS {
 			m, mS = c, at
