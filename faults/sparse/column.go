@@ -80,4 +80,3 @@ func (c *Column) At(i int) complex128 {
 	c.stack = st
 	return c.z[f.pinv[i]]
 }
-
