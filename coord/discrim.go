@@ -206,12 +206,15 @@ type tally struct {
 	// ownFaults counts the faults fed directly by each infeed whose own
 	// protection the study declares.
 	ownFaults map[string]int
+	// ownOnly marks the elements some fault of which the study's devices
+	// leave entirely to declared own protection.
+	ownOnly map[int]bool
 	judged    int
 }
 
 func (x *netIndex) newTally() *tally {
 	return &tally{ops: make([]opRecord, len(x.s.Devices)), clears: make([]clearRecord, len(x.n.Buses)+x.n.BranchCount()),
-		outside: map[int][]string{}, ownFaults: map[string]int{}}
+		outside: map[int][]string{}, ownFaults: map[string]int{}, ownOnly: map[int]bool{}}
 }
 
 func (t *tally) merge(o *tally) {
@@ -236,6 +239,9 @@ func (t *tally) merge(o *tally) {
 	}
 	for i, names := range o.outside {
 		t.outside[i] = union(t.outside[i], names)
+	}
+	for i := range o.ownOnly {
+		t.ownOnly[i] = true
 	}
 	for name, n := range o.ownFaults {
 		t.ownFaults[name] += n

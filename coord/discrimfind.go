@@ -21,6 +21,20 @@ func (c *checker) discrimination() ([]Finding, []string, error) {
 			notes = append(notes, fmt.Sprintf("%d faults are fed by %s with no device of the study between: that part is left to its own protection (the supply's, or the machine's), taken to act within the maximum clearing time %g s", n, name, c.s.Criteria.MaxClearingS))
 		}
 	}
+	var only []string
+	for i := 0; i < len(t.clears); i++ {
+		if t.ownOnly[i] && !t.clears[i].valid {
+			only = append(only, x.elementName(i))
+		}
+	}
+	if len(only) > 0 {
+		const shown = 12
+		list := strings.Join(only[:min(len(only), shown)], ", ")
+		if len(only) > shown {
+			list += fmt.Sprintf(" and %d more", len(only)-shown)
+		}
+		notes = append(notes, fmt.Sprintf("no device of the study clears any fault of %s: they are left to the declared own protection above, and have no fault-clearing finding", list))
+	}
 	return append(x.clearingFindings(t), x.discriminationFindings(t)...), notes, nil
 }
 

@@ -122,6 +122,9 @@ func (x *netIndex) judge(ws *workspace, t *tally, crit Criteria, v *view, devs [
 		t.ownFaults[in.name]++
 	}
 	if len(cl.must) == 0 && len(cl.failed) == 0 {
+		if len(cl.own) > 0 {
+			t.ownOnly[ne.index] = true
+		}
 		return nil // fed only along paths without any device of the study
 	}
 	rec := clearRecord{key: key, place: ne.place, must: cl.must, failed: cl.failed, board: cl.board, isoS: math.Inf(1), above: -1}

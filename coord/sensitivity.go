@@ -117,7 +117,7 @@ func (c *checker) primarySensitivity(i int) ([]Finding, error) {
 		}
 		f.Device, f.Stage = d.Name, q.String()
 		if beyondDelta {
-			f.Note += "; the zone's far end drives no residual current through the device (beyond a delta winding), so the smallest earth fault of the zone that does is used"
+			f.Note += "; the zone's far end drives no residual current through the device (it lies beyond a delta winding, or is fed with earth-fault current only from elsewhere), so the smallest earth fault of the zone that does is used"
 		}
 		out = append(out, f)
 	}
