@@ -29,7 +29,22 @@ type Timer struct {
 	// phaseDir and groundDir are the fastest stages of each Direction, per
 	// Band (nil where there are none).
 	phaseDir, groundDir [3][3]curves.Characteristic
-	directional         bool
+	// towardPhase and towardGround are, per Direction of the current, the
+	// fastest of the stages that operate for it (the non-directional
+	// ones and those of that direction), per Band.
+	towardPhase, towardGround [3][3]curves.Characteristic
+	directional               bool
+}
+
+// Toward returns the relay's phase and ground characteristics for
+// current flowing in direction dir (Forward: from its bus into its
+// branch): the fastest of its non-directional stages and of those set
+// that way. For NonDirectional it returns Phase and Ground.
+func (t *Timer) Toward(dir Direction) (phase, ground [3]curves.Characteristic) {
+	if dir == NonDirectional || !t.directional {
+		return t.Phase, t.Ground
+	}
+	return t.towardPhase[dir], t.towardGround[dir]
 }
 
 // NewTimer prepares a device's characteristics.
@@ -71,6 +86,10 @@ func NewTimer(d *Device) *Timer {
 	for dir := range phD {
 		set(&t.phaseDir[dir], phD[dir])
 		set(&t.groundDir[dir], grD[dir])
+	}
+	for _, dir := range []Direction{Forward, Reverse} {
+		set(&t.towardPhase[dir], append(append(curves.Fastest(nil), phD[NonDirectional]...), phD[dir]...))
+		set(&t.towardGround[dir], append(append(curves.Fastest(nil), grD[NonDirectional]...), grD[dir]...))
 	}
 	return t
 }

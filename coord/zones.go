@@ -51,6 +51,26 @@ type Topology struct {
 	// pairPlaces lists, per backup pair (upstream, downstream), the fault
 	// places for which the upstream device backs the downstream one up.
 	pairPlaces map[[2]int][]faults.Place
+	// dist is each bus's electrical distance from the grid sources
+	// (faults.Engine.SourceDistance).
+	dist []float64
+}
+
+// Above reports whether device u sits nearer the grid sources than
+// device d (generators left out): its branch reaches nearer them, or, on
+// the same reach, its own end is the nearer one (the HV relay of a
+// transformer above the LV incomer, which is above the feeders of its
+// busbar). Two incomers of one busbar, or two feeders, are level.
+func (t *Topology) Above(n *faults.Network, u, d Device) bool {
+	if t.dist == nil {
+		return true
+	}
+	key := func(dev Device) [2]float64 {
+		f, to := n.BranchEnds(dev.Point.Branch)
+		return [2]float64{min(t.dist[f], t.dist[to]), t.dist[DeviceBus(n, dev)]}
+	}
+	a, b := key(u), key(d)
+	return a[0] < b[0] || a[0] == b[0] && a[1] < b[1]
 }
 
 // PairPlaces returns the fault places for which device u backs device d
@@ -76,6 +96,7 @@ func NewTopology(s *Study, eng *faults.Engine) (*Topology, error) {
 	n := s.Network
 	t := &Topology{Downstream: make([]faults.End, n.BranchCount())}
 	dist := eng.SourceDistance()
+	t.dist = dist
 	for b := range t.Downstream {
 		f, to := n.BranchEnds(b)
 		t.Downstream[b] = faults.To
