@@ -209,7 +209,7 @@ type tally struct {
 	// ownOnly marks the elements some fault of which the study's devices
 	// leave entirely to declared own protection.
 	ownOnly map[int]bool
-	judged    int
+	judged  int
 }
 
 func (x *netIndex) newTally() *tally {
