@@ -148,6 +148,10 @@ type clearRecord struct {
 	undef    int
 	undefSet bool
 	unjudged int
+	// earthBy is 1 + the device whose declared earth-fault protection a
+	// fault is left to (0: none); declared counts the element's faults
+	// left so, and declaredBy names the first such device (1 + index).
+	earthBy, declared, declaredBy int
 }
 
 // noteUndef names device d as one whose curve gives no time; of several,
@@ -160,6 +164,13 @@ func (r *clearRecord) noteUndef(d int) {
 }
 
 func (r *clearRecord) offer(o clearRecord) {
+	if math.IsNaN(o.isoS) && o.earthBy > 0 {
+		r.declared++
+		if r.declaredBy == 0 || o.earthBy < r.declaredBy {
+			r.declaredBy = o.earthBy
+		}
+		return
+	}
 	if math.IsNaN(o.isoS) {
 		// A fault whose must-clear device's curve gives no time: counted,
 		// and named, apart from the judged ones.
@@ -177,9 +188,11 @@ func (r *clearRecord) offer(o clearRecord) {
 	if !r.valid || worse || (tie && o.key.less(r.key)) {
 		// The unjudged faults are the element's, not the record's.
 		unjudged, undef, undefSet := r.unjudged, r.undef, r.undefSet
+		declared, declaredBy := r.declared, r.declaredBy
 		*r = o
 		r.valid = true
 		r.unjudged, r.undef, r.undefSet = unjudged, undef, undefSet
+		r.declared, r.declaredBy = declared, declaredBy
 	}
 	if board >= 0 && r.board < 0 {
 		r.board = board
@@ -233,6 +246,10 @@ func (t *tally) merge(o *tally) {
 			t.clears[i].count = n
 		}
 		t.clears[i].unjudged += oc.unjudged
+		t.clears[i].declared += oc.declared
+		if oc.declaredBy > 0 && (t.clears[i].declaredBy == 0 || oc.declaredBy < t.clears[i].declaredBy) {
+			t.clears[i].declaredBy = oc.declaredBy
+		}
 		if oc.undefSet {
 			t.clears[i].noteUndef(oc.undef)
 		}

@@ -71,17 +71,30 @@ func (x *netIndex) clearingFindings(t *tally) []Finding {
 			out = append(out, f)
 			continue
 		}
-		if !r.valid && r.unjudged == 0 {
+		if !r.valid && r.unjudged == 0 && r.declared == 0 {
 			continue
 		}
 		name := x.elementName(i)
-		undefNote := ""
+		var gaps []string
 		if r.unjudged > 0 {
-			undefNote = fmt.Sprintf("not checked: %d faults, where %s's curve gives no time at the fault current (outside its table's points)", r.unjudged, x.s.Devices[r.undef].Name)
+			gaps = append(gaps, fmt.Sprintf("%d faults, where %s's curve gives no time at the fault current (outside its table's points)", r.unjudged, x.s.Devices[r.undef].Name))
+		}
+		if r.declared > 0 {
+			d := &x.s.Devices[r.declaredBy-1]
+			gaps = append(gaps, fmt.Sprintf("%d earth faults that drive no residual current through %s, left to \"%s\" (declared by the study)", r.declared, d.Name, d.EarthFaultsBy))
+		}
+		undefNote := ""
+		if len(gaps) > 0 {
+			undefNote = "not checked: " + joinNotes(gaps...)
 		}
 		if !r.valid {
-			f := unchecked(Clearing, undefNote[len("not checked: "):])
-			f.Device, f.Other = name, x.s.Devices[r.undef].Name
+			f := unchecked(Clearing, joinNotes(gaps...))
+			f.Device = name
+			if r.unjudged > 0 {
+				f.Other = x.s.Devices[r.undef].Name
+			} else {
+				f.Other = x.s.Devices[r.declaredBy-1].Name
+			}
 			out = append(out, f)
 			continue
 		}
@@ -99,7 +112,7 @@ func (x *netIndex) clearingFindings(t *tally) []Finding {
 			f.Fault = ref
 			f.Note = x.clearedNote(r)
 			if f.Verdict == Fail {
-				f.Note = "cleared too late: " + f.Note
+				f.Note = joinNotes("cleared too late", f.Note)
 			}
 		}
 		if undefNote != "" {

@@ -128,6 +128,20 @@ func (x *netIndex) judge(ws *workspace, t *tally, crit Criteria, v *view, devs [
 		return nil // fed only along paths without any device of the study
 	}
 	rec := clearRecord{key: key, place: ne.place, must: cl.must, failed: cl.failed, board: cl.board, isoS: math.Inf(1), above: -1}
+	if k.Earth() {
+		// An earth fault that drives no residual current through a
+		// device that must clear it, which the study declares cleared by
+		// protection it does not model (earth_faults_cleared_by): left
+		// to that protection, counted, not judged.
+		for _, d := range cl.must {
+			// (Phases summed leave some 1e-16 of the phase current.)
+			if sn := tt.get(d).seen; x.s.Devices[d].EarthFaultsBy != "" && sn.ResidualA() <= 1e-9*sn.PhaseA() {
+				rec.isoS, rec.earthBy = math.NaN(), d+1
+				t.clears[ne.index].offer(rec)
+				return nil
+			}
+		}
+	}
 	m := -1
 	if cl.sides <= 1 && len(cl.failed) == 0 && len(cl.direct) == 0 && len(cl.own) == 0 && onePoint(x, cl.must) {
 		m = cl.must[0]
