@@ -96,6 +96,10 @@ type clearing struct {
 	// without any device that operates: the fault is not cleared from
 	// that side.
 	failed []int
+	// earthBy lists the devices passed on chains to an infeed that name
+	// the protection clearing the earth faults they cannot see
+	// (earth_faults_cleared_by).
+	earthBy []int
 	// board is the switchboard bus the faulted branch is fed from without
 	// a device of its own there (−1 when none).
 	board int
@@ -153,6 +157,11 @@ func (v *view) search(ops func(d int) bool, past func(d int) bool) clearing {
 		return any
 	}
 	reached := func(y int) {
+		for _, d := range buf.passed {
+			if x.s.Devices[d].EarthFaultsBy != "" && !contains(c.earthBy, d) {
+				c.earthBy = append(c.earthBy, d)
+			}
+		}
 		undeclared := false
 		for _, in := range x.infeed[v.cs][y] {
 			if v.p.removed(in) {
@@ -242,6 +251,7 @@ func (v *view) search(ops func(d int) bool, past func(d int) bool) clearing {
 	}
 	sort.Ints(c.must)
 	sort.Ints(c.failed)
+	sort.Ints(c.earthBy)
 	sort.Strings(c.direct)
 	sort.Slice(c.own, func(i, j int) bool { return c.own[i].name < c.own[j].name })
 	return c

@@ -465,7 +465,18 @@ func (x *netIndex) required(crit Criteria, up, down int, tDown float64) float64 
 func (x *netIndex) marginOf(crit Criteria, up, down int, upS, downTrip float64) (margin, req float64) {
 	if x.s.Devices[up].Kind == Fuse {
 		clear := downTrip + x.breaker(down)
-		return upS - clear, (1 - crit.FuseMeltRatio) * upS
+		return timeDiff(upS, clear), (1 - crit.FuseMeltRatio) * upS
 	}
-	return upS - downTrip, x.required(crit, up, down, downTrip)
+	return timeDiff(upS, downTrip), x.required(crit, up, down, downTrip)
+}
+
+// timeDiff is a − b, exactly 0 where the two times agree to 1e-12 of
+// themselves: two devices with the same curve and current operate at the
+// same time, whatever the last bits of the arithmetic that timed them.
+func timeDiff(a, b float64) float64 {
+	d := a - b
+	if math.Abs(d) <= 1e-12*math.Max(math.Abs(a), math.Abs(b)) {
+		return 0
+	}
+	return d
 }

@@ -58,7 +58,7 @@ func (g grader) eval(s sample) gradeOutcome {
 		return o
 	}
 	o.ok = true
-	o.margin = o.tU - o.tD
+	o.margin = timeDiff(o.tU, o.tD)
 	switch {
 	case upFuse:
 		o.required = (1 - crit.FuseMeltRatio) * o.tU

@@ -129,13 +129,13 @@ func (x *netIndex) judge(ws *workspace, t *tally, crit Criteria, v *view, devs [
 	}
 	rec := clearRecord{key: key, place: ne.place, must: cl.must, failed: cl.failed, board: cl.board, isoS: math.Inf(1), above: -1}
 	if k.Earth() {
-		// An earth fault that drives no residual current through a
-		// device that must clear it, which the study declares cleared by
-		// protection it does not model (earth_faults_cleared_by): left
-		// to that protection, counted, not judged.
-		for _, d := range cl.must {
-			// (Phases summed leave some 1e-16 of the phase current.)
-			if sn := tt.get(d).seen; x.s.Devices[d].EarthFaultsBy != "" && sn.ResidualA() <= 1e-9*sn.PhaseA() {
+		// An earth fault beyond a delta winding from a device that must
+		// clear it, or that stands unoperated between it and an infeed,
+		// where the study declares protection it does not model for such
+		// faults (earth_faults_cleared_by): left to that protection,
+		// counted, not judged.
+		for _, d := range append(cl.must[:len(cl.must):len(cl.must)], cl.earthBy...) {
+			if x.s.Devices[d].EarthFaultsBy != "" && beyondDelta(v.seen(d, k)) {
 				rec.isoS, rec.earthBy = math.NaN(), d+1
 				t.clears[ne.index].offer(rec)
 				return nil
@@ -181,6 +181,16 @@ func (x *netIndex) judge(ws *workspace, t *tally, crit Criteria, v *view, devs [
 	}
 	t.clears[ne.index].offer(rec)
 	return nil
+}
+
+// beyondDelta reports whether an earth fault lies beyond a delta winding
+// from a device: it drives no residual current through the device and
+// leaves no zero-sequence voltage at the device's bus (a fault on the
+// device's own side of the winding raises one there). Phases and voltages
+// summed leave some 1e-16 of their size; 1e-9 of it is none.
+func beyondDelta(s Seen) bool {
+	v0 := abs(s.V[0] + s.V[1] + s.V[2])
+	return s.ResidualA() <= 1e-9*s.PhaseA() && v0 <= 1e-9*abs(s.Pre[0])
 }
 
 // union returns the sorted union of two sorted name lists.
