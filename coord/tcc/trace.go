@@ -89,11 +89,16 @@ const (
 // directional the other way is left off the chart, as the checks leave it
 // out for those faults.
 func (a *Atlas) stagesFor(i int) (phase, ground [3]curves.Characteristic) {
-	dir := coord.Reverse
+	return a.timers[i].Toward(a.facing(i))
+}
+
+// facing is the direction of the current that the faults ahead of device
+// i drive through it.
+func (a *Atlas) facing(i int) coord.Direction {
 	if a.in.Topology.IntoBranch(a.in.Study.Devices[i].Point) {
-		dir = coord.Forward
+		return coord.Forward
 	}
-	return a.timers[i].Toward(dir)
+	return coord.Reverse
 }
 
 // deviceTraces samples device i's curves of the chart's kind across the
