@@ -38,8 +38,8 @@ func detect(d *Device, dev int, phaseA, residualA float64) detection {
 // earth-fault relay. They detect a fault together.
 func (c *checker) scheme(i int) []int {
 	out := []int{i}
-	for j := range c.s.Devices {
-		if j != i && c.s.Devices[j].Point == c.s.Devices[i].Point {
+	for _, j := range c.atPoint[c.s.Devices[i].Point] {
+		if j != i {
 			out = append(out, j)
 		}
 	}
@@ -86,7 +86,7 @@ func (c *checker) coverage(i int) (*Finding, error) {
 			if !sol.Energised() {
 				continue
 			}
-			ph, res := Measured(sol.At(d.Point))
+			ph, res := c.effective(i, sol)
 			if ph == 0 && res == 0 {
 				continue
 			}

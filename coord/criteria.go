@@ -58,6 +58,11 @@ type Criteria struct {
 	// inrush point (common practice 8–12 × full-load current for 0.1 s).
 	InrushMultiple float64
 	InrushTimeS    float64
+	// MaxClearingS is the longest a fault may take to be cleared (every
+	// breaker and fuse that isolates it open): 3 s, the longest of the
+	// rated durations of short circuit IEC 62271-1 lists for switchgear
+	// (1 s standard; 0.5, 2 and 3 s also used; from memory).
+	MaxClearingS float64
 }
 
 // MarginComponents are the parts of a grading margin.
@@ -81,5 +86,6 @@ func DefaultCriteria() Criteria {
 		InstantaneousTimeS:  0.03,
 		InrushMultiple:      12,
 		InrushTimeS:         0.1,
+		MaxClearingS:        3,
 	}
 }

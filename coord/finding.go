@@ -38,21 +38,27 @@ const (
 	Inrush
 	Damage
 	SettingsAudit
+	// Discrimination: no device operates for a fault outside its zone
+	// before the devices that must clear it (judged fault by fault).
+	Discrimination
+	// Clearing: every fault is cleared, within the maximum clearing time,
+	// by devices of the faulted element's own.
+	Clearing
 )
 
 // CheckKinds lists the checks in report order.
-var CheckKinds = [...]CheckKind{Grading, PrimarySensitivity, BackupSensitivity, LoadMargin, InstantaneousReach, Inrush, Damage, SettingsAudit}
+var CheckKinds = [...]CheckKind{Clearing, Discrimination, Grading, PrimarySensitivity, BackupSensitivity, LoadMargin, InstantaneousReach, Inrush, Damage, SettingsAudit}
 
 // String returns the check's name as reports print it.
 func (c CheckKind) String() string {
 	return [...]string{"grading margin", "primary sensitivity", "backup sensitivity", "load margin",
-		"instantaneous reach", "inrush", "damage", "settings audit"}[c]
+		"instantaneous reach", "inrush", "damage", "settings audit", "discrimination", "fault clearing"}[c]
 }
 
 // Slug returns the check's name for machine-readable output.
 func (c CheckKind) Slug() string {
 	return [...]string{"grading", "primary_sensitivity", "backup_sensitivity", "load", "instantaneous_reach",
-		"inrush", "damage", "settings"}[c]
+		"inrush", "damage", "settings", "discrimination", "clearing"}[c]
 }
 
 // Timed reports whether the check's findings carry operating times of
@@ -120,6 +126,10 @@ type Result struct {
 	Pairs    []Pair
 	Excluded []Pair // derived pairs the study excluded
 	Findings []Finding
+	// Notes say what the checks assumed or left to others (sources and
+	// generators whose own protection clears what no device of the study
+	// stands between), for the report's header.
+	Notes []string
 }
 
 // Counts returns the number of findings of each verdict; accepted

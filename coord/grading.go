@@ -37,11 +37,11 @@ func (g grader) eval(s sample) gradeOutcome {
 	var stD, stU curves.Status
 	upFuse, downFuse := g.u.Dev.Kind == Fuse, g.d.Dev.Kind == Fuse
 	if upFuse {
-		o.tD, stD = g.d.Clearing(s.dp, s.dr, dBand)
-		o.tU, stU = g.u.Melt(s.up, s.ur, uBand)
+		o.tD, stD = g.d.ClearingDir(s.dp, s.dr, s.dd, dBand)
+		o.tU, stU = g.u.MeltDir(s.up, s.ur, s.ud, uBand)
 	} else {
-		o.tD, stD = g.d.Operate(s.dp, s.dr, dBand)
-		o.tU, stU = g.u.Operate(s.up, s.ur, uBand)
+		o.tD, stD = g.d.OperateDir(s.dp, s.dr, s.dd, dBand)
+		o.tU, stU = g.u.OperateDir(s.up, s.ur, s.ud, uBand)
 	}
 	switch {
 	case stD == curves.NoTrip:
@@ -58,7 +58,7 @@ func (g grader) eval(s sample) gradeOutcome {
 		return o
 	}
 	o.ok = true
-	o.margin = o.tU - o.tD
+	o.margin = timeDiff(o.tU, o.tD)
 	switch {
 	case upFuse:
 		o.required = (1 - crit.FuseMeltRatio) * o.tU
@@ -144,12 +144,18 @@ func (c *checker) grading(p Pair) (Finding, error) {
 	var undefD, undefU undefinedSpan
 	consider := func(s sample) {
 		o := g.eval(s)
+		// A swept point where the downstream device takes longer than a
+		// fault is followed (it barely operates) measures no grading: the
+		// fault-clearing check judges such slow clearing.
+		if s.swept() && o.ok && o.tD > seqLimitS(c.s.Criteria) {
+			return
+		}
 		switch {
 		case o.dUndefined:
 			undefD.add(s.key())
 		case o.undefined:
 			dOps++
-			a, _ := governing(g.u, s.up, s.ur)
+			a, _ := governing(g.u, s.up, s.ur, s.ud)
 			undefU.add(a)
 		case !o.dNoTrip:
 			dOps++
@@ -166,7 +172,7 @@ func (c *checker) grading(p Pair) (Finding, error) {
 	var pts []sample
 	for _, cs := range faults.Cases {
 		for _, k := range faults.Kinds {
-			s, err := c.samples(p.Downstream, p.Upstream, p.Downstream, k, cs)
+			s, err := c.samples(c.pairPlaces(p), p.Upstream, p.Downstream, k, cs)
 			if err != nil {
 				return Finding{}, err
 			}
@@ -177,9 +183,7 @@ func (c *checker) grading(p Pair) (Finding, error) {
 		consider(s)
 	}
 	du, dd := &c.s.Devices[p.Upstream], &c.s.Devices[p.Downstream]
-	for _, s := range sweep(pts, [4][]float64{knees(dd, Phase), knees(dd, Residual), knees(du, Phase), knees(du, Residual)}, false) {
-		consider(s)
-	}
+	sweepEach(pts, [4][]float64{knees(dd, Phase), knees(dd, Residual), knees(du, Phase), knees(du, Residual)}, false, consider)
 	var uncovered []string
 	if undefD.points > 0 {
 		uncovered = append(uncovered, undefD.text(dd.Name, curveName(g.d, false)))
@@ -193,8 +197,8 @@ func (c *checker) grading(p Pair) (Finding, error) {
 		f = atLeast(Grading, best.margin, best.required, "s")
 		ref := FaultRef{Kind: worst.kind, Case: worst.cs, Place: worst.place, Interpolated: worst.swept(), Scale: worst.scale,
 			DeviceS: best.tD, OtherS: best.tU}
-		ref.DeviceA, ref.DeviceQty = governing(g.d, worst.dp, worst.dr)
-		ref.OtherA, ref.OtherQty = governing(g.u, worst.up, worst.ur)
+		ref.DeviceA, ref.DeviceQty = governing(g.d, worst.dp, worst.dr, worst.dd)
+		ref.OtherA, ref.OtherQty = governing(g.u, worst.up, worst.ur, worst.ud)
 		f.Fault = &ref
 		f.Note = marginNote
 		if len(uncovered) > 0 {
@@ -229,10 +233,10 @@ func joinNotes(parts ...string) string {
 // governing returns the current that sets a device's time and which it
 // is: the residual current when a ground stage is faster, else the phase
 // current.
-func governing(t *Timer, phaseA, residualA float64) (float64, Quantity) {
+func governing(t *Timer, phaseA, residualA float64, d Dirs) (float64, Quantity) {
 	if t.Dev.Kind == Relay && t.Ground[Nominal] != nil && t.Phase[Nominal] != nil {
-		tg, sg := t.Ground[Nominal].Time(residualA)
-		tp, sp := t.Phase[Nominal].Time(phaseA)
+		tg, sg := t.groups(phaseA, residualA, d, Nominal, groundStages)
+		tp, sp := t.groups(phaseA, residualA, d, Nominal, phaseStages)
 		if sg == curves.Operates && (sp != curves.Operates || tg < tp) {
 			return residualA, Residual
 		}
@@ -243,12 +247,22 @@ func governing(t *Timer, phaseA, residualA float64) (float64, Quantity) {
 	return phaseA, Phase
 }
 
-// samples solves every fault of zone z's places of kind k in case cs and
+// pairPlaces are the faults a pair is graded on: those for which the
+// upstream device backs the downstream one up, or, for a pair the study
+// adds by hand, the downstream device's whole zone.
+func (c *checker) pairPlaces(p Pair) []faults.Place {
+	if pl := c.topo.PairPlaces(p.Upstream, p.Downstream); pl != nil {
+		return pl
+	}
+	return c.places[p.Downstream]
+}
+
+// samples solves every fault of the given places of kind k in case cs and
 // returns what devices d (downstream) and u (upstream) see.
-func (c *checker) samples(zone, u, d int, k faults.Kind, cs faults.Case) ([]sample, error) {
+func (c *checker) samples(places []faults.Place, u, d int, k faults.Kind, cs faults.Case) ([]sample, error) {
 	n := c.s.Network
 	var out []sample
-	for _, pl := range c.places[zone] {
+	for _, pl := range places {
 		sol, err := c.sol.solve(pl, k, cs)
 		if err != nil {
 			return nil, err
@@ -256,12 +270,12 @@ func (c *checker) samples(zone, u, d int, k faults.Kind, cs faults.Case) ([]samp
 		if !sol.Energised() {
 			continue
 		}
-		dp, dr := Measured(sol.At(c.s.Devices[d].Point))
-		up, ur := Measured(sol.At(c.s.Devices[u].Point))
+		dp, dr, dd := c.measure(d, sol)
+		up, ur, ud := c.measure(u, sol)
 		if dp == 0 && dr == 0 {
 			continue
 		}
-		out = append(out, sample{dp: dp, dr: dr, up: up, ur: ur, kind: k, cs: cs, place: PlaceName(n, pl), scale: 1})
+		out = append(out, sample{dp: dp, dr: dr, up: up, ur: ur, dd: dd, ud: ud, kind: k, cs: cs, place: PlaceName(n, pl), scale: 1})
 	}
 	return out, nil
 }

@@ -87,6 +87,11 @@ func TestUncoveredFuseTableWarns(t *testing.T) {
 		t.Errorf("hand value %g A", iB3max)
 	}
 	for _, x := range r.Findings {
+		// The clearing of F2's own faults is not checked for the same
+		// reason, and says so.
+		if x.Check == coord.Clearing && x.Verdict == coord.Warn && strings.Contains(x.Note, "F2's curve gives no time") {
+			continue
+		}
 		if x.Verdict != coord.Pass && x != f {
 			t.Errorf("unexpected %s %s %s: %s", x.Verdict, x.Check, x.Device, x.Note)
 		}

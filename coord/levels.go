@@ -76,15 +76,48 @@ func (s *placeSet) add(p faults.Place) {
 }
 
 // FaultLevels summarises the currents every device sees over the faults of
-// its own zone, both cases, every fault kind.
+// its own zone ahead of it (see Ahead), both cases, every fault kind.
 func FaultLevels(s *Study, eng *faults.Engine, t *Topology) ([]faults.PointSummary, error) {
 	pts := make([]faults.Point, len(s.Devices))
 	for i, d := range s.Devices {
 		pts[i] = d.Point
 	}
 	return eng.AllPoints(pts, func(i int) []faults.Place {
-		return t.Places(t.Zones[i], s.Network, s.Faults)
+		return t.Ahead(s.Network, s.Devices[i], t.Places(t.Zones[i], s.Network, s.Faults))
 	})
+}
+
+// Ahead keeps the fault places that lie ahead of device d, away from the
+// grid sources, where its fault levels and charts look: a device at the
+// source end of its branch leaves out faults at its own bus and at the
+// other branches' terminals there; one at the far end (an LV incomer)
+// leaves out faults on its own branch. Those are faults the device must
+// clear only from behind (its transformer fed back through a parallel
+// unit, its busbar fed by a generator beyond it). A zone with nothing
+// ahead keeps every place.
+func (t *Topology) Ahead(n *faults.Network, d Device, places []faults.Place) []faults.Place {
+	bus := DeviceBus(n, d)
+	into := t.IntoBranch(d.Point)
+	var out []faults.Place
+	for _, p := range places {
+		switch {
+		case into && p.IsBus():
+			if p.Bus == bus {
+				continue
+			}
+		case into && p.Branch != d.Point.Branch:
+			if f, to := n.BranchEnds(p.Branch); p.Frac == 0 && f == bus || p.Frac == 1 && to == bus {
+				continue
+			}
+		case !into && !p.IsBus() && p.Branch == d.Point.Branch:
+			continue
+		}
+		out = append(out, p)
+	}
+	if len(out) == 0 {
+		return places
+	}
+	return out
 }
 
 // PlaceName describes a fault place for reports: a bus name, "F1-OHL 50 %"

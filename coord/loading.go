@@ -35,12 +35,15 @@ func LoadThrough(s *Study, t *Topology, i int) (a float64, declared bool) {
 // load_factor × the maximum load current through the device.
 func (c *checker) loadMargin(i int) (Finding, bool) {
 	d := &c.s.Devices[i]
-	setting, what := d.Pickup(Phase), "phase pickup"
+	setting, what := c.loadPickup(i), "phase pickup"
 	if d.Kind == Fuse {
 		setting, what = d.RatingA, "fuse rating"
 	}
 	if setting == 0 {
 		return Finding{}, false
+	}
+	if d.Kind == Relay && setting != d.Pickup(Phase) {
+		what = "lowest pickup of the phase stages that load current reaches (a directional stage looking against the load's flow does not see it)"
 	}
 	load, declared := LoadThrough(c.s, c.topo, i)
 	if load == 0 {
@@ -56,6 +59,29 @@ func (c *checker) loadMargin(i int) (Finding, bool) {
 	}
 	f.Note = fmt.Sprintf("%s; load %s A (%s) × %g", what, fmtA(load), src, c.s.Criteria.LoadFactor)
 	return f, true
+}
+
+// loadPickup returns the lowest pickup of device i's phase stages that
+// load current reaches: a directional stage looking against the direction
+// load flows in (away from the grid sources) does not see it — an
+// assumption that holds while embedded generation does not export through
+// the device.
+func (c *checker) loadPickup(i int) float64 {
+	d := &c.s.Devices[i]
+	loadDir := Forward // load flows from the bus into the branch
+	if !c.topo.IntoBranch(d.Point) {
+		loadDir = Reverse
+	}
+	p := 0.0
+	for _, s := range d.Stages {
+		if s.Measures != Phase || (s.Direction != NonDirectional && s.Direction != loadDir) {
+			continue
+		}
+		if p == 0 || s.PickupA < p {
+			p = s.PickupA
+		}
+	}
+	return p
 }
 
 // TransformersEnergised returns the transformers that device i energises

@@ -22,6 +22,11 @@ type Study struct {
 	// Pairs are the study's own additions to and exclusions from the
 	// derived backup pairs.
 	Pairs []PairRule
+	// OwnProtection names the sources and generators whose own protection
+	// (the supply's upstream protection, a machine's protection) removes
+	// their infeed of a fault that no device of the study stands between,
+	// within the maximum clearing time.
+	OwnProtection []string
 	// Notes are what the loader assumed where the input left a choice
 	// (which separator a settings table uses, say), each naming its file
 	// and line; reports print them so a reviewer sees them.
@@ -84,6 +89,14 @@ type Device struct {
 	// MaxLoadA is a declared maximum load current through the device; zero
 	// means the sum of the loads beyond it.
 	MaxLoadA float64
+	// Dir holds the directional element settings its directional stages
+	// share (unused when every stage is non-directional).
+	Dir Directional
+	// NeutralCT, when not nil, is the star-side end of a transformer whose
+	// neutral current the relay's ground stages measure (standby earth
+	// fault protection, 51N on a neutral CT) instead of the residual
+	// current at the relay's own point.
+	NeutralCT *faults.Point
 	// EarthFaultsBy names the protection the study declares clears the
 	// earth faults this device cannot see because they drive no residual
 	// current through it (behind a delta winding: a standby earth-fault
@@ -121,8 +134,11 @@ type CT struct {
 
 // Stage is one protection stage of a relay.
 type Stage struct {
-	Label      string // e.g. "51", "50", "51N" (derived when the study gives none)
-	Measures   Quantity
+	Label    string // e.g. "51", "50", "51N" (derived when the study gives none)
+	Measures Quantity
+	// Direction is the direction the stage trips in (67/67N when not
+	// NonDirectional), judged by the relay's Directional elements.
+	Direction  Direction
 	Shape      curves.Shape
 	PickupA    float64 // primary amperes
 	Multiplier float64 // TMS or TD for inverse shapes

@@ -58,7 +58,7 @@ func (c *checker) maxFault(i int, q Quantity, places []faults.Place) (largest, e
 			if err != nil {
 				return worst, err
 			}
-			ph, res := Measured(sol.At(c.s.Devices[i].Point))
+			ph, res := c.effective(i, sol)
 			a := ph
 			if q == Residual {
 				a = res
@@ -104,7 +104,7 @@ func (c *checker) instantaneousReach(i int) ([]Finding, error) {
 		}
 		if !worst.found {
 			f := Finding{Check: InstantaneousReach, Device: d.Name, Stage: st.Label, Verdict: Pass,
-				Note: "no earth fault where the zone ends drives residual current through the device (beyond a delta winding): the stage cannot overreach"}
+				Note: "no earth fault where the zone ends drives residual current through the device (beyond a delta winding, or fed with earth-fault current only from elsewhere): the stage cannot overreach"}
 			if st.Measures == Phase {
 				f = unchecked(InstantaneousReach, "no fault where the zone ends drives current through the device")
 				f.Device, f.Stage = d.Name, st.Label

@@ -121,7 +121,15 @@ func (sc *Scope) Keeps(device, other string) bool {
 func (sc *Scope) Apply(s *Study, r *Result) (left []Finding) {
 	kept := r.Findings[:0:0]
 	for _, f := range r.Findings {
-		if sc.Keeps(f.Device, f.Other) {
+		keep := sc.Keeps(f.Device, f.Other)
+		if f.Check == Clearing {
+			// A fault-clearing finding is about an element; it belongs
+			// to the scope when a device of the scope clears it.
+			for _, name := range strings.Split(f.Other, ", ") {
+				keep = keep || sc.in[name]
+			}
+		}
+		if keep {
 			kept = append(kept, f)
 		} else {
 			left = append(left, f)

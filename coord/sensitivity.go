@@ -56,7 +56,7 @@ func (c *checker) minFault(dev int, q Quantity, places []faults.Place) (minimum,
 			if !sol.Energised() {
 				continue
 			}
-			ph, res := Measured(sol.At(d.Point))
+			ph, res := c.effective(dev, sol)
 			a := ph
 			if q == Residual {
 				a = res
@@ -117,7 +117,7 @@ func (c *checker) primarySensitivity(i int) ([]Finding, error) {
 		}
 		f.Device, f.Stage = d.Name, q.String()
 		if beyondDelta {
-			f.Note += "; the zone's far end drives no residual current through the device (beyond a delta winding), so the smallest earth fault of the zone that does is used"
+			f.Note += "; the zone's far end drives no residual current through the device (it lies beyond a delta winding, or is fed with earth-fault current only from elsewhere), so the smallest earth fault of the zone that does is used"
 		}
 		out = append(out, f)
 	}
@@ -150,6 +150,17 @@ func (c *checker) backupSensitivity(p Pair) ([]Finding, error) {
 		}
 		if !m.found && q == Residual {
 			continue
+		}
+		if !m.found {
+			// No current reaches the upstream device in the minimum case,
+			// though it backs the other up in the maximum case: its side is
+			// fed only by what the minimum case leaves out (a generator not
+			// always running). There is then nothing for it to detect.
+			if mx, err := c.maxFault(p.Upstream, q, c.topo.Zones[p.Downstream].FarEnd); err != nil {
+				return nil, err
+			} else if mx.found {
+				continue
+			}
 		}
 		f, err := c.sensitivityFinding(BackupSensitivity, m, c.s.Criteria.SensitivityBackup, pickup, q, p.Upstream, p.Downstream)
 		if err != nil {
@@ -184,7 +195,7 @@ func (c *checker) sensitivityFinding(ck CheckKind, m minimum, factor, pickup flo
 		if err != nil {
 			return f, err
 		}
-		ph, res := Measured(sol.At(c.s.Devices[down].Point))
+		ph, res, _ := c.measure(down, sol)
 		ref.DeviceA, ref.DeviceQty = ph, Phase
 		if q == Residual {
 			ref.DeviceA, ref.DeviceQty = res, Residual

@@ -40,7 +40,8 @@ const kneeOffset = 1e-7
 // sample is one fault as two devices see it: the checked (downstream)
 // device and the other device or the protected equipment.
 type sample struct {
-	dp, dr, up, ur float64 // device's and other's phase and residual currents
+	dp, dr, up, ur float64 // device's and other's phase and ground currents
+	dd, ud         Dirs    // how their directional elements decided
 	kind           faults.Kind
 	cs             faults.Case
 	place          string
@@ -141,6 +142,14 @@ func families(pts []sample) []family {
 // knee in that range (knees[0] and knees[1] of the device's phase and
 // residual currents, knees[2] and knees[3] of the other's).
 func sweep(pts []sample, knees [4][]float64, byOther bool) []sample {
+	var out []sample
+	sweepEach(pts, knees, byOther, func(s sample) { out = append(out, s) })
+	return out
+}
+
+// sweepEach hands the swept points of sweep to fn one by one, without
+// keeping them.
+func sweepEach(pts []sample, knees [4][]float64, byOther bool, fn func(sample)) {
 	bound := func(s sample) (float64, int) {
 		switch {
 		case byOther:
@@ -165,7 +174,6 @@ func sweep(pts []sample, knees [4][]float64, byOther bool) []sample {
 			}
 		}
 	}
-	var out []sample
 	for _, fam := range families(pts) {
 		top := fam.top
 		a, q := bound(top)
@@ -182,7 +190,7 @@ func sweep(pts []sample, knees [4][]float64, byOther bool) []sample {
 		n := int(math.Ceil(math.Log(1/lo)/math.Log(sweepStep) - 1e-9))
 		for j := 1; j <= n; j++ {
 			// Scales from just below 1 down to exactly lo.
-			out = append(out, top.scaled(math.Pow(lo, float64(j)/float64(n))))
+			fn(top.scaled(math.Pow(lo, float64(j)/float64(n))))
 		}
 		v := [4]float64{top.dp, top.dr, top.up, top.ur}
 		for i, ks := range knees {
@@ -192,13 +200,12 @@ func sweep(pts []sample, knees [4][]float64, byOther bool) []sample {
 			for _, k := range ks {
 				for _, f := range [2]float64{1 - kneeOffset, 1 + kneeOffset} {
 					if s := k * f / v[i]; s >= lo && s < 1 {
-						out = append(out, top.scaled(s))
+						fn(top.scaled(s))
 					}
 				}
 			}
 		}
 	}
-	return out
 }
 
 // knees returns the currents where device d's time for quantity q jumps

@@ -2,9 +2,9 @@ package coord
 
 import (
 	"math"
+	"math/cmplx"
 
 	"tripgrade/curves"
-	"tripgrade/faults"
 )
 
 // Band selects a device's nominal time or an edge of its tolerance band.
@@ -24,8 +24,27 @@ const (
 type Timer struct {
 	Dev *Device
 	// Phase and Ground are the fastest of the relay's phase and ground
-	// stages (nil when it has none), per Band.
+	// stages (nil when it has none), per Band, whatever their direction.
 	Phase, Ground [3]curves.Characteristic
+	// phaseDir and groundDir are the fastest stages of each Direction, per
+	// Band (nil where there are none).
+	phaseDir, groundDir [3][3]curves.Characteristic
+	// towardPhase and towardGround are, per Direction of the current, the
+	// fastest of the stages that operate for it (the non-directional
+	// ones and those of that direction), per Band.
+	towardPhase, towardGround [3][3]curves.Characteristic
+	directional               bool
+}
+
+// Toward returns the relay's phase and ground characteristics for
+// current flowing in direction dir (Forward: from its bus into its
+// branch): the fastest of its non-directional stages and of those set
+// that way. For NonDirectional it returns Phase and Ground.
+func (t *Timer) Toward(dir Direction) (phase, ground [3]curves.Characteristic) {
+	if dir == NonDirectional || !t.directional {
+		return t.Phase, t.Ground
+	}
+	return t.towardPhase[dir], t.towardGround[dir]
 }
 
 // NewTimer prepares a device's characteristics.
@@ -35,11 +54,17 @@ func NewTimer(d *Device) *Timer {
 		return t
 	}
 	var ph, gr curves.Fastest
+	var phD, grD [3]curves.Fastest
 	for _, s := range d.Stages {
 		if s.Measures == Phase {
 			ph = append(ph, s.Curve)
+			phD[s.Direction] = append(phD[s.Direction], s.Curve)
 		} else {
 			gr = append(gr, s.Curve)
+			grD[s.Direction] = append(grD[s.Direction], s.Curve)
+		}
+		if s.Direction != NonDirectional {
+			t.directional = true
 		}
 	}
 	set := func(dst *[3]curves.Characteristic, f curves.Fastest) {
@@ -58,11 +83,201 @@ func NewTimer(d *Device) *Timer {
 	}
 	set(&t.Phase, ph)
 	set(&t.Ground, gr)
+	for dir := range phD {
+		set(&t.phaseDir[dir], phD[dir])
+		set(&t.groundDir[dir], grD[dir])
+	}
+	for _, dir := range []Direction{Forward, Reverse} {
+		set(&t.towardPhase[dir], append(append(curves.Fastest(nil), phD[NonDirectional]...), phD[dir]...))
+		set(&t.towardGround[dir], append(append(curves.Fastest(nil), grD[NonDirectional]...), grD[dir]...))
+	}
 	return t
 }
 
-// Measured returns the current each quantity of the device sees.
-func Measured(c faults.Currents) (phaseA, residualA float64) { return c.PhaseMaxA(), c.ResidualA() }
+// Directional reports whether any stage of the device is directional.
+func (t *Timer) Directional() bool { return t.directional }
+
+// Directions returns the decisions of the relay's phase elements and of
+// its ground element for what it sees.
+func (t *Timer) Directions(s *Seen) (phase [3]Direction, ground Direction) {
+	return t.Dev.Dir.PhaseDirections(s), t.Dev.Dir.GroundDirection(s)
+}
+
+// OperateSeen returns the relay's operating time (without the breaker) in
+// a band, or a fuse's total clearing time, for what the device sees: each
+// phase stage on the largest phase current whose element looks its way
+// (a non-directional stage on the largest phase current), each ground
+// stage on 3I0 when the ground element looks its way.
+func (t *Timer) OperateSeen(s *Seen, b Band) (float64, curves.Status) {
+	if t.Dev.Kind == Fuse {
+		return t.Dev.Clear.Time(s.PhaseA())
+	}
+	return t.relaySeen(s, b, allStages)
+}
+
+// MeltSeen returns a fuse's minimum melting time (for a relay, its
+// operating time) for what it sees.
+func (t *Timer) MeltSeen(s *Seen, b Band) (float64, curves.Status) {
+	if t.Dev.Kind == Fuse {
+		return t.Dev.Melt.Time(s.PhaseA())
+	}
+	return t.relaySeen(s, b, allStages)
+}
+
+// ClearingSeen returns the time to clear for what the device sees: a
+// relay's operating time plus its breaker's, a fuse's clearing time.
+func (t *Timer) ClearingSeen(s *Seen, b Band) (float64, curves.Status) {
+	x, st := t.OperateSeen(s, b)
+	if t.Dev.Kind == Relay && st == curves.Operates {
+		x += t.Dev.BreakerS
+	}
+	return x, st
+}
+
+// Which of a relay's stages to time.
+const (
+	phaseStages  = 1
+	groundStages = 2
+	allStages    = phaseStages | groundStages
+)
+
+func (t *Timer) relaySeen(s *Seen, b Band, which int) (float64, curves.Status) {
+	phaseA, residualA := s.PhaseA(), s.groundA(t.Dev)
+	if !t.directional {
+		return t.groups(phaseA, residualA, Dirs{}, b, which)
+	}
+	var d Dirs
+	d.Known = true
+	pd, gd := t.Directions(s)
+	for p, dir := range pd {
+		a := cmplx.Abs(s.I[p])
+		switch dir {
+		case Forward:
+			d.Fwd = math.Max(d.Fwd, a)
+		case Reverse:
+			d.Rev = math.Max(d.Rev, a)
+		}
+	}
+	if phaseA > 0 {
+		d.Fwd, d.Rev = d.Fwd/phaseA, d.Rev/phaseA
+	}
+	d.Ground = gd
+	return t.groups(phaseA, residualA, d, b, which)
+}
+
+// Dirs say how a directional relay's elements decided for one fault, in a
+// form that scales with the fault's currents: the largest phase current
+// whose element looks forward (reverse), as a share of the largest phase
+// current, and the ground element's decision. The zero value (Known
+// false) stands for a device whose direction is not asked: every stage
+// sees its whole quantity.
+type Dirs struct {
+	Known    bool
+	Fwd, Rev float64
+	Ground   Direction
+}
+
+// groups times the relay's stage groups: non-directional stages on the
+// whole phase (ground) current, directional stages on what their direction
+// sees.
+func (t *Timer) groups(phaseA, groundA float64, d Dirs, b Band, which int) (float64, curves.Status) {
+	if !t.directional || !d.Known {
+		ph, gr := t.Phase[b], t.Ground[b]
+		if which&phaseStages == 0 {
+			ph = nil
+		}
+		if which&groundStages == 0 {
+			gr = nil
+		}
+		return fastest(ph, phaseA, gr, groundA)
+	}
+	quantity := [3]float64{NonDirectional: phaseA, Forward: d.Fwd * phaseA, Reverse: d.Rev * phaseA}
+	var ground [3]float64
+	ground[NonDirectional] = groundA
+	if d.Ground != NonDirectional {
+		ground[d.Ground] = groundA
+	}
+	best, status := math.Inf(1), curves.Undefined
+	anyNoTrip, any := false, false
+	for dir := range quantity {
+		for qi, q := range [2]struct {
+			c curves.Characteristic
+			a float64
+		}{{t.phaseDir[dir][b], quantity[dir]}, {t.groundDir[dir][b], ground[dir]}} {
+			if q.c == nil || which&(1<<qi) == 0 {
+				continue
+			}
+			any = true
+			x, st := q.c.Time(q.a)
+			switch st {
+			case curves.Operates:
+				if x < best {
+					best = x
+				}
+				status = curves.Operates
+			case curves.NoTrip:
+				anyNoTrip = true
+			}
+		}
+	}
+	switch {
+	case status == curves.Operates:
+		return best, curves.Operates
+	case anyNoTrip || !any:
+		return math.Inf(1), curves.NoTrip
+	}
+	return math.NaN(), curves.Undefined
+}
+
+// OperateDir is Operate for a relay whose elements decided d: directional
+// stages see only what their direction sees.
+func (t *Timer) OperateDir(phaseA, groundA float64, d Dirs, b Band) (float64, curves.Status) {
+	if t.Dev.Kind == Fuse {
+		return t.Dev.Clear.Time(phaseA)
+	}
+	return t.groups(phaseA, groundA, d, b, allStages)
+}
+
+// MeltDir is Melt with the relay's directions.
+func (t *Timer) MeltDir(phaseA, groundA float64, d Dirs, b Band) (float64, curves.Status) {
+	if t.Dev.Kind == Fuse {
+		return t.Dev.Melt.Time(phaseA)
+	}
+	return t.OperateDir(phaseA, groundA, d, b)
+}
+
+// ClearingDir is Clearing with the relay's directions.
+func (t *Timer) ClearingDir(phaseA, groundA float64, d Dirs, b Band) (float64, curves.Status) {
+	x, st := t.OperateDir(phaseA, groundA, d, b)
+	if t.Dev.Kind == Relay && st == curves.Operates {
+		x += t.Dev.BreakerS
+	}
+	return x, st
+}
+
+// effective returns the phase and ground currents a device's stage groups
+// respond to for a fault whose elements decided d: the whole current for
+// a group with a non-directional stage, else the current its directions
+// see (the larger, for stages of both directions).
+func (t *Timer) effective(phaseA, groundA float64, d Dirs) (float64, float64) {
+	if !t.directional || !d.Known {
+		return phaseA, groundA
+	}
+	ph, gr := 0.0, 0.0
+	for _, st := range t.Dev.Stages {
+		switch {
+		case st.Measures == Phase && st.Direction == NonDirectional:
+			ph = math.Max(ph, phaseA)
+		case st.Measures == Phase && st.Direction == Forward:
+			ph = math.Max(ph, d.Fwd*phaseA)
+		case st.Measures == Phase:
+			ph = math.Max(ph, d.Rev*phaseA)
+		case st.Direction == NonDirectional || st.Direction == d.Ground:
+			gr = groundA
+		}
+	}
+	return ph, gr
+}
 
 // Operate returns the relay's operating time (without the breaker) in a
 // band, or for a fuse its total clearing time, at the given currents.

@@ -32,6 +32,9 @@ type seqData struct {
 	branch []block
 	series []complex128 // series impedance of each line (0 for transformers)
 	shunts []elementY   // each element's part of shunt, to explain a singular matrix
+	// srcY and genY are each source's and generator's own shunt
+	// admittance (already in shunt), for taking one out (SolveOpen).
+	srcY, genY []complex128
 }
 
 // addShunt adds an element's shunt admittance y at bus.
@@ -85,11 +88,13 @@ func assembleView(n *Network, set Settings, cs Case, v view) (caseData, error) {
 	var d caseData
 	for s := range d {
 		d[s] = newSeqData(nb, nbr)
+		d[s].srcY = make([]complex128, len(n.Sources))
+		d[s].genY = make([]complex128, len(n.Generators))
 	}
 	base := n.baseMVA()
 	zb := func(bus int) float64 { kv := n.Buses[bus].KV; return kv * kv / base }
 
-	for _, s := range n.Sources {
+	for si, s := range n.Sources {
 		st := s.Max
 		if cs == Min {
 			st = s.Min
@@ -106,6 +111,7 @@ func assembleView(n *Network, set Settings, cs Case, v view) (caseData, error) {
 		ref := ElementRef{"source", s.Name}
 		d[pos].addShunt(s.Bus, ref, 1/z1pu)
 		d[neg].addShunt(s.Bus, ref, 1/z1pu)
+		d[pos].srcY[si], d[neg].srcY[si] = 1/z1pu, 1/z1pu
 		if s.Earthed {
 			z0 := st.Z0Ohm
 			if z0 == 0 {
@@ -119,6 +125,7 @@ func assembleView(n *Network, set Settings, cs Case, v view) (caseData, error) {
 				return d, fmt.Errorf("source %q: earthed but has no zero-sequence impedance", s.Name)
 			}
 			d[zero].addShunt(s.Bus, ref, complex(zb(s.Bus), 0)/z0)
+			d[zero].srcY[si] = complex(zb(s.Bus), 0) / z0
 		}
 	}
 
@@ -131,12 +138,14 @@ func assembleView(n *Network, set Settings, cs Case, v view) (caseData, error) {
 		ref := ElementRef{"generator", g.Name}
 		d[pos].addShunt(g.Bus, ref, 1/z1)
 		d[neg].addShunt(g.Bus, ref, 1/z2)
+		d[pos].genY[i], d[neg].genY[i] = 1/z1, 1/z2
 		if !g.Earth.Isolated {
 			z0 += 3 * g.Earth.ZOhm / complex(zb(g.Bus), 0)
 			if z0 == 0 {
 				return d, fmt.Errorf("generator %q: earthed star point with zero zero-sequence impedance", g.Name)
 			}
 			d[zero].addShunt(g.Bus, ref, 1/z0)
+			d[zero].genY[i] = 1 / z0
 		}
 	}
 

@@ -134,6 +134,16 @@ func sameNetwork(a, b *seqData) bool {
 			return false
 		}
 	}
+	for i := range a.srcY {
+		if a.srcY[i] != b.srcY[i] {
+			return false
+		}
+	}
+	for i := range a.genY {
+		if a.genY[i] != b.genY[i] {
+			return false
+		}
+	}
 	return true
 }
 

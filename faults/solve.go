@@ -88,6 +88,13 @@ type Solution struct {
 	open  [3]bool       // no path to the reference in that sequence
 	iseq  [3]complex128 // fault currents per sequence, per unit, fault frame
 	live  bool
+	// out describes the open branch ends of a solution from SolveOpen (nil
+	// for the intact network).
+	out *outageFault
+	// sc caches transfer impedances per bus (see Use); nil: no cache.
+	sc *Scratch
+	// cols caches columns of the impedance matrices (see UseColumns).
+	cols *Columns
 }
 
 // Solve computes the sequence currents of fault f.
@@ -146,14 +153,25 @@ func (s *Solution) selfImpedance(q int) complex128 {
 }
 
 // transfer returns Z_xf, the transfer impedance from bus x to the fault
-// node, in sequence q.
+// node, in sequence q, from the scratch cache when one is attached.
 func (s *Solution) transfer(q, x int) complex128 {
+	if s.sc != nil {
+		return s.sc.transfer(s, q, x)
+	}
+	return s.transferUncached(q, x)
+}
+
+// transferUncached computes Z_xf in sequence q.
+func (s *Solution) transferUncached(q, x int) complex128 {
+	if s.out != nil {
+		return s.out.transfer(q, x)
+	}
 	sn := s.e.cases[s.fault.Case][q]
 	if s.p == 0 {
-		return sn.z(x, s.i)
+		return s.cols.z(sn, x, s.i)
 	}
 	p := complex(s.p, 0)
-	return (1-p)*sn.z(x, s.i) + p*sn.z(x, s.j)
+	return (1-p)*s.cols.z(sn, x, s.i) + p*s.cols.z(sn, x, s.j)
 }
 
 // sequenceCurrents returns I0, I1, I2 at the fault for driving voltage e,
@@ -231,7 +249,7 @@ func (s Solution) FaultCurrents() Currents {
 // bus into its branch, in amperes at the point's voltage and in the
 // point's phase frame.
 func (s Solution) At(pt Point) Currents {
-	return s.response(pt, s.iseq).Currents(s)
+	return s.response(pt, s.iseq, false).Currents(s)
 }
 
 // negligibleShare is the share of a fault's own sequence current below
@@ -249,17 +267,37 @@ const negligibleShare = 1e-10
 // the fault's. Computing it once serves every fault kind at that place
 // (see WithKind).
 type Response struct {
-	k [3]complex128 // amperes at the point per per-unit fault current, point frame
+	k    [3]complex128 // amperes at the point per per-unit fault current, point frame
+	v    voltageResponse
+	flow complex128
 }
+
+// Flow returns the point's share of the fault's positive-sequence current:
+// the positive-sequence current flowing from the point's bus into its
+// branch per unit of the current into the fault, in the fault's frame.
+// Its real part is positive where fault current flows from the bus into
+// the branch towards the fault and negative where it flows out of the
+// branch into the bus; the magnitude is the share of the fault current the
+// branch carries (at most about 1 in a network with one fault).
+func (r Response) Flow() complex128 { return r.flow }
+
+// Coefficients returns the point's current in each sequence (I0, I1, I2)
+// in amperes, in the point's frame, per unit of the fault's current in
+// that sequence.
+func (r Response) Coefficients() [3]complex128 { return r.k }
+
+// Prefault returns the pre-fault voltages at the point's bus.
+func (r Response) Prefault() Voltages { return Voltages{Seq: [3]complex128{pos: r.v.pre}} }
 
 // Response returns the point's response to faults at this solution's
 // place and case, whatever their kind.
 func (s Solution) Response(pt Point) Response {
-	return s.response(pt, [3]complex128{1, 1, 1})
+	return s.response(pt, [3]complex128{1, 1, 1}, true)
 }
 
-// response computes the response in the sequences where want is not zero.
-func (s Solution) response(pt Point, want [3]complex128) Response {
+// response computes the response in the sequences where want is not zero,
+// and the voltages at the point's bus when asked.
+func (s Solution) response(pt Point, want [3]complex128, voltages bool) Response {
 	var r Response
 	if !s.live {
 		return r
@@ -272,11 +310,12 @@ func (s Solution) response(pt Point, want [3]complex128) Response {
 	for q := range r.k {
 		if want[q] != 0 && !s.open[q] {
 			r.k[q] = s.branchCurrent(q, pt, from, to)
-			if cmplx.Abs(r.k[q]) < negligibleShare {
+			if k := r.k[q]; real(k)*real(k)+imag(k)*imag(k) < negligibleShare*negligibleShare {
 				r.k[q] = 0
 			}
 		}
 	}
+	r.flow = r.k[pos]
 	// Rotate from the fault's frame to the point's frame: positive
 	// sequence by the zone shift between them, negative by its opposite.
 	rot := s.e.rot[bus] * cmplx.Conj(s.e.rot[s.fbus])
@@ -284,8 +323,15 @@ func (s Solution) response(pt Point, want [3]complex128) Response {
 	r.k[zero] *= ib
 	r.k[pos] *= rot * ib
 	r.k[neg] *= cmplx.Conj(rot) * ib
+	if voltages {
+		r.v = s.voltageResponse(bus)
+	}
 	return r
 }
+
+// Voltages returns the voltages at the point's bus for solution s, which
+// must be of the place and case the response was made for.
+func (r Response) Voltages(s Solution) Voltages { return r.v.voltages(s) }
 
 // Currents returns the point's currents for solution s, which must be of
 // the place and case the response was made for.
@@ -317,6 +363,11 @@ func (s *Solution) branchCurrent(q int, pt Point, from, to int) complex128 {
 	sn := s.e.cases[s.fault.Case][q]
 	if sn.row[from] < 0 && sn.row[to] < 0 {
 		return 0
+	}
+	if s.out != nil {
+		if c, done := s.out.branchCurrent(s, q, pt); done {
+			return c
+		}
 	}
 	const ifault = 1
 	dv := func(x int) complex128 {

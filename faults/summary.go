@@ -12,7 +12,11 @@ type Extreme struct {
 	A     float64
 	Fault Fault
 	At    Currents // the point's currents for that fault
-	Found bool     // false when no fault of the set drives any current
+	// V are the voltages at the point's bus for that fault (what a
+	// directional element there is polarised by), Pre its pre-fault
+	// voltage.
+	V, Pre Voltages
+	Found  bool // false when no fault of the set drives any current
 }
 
 // tieTolerance is the relative difference below which two currents count
@@ -22,9 +26,10 @@ type Extreme struct {
 // same fault whatever the rounding of the solves.
 const tieTolerance = 1e-9
 
-func (x *Extreme) offer(a float64, f Fault, at Currents, larger bool) {
+func (x *Extreme) offer(a float64, f Fault, at Currents, v func() (Voltages, Voltages), larger bool) {
 	if !x.Found || (larger && a > x.A*(1+tieTolerance)) || (!larger && a < x.A*(1-tieTolerance)) {
 		*x = Extreme{A: a, Fault: f, At: at, Found: true}
+		x.V, x.Pre = v()
 	}
 }
 
@@ -34,8 +39,11 @@ type PointSummary struct {
 	Point Point
 	// PhaseMax: the largest phase current, maximum case, any fault kind.
 	PhaseMax Extreme
-	// PhaseMin: the smallest phase current, minimum case, LLL and LL
-	// faults (the faults a phase element must detect).
+	// PhaseMin: the smallest non-zero phase current, minimum case, LLL
+	// and LL faults (the faults a phase element must detect). Faults that
+	// drive no current through the point (a fault of its zone fed only
+	// from the other side, as a transformer fault is in the minimum case
+	// at an LV incomer with no generation behind it) are left out.
 	PhaseMin Extreme
 	// ResidualMax: the largest residual current 3I0, maximum case, LG and
 	// LLG faults.
@@ -101,18 +109,21 @@ func (e *Engine) SummarisePoint(pt Point, places []Place) (PointSummary, error) 
 				f := e.CaseFault(pl, k, cs)
 				sol := base.WithKind(k, f.ZOhm)
 				c := resp.Currents(sol)
+				v := func() (Voltages, Voltages) { return resp.Voltages(sol), resp.Prefault() }
 				switch {
 				case cs == Max:
-					s.PhaseMax.offer(c.PhaseMaxA(), f, c, true)
+					s.PhaseMax.offer(c.PhaseMaxA(), f, c, v, true)
 					if k.Earth() {
-						s.ResidualMax.offer(c.ResidualA(), f, c, true)
+						s.ResidualMax.offer(c.ResidualA(), f, c, v, true)
 					}
 				case k.Earth():
 					if r := c.ResidualA(); r > floor {
-						s.ResidualMin.offer(r, f, c, false)
+						s.ResidualMin.offer(r, f, c, v, false)
 					}
 				default:
-					s.PhaseMin.offer(c.PhaseMaxA(), f, c, false)
+					if a := c.PhaseMaxA(); a > floor {
+						s.PhaseMin.offer(a, f, c, v, false)
+					}
 				}
 			}
 		}

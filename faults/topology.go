@@ -1,8 +1,10 @@
 package faults
 
 import (
+	"container/heap"
 	"fmt"
 	"math"
+	"math/cmplx"
 	"sort"
 	"strings"
 )
@@ -236,4 +238,79 @@ func (n *Network) RatioKV() []float64 {
 		}
 	}
 	return v
+}
+
+// SourceDistance returns, per bus, its electrical distance from the grid
+// sources: the smallest sum, over a path, of the per-unit magnitudes of
+// the maximum-case positive-sequence impedances of a source and the
+// branches to the bus (+Inf for a bus no source reaches). Generators do
+// not count: the distance, and the direction of the network it gives,
+// are the grid's and do not change with the size of embedded generation.
+func (e *Engine) SourceDistance() []float64 {
+	n := e.net
+	d := e.cases[Max][pos].seqData
+	dist := make([]float64, len(n.Buses))
+	for i := range dist {
+		dist[i] = inf
+	}
+	h := &distHeap{}
+	for i, s := range n.Sources {
+		if y := d.srcY[i]; y != 0 {
+			if z := 1 / cmplx.Abs(y); z < dist[s.Bus] {
+				dist[s.Bus] = z
+				heap.Push(h, distItem{s.Bus, z})
+			}
+		}
+	}
+	adj := make([][]int, len(n.Buses))
+	for b := 0; b < n.BranchCount(); b++ {
+		f, t := n.BranchEnds(b)
+		adj[f] = append(adj[f], b)
+		adj[t] = append(adj[t], b)
+	}
+	for h.Len() > 0 {
+		it := heap.Pop(h).(distItem)
+		if it.d > dist[it.bus] {
+			continue
+		}
+		for _, b := range adj[it.bus] {
+			ft := d.branch[b].ft
+			if ft == 0 {
+				continue
+			}
+			f, t := n.BranchEnds(b)
+			y := t
+			if y == it.bus {
+				y = f
+			}
+			if nd := it.d + 1/cmplx.Abs(ft); nd < dist[y] {
+				dist[y] = nd
+				heap.Push(h, distItem{y, nd})
+			}
+		}
+	}
+	return dist
+}
+
+type distItem struct {
+	bus int
+	d   float64
+}
+
+type distHeap []distItem
+
+func (h distHeap) Len() int { return len(h) }
+func (h distHeap) Less(i, j int) bool {
+	if h[i].d != h[j].d {
+		return h[i].d < h[j].d
+	}
+	return h[i].bus < h[j].bus
+}
+func (h distHeap) Swap(i, j int) { h[i], h[j] = h[j], h[i] }
+func (h *distHeap) Push(x any)   { *h = append(*h, x.(distItem)) }
+func (h *distHeap) Pop() any {
+	old := *h
+	it := old[len(old)-1]
+	*h = old[:len(old)-1]
+	return it
 }

@@ -42,8 +42,10 @@ type Figure struct {
 	Fault string // fault kind
 	Case  string
 	Place string
-	// At are the device's sequence currents for that fault.
-	At faults.Currents
+	// At are the device's sequence currents for that fault; V and Pre the
+	// voltages at its bus during the fault and before it.
+	At     faults.Currents
+	V, Pre faults.Voltages
 }
 
 // BusRow is the fault currents at one bus: [case][kind], phase current
@@ -67,7 +69,7 @@ func NewFaultTables(s *coord.Study, levels []faults.PointSummary, buses []faults
 			return Figure{}
 		}
 		return Figure{A: x.A, Found: true, Fault: x.Fault.Kind.String(), Case: x.Fault.Case.String(),
-			Place: coord.PlaceName(n, x.Fault.Place), At: x.At}
+			Place: coord.PlaceName(n, x.Fault.Place), At: x.At, V: x.V, Pre: x.Pre}
 	}
 	for i, d := range s.Devices {
 		lv := levels[i]
@@ -321,11 +323,41 @@ func (t *FaultTables) WriteCSV(w io.Writer) error {
 const phasorFloor = 1e-9
 
 type jsonFigure struct {
-	CurrentA  *float64     `json:"current_a"`
-	FaultKind string       `json:"fault_kind,omitempty"`
-	Case      string       `json:"case,omitempty"`
-	Place     string       `json:"place,omitempty"`
-	Phases    *jsonPhasors `json:"phases,omitempty"`
+	CurrentA  *float64      `json:"current_a"`
+	FaultKind string        `json:"fault_kind,omitempty"`
+	Case      string        `json:"case,omitempty"`
+	Place     string        `json:"place,omitempty"`
+	Phases    *jsonPhasors  `json:"phases,omitempty"`
+	Voltages  *jsonVoltages `json:"bus_voltages,omitempty"`
+}
+
+// jsonVoltages are the line-to-neutral voltages at a device's bus during
+// one fault, phases and sequences, magnitude and angle, and the pre-fault
+// phase-a voltage there (its angle shows the bus's phase shift from the
+// fault location).
+type jsonVoltages struct {
+	VaV, VaDeg, VbV, VbDeg, VcV, VcDeg float64
+	V0V, V0Deg, V1V, V1Deg, V2V, V2Deg float64
+	PreVaV, PreVaDeg                   float64
+}
+
+func (v jsonVoltages) MarshalJSON() ([]byte, error) {
+	return json.Marshal(struct {
+		VaV      float64 `json:"va_v"`
+		VaDeg    float64 `json:"va_deg"`
+		VbV      float64 `json:"vb_v"`
+		VbDeg    float64 `json:"vb_deg"`
+		VcV      float64 `json:"vc_v"`
+		VcDeg    float64 `json:"vc_deg"`
+		V0V      float64 `json:"v0_v"`
+		V0Deg    float64 `json:"v0_deg"`
+		V1V      float64 `json:"v1_v"`
+		V1Deg    float64 `json:"v1_deg"`
+		V2V      float64 `json:"v2_v"`
+		V2Deg    float64 `json:"v2_deg"`
+		PreVaV   float64 `json:"prefault_va_v"`
+		PreVaDeg float64 `json:"prefault_va_deg"`
+	}(v))
 }
 
 // jsonPhasors are a device's currents for one fault, magnitude and angle.
@@ -370,7 +402,24 @@ func (f Figure) json() jsonFigure {
 	p.IbA, p.IbDeg = polar(ph[1])
 	p.IcA, p.IcDeg = polar(ph[2])
 	p.ResidualA, p.ResidualDeg = polar(f.At.Residual())
-	return jsonFigure{CurrentA: &a, FaultKind: f.Fault, Case: f.Case, Place: f.Place, Phases: &p}
+	// Voltages the same way, relative to the pre-fault voltage there.
+	pre := cmplx.Abs(f.Pre.Seq[1])
+	vpolar := func(c complex128) (float64, float64) {
+		if !(cmplx.Abs(c) > phasorFloor*pre) {
+			return 0, 0
+		}
+		return cmplx.Abs(c), cmplx.Phase(c) * 180 / math.Pi
+	}
+	var v jsonVoltages
+	vp := f.V.Phases()
+	v.VaV, v.VaDeg = vpolar(vp[0])
+	v.VbV, v.VbDeg = vpolar(vp[1])
+	v.VcV, v.VcDeg = vpolar(vp[2])
+	v.V0V, v.V0Deg = vpolar(f.V.Seq[0])
+	v.V1V, v.V1Deg = vpolar(f.V.Seq[1])
+	v.V2V, v.V2Deg = vpolar(f.V.Seq[2])
+	v.PreVaV, v.PreVaDeg = vpolar(f.Pre.Seq[1])
+	return jsonFigure{CurrentA: &a, FaultKind: f.Fault, Case: f.Case, Place: f.Place, Phases: &p, Voltages: &v}
 }
 
 type jsonBusCase struct {

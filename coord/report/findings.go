@@ -48,7 +48,7 @@ type Row struct {
 
 // NewFindings formats a check's result.
 func NewFindings(s *coord.Study, r *coord.Result) *Findings {
-	f := &Findings{Study: s.Name, Cases: CaseLines(s), Criteria: criteriaLines(s.Criteria), Notes: s.Notes}
+	f := &Findings{Study: s.Name, Cases: CaseLines(s), Criteria: append(criteriaLines(s.Criteria), r.Notes...), Notes: s.Notes}
 	name := func(i int) string { return s.Devices[i].Name }
 	for _, p := range r.Pairs {
 		f.Pairs = append(f.Pairs, PairRow{name(p.Upstream), name(p.Downstream), p.Manual})
@@ -106,8 +106,10 @@ func current(a float64, q coord.Quantity) string {
 func detail(x coord.Finding) string {
 	ft := x.Fault
 	switch x.Check {
-	case coord.Grading:
+	case coord.Grading, coord.Discrimination:
 		return fmt.Sprintf("%s: %s, %s; %s: %s, %s", x.Device, current(ft.DeviceA, ft.DeviceQty), seconds(ft.DeviceS), x.Other, current(ft.OtherA, ft.OtherQty), seconds(ft.OtherS))
+	case coord.Clearing:
+		return ""
 	case coord.Damage:
 		return fmt.Sprintf("%s clears %s in %s; %s carries %s for %s", x.Device, current(ft.DeviceA, ft.DeviceQty), seconds(ft.DeviceS), x.Other, current(ft.OtherA, coord.Phase), seconds(ft.OtherS))
 	case coord.BackupSensitivity:
@@ -172,6 +174,7 @@ func criteriaLines(c coord.Criteria) []string {
 		fmt.Sprintf("sensitivity ≥ %g × pickup in the own zone, ≥ %g × at the end of the next zone; pickup ≥ %g × maximum load; instantaneous pickup ≥ %g × maximum through-fault (stages up to %g s)",
 			c.SensitivityPrimary, c.SensitivityBackup, c.LoadFactor, c.InstantaneousFactor, c.ShortDelayS),
 		fmt.Sprintf("inrush %g × transformer full-load current for %g s; damage: clear before the IEEE C57.109 or adiabatic withstand", c.InrushMultiple, c.InrushTimeS),
+		fmt.Sprintf("every fault cleared within %g s by the devices nearest it on every side that feeds it; no other device operates first (the grading margins above)", c.MaxClearingS),
 	}
 }
 
@@ -218,8 +221,21 @@ func withHeading(c coord.CheckKind) string {
 		return "upstream"
 	case coord.Damage:
 		return "equipment"
+	case coord.Discrimination:
+		return "must clear"
+	case coord.Clearing:
+		return "cleared by"
 	}
 	return ""
+}
+
+// subjectHeading names the first column of a check's table: the device
+// checked, or for fault clearing the faulted element.
+func subjectHeading(c coord.CheckKind) string {
+	if c == coord.Clearing {
+		return "element"
+	}
+	return "device"
 }
 
 func pairText(p PairRow) string {

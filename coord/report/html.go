@@ -140,7 +140,7 @@ var auditTemplate = template.Must(template.New("audit").Funcs(template.FuncMap{
 {{- range .Groups}}
 <h3>{{.Title}}</h3>
 <table>
-<tr><th>verdict</th><th>device</th>{{if .With}}<th>{{.With}}</th>{{end}}<th>stage</th><th>measured</th><th>required</th><th>margin</th><th>fault</th><th>detail</th><th>note</th><th>chart</th></tr>
+<tr><th>verdict</th><th>{{.Subject}}</th>{{if .With}}<th>{{.With}}</th>{{end}}<th>stage</th><th>measured</th><th>required</th><th>margin</th><th>fault</th><th>detail</th><th>note</th><th>chart</th></tr>
 {{- range .Rows}}
 <tr class="{{.Class}}"><td class="verdict">{{.Verdict}}</td><td>{{.Device}}</td>{{if .HasOther}}<td>{{.Other}}</td>{{end}}<td>{{.Stage}}</td><td class="num">{{.Measured}}</td><td class="num">{{.Required}}</td><td class="num">{{.Margin}}</td><td>{{.Fault}}</td><td>{{.Detail}}</td><td>{{.Note}}{{with .Accepted}}<br><strong>{{.}}</strong>{{end}}</td><td>{{if .Chart}}<a href="#chart-{{.Chart}}">chart</a>{{end}}</td></tr>
 {{- end}}
@@ -176,8 +176,8 @@ type htmlRow struct {
 }
 
 type htmlGroup struct {
-	Title, With string
-	Rows        []htmlRow
+	Title, With, Subject string
+	Rows                 []htmlRow
 }
 
 type htmlChange struct {
@@ -223,7 +223,7 @@ func (a *Audit) WriteHTML(w io.Writer) error {
 	}
 	for _, g := range f.groupRefs() {
 		c := f.Rows[g[0]].Finding.Check
-		hg := htmlGroup{Title: strings.ToUpper(c.String()[:1]) + c.String()[1:], With: withHeading(c)}
+		hg := htmlGroup{Title: strings.ToUpper(c.String()[:1]) + c.String()[1:], With: withHeading(c), Subject: subjectHeading(c)}
 		sort.SliceStable(g, func(i, j int) bool {
 			return verdictOrder(f.Rows[g[i]].Finding.Verdict) < verdictOrder(f.Rows[g[j]].Finding.Verdict)
 		})

@@ -69,7 +69,7 @@ func (f *Findings) WriteMarkdown(w io.Writer) error {
 		c := g[0].Finding.Check
 		with := withHeading(c)
 		fmt.Fprintf(ew, "\n## %s\n\n", strings.ToUpper(c.String()[:1])+c.String()[1:])
-		head, rule := "| verdict | device |", "| --- | --- |"
+		head, rule := "| verdict | "+subjectHeading(c)+" |", "| --- | --- |"
 		if with != "" {
 			head, rule = head+" "+with+" |", rule+" --- |"
 		}

@@ -126,7 +126,7 @@ func wrap(text string, width int, indent string) string {
 // findingsTable builds the text table of one check's rows.
 func findingsTable(g []Row) *textTable {
 	with := withHeading(g[0].Finding.Check)
-	t := &textTable{head: []string{"verdict", "device"}}
+	t := &textTable{head: []string{"verdict", subjectHeading(g[0].Finding.Check)}}
 	if with != "" {
 		t.head = append(t.head, with)
 	}

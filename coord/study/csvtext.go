@@ -205,6 +205,7 @@ func looksGrouped(text string) bool {
 var csvColumns = map[string]func(r *rawStage, text string, c *cellReader) error{
 	"label":              func(r *rawStage, t string, _ *cellReader) error { r.Label = t; return nil },
 	"measures":           func(r *rawStage, t string, _ *cellReader) error { r.Measures = t; return nil },
+	"direction":          func(r *rawStage, t string, _ *cellReader) error { r.Direction = t; return nil },
 	"curve":              func(r *rawStage, t string, _ *cellReader) error { r.Curve = t; return nil },
 	"pickup_a":           numberInto(func(r *rawStage) **float64 { return &r.PickupA }),
 	"pickup_secondary_a": numberInto(func(r *rawStage) **float64 { return &r.PickupSecondaryA }),

@@ -85,7 +85,7 @@ func (b *builder) buildRelays() {
 			}
 		}
 		b.st.Devices = append(b.st.Devices, d)
-		b.relayRaw = append(b.relayRaw, relayOrigin{device: len(b.st.Devices) - 1, where: w, tomlStages: len(r.Stages)})
+		b.relayRaw = append(b.relayRaw, relayOrigin{device: len(b.st.Devices) - 1, where: w, tomlStages: len(r.Stages), raw: r})
 	}
 }
 
@@ -109,6 +109,7 @@ type relayOrigin struct {
 	where      where
 	tomlStages int
 	csvStages  int
+	raw        rawRelay
 	csvRows    int // rows of the settings table naming the relay, read or not
 }
 
@@ -147,7 +148,7 @@ func parseCClass(s string) (float64, error) {
 // stage converts one stage's settings.
 func (b *builder) stage(w where, r rawStage, ct coord.CT) (coord.Stage, bool) {
 	before := b.failures
-	st := coord.Stage{Label: r.Label}
+	st := coord.Stage{Label: r.Label, Direction: b.direction(w, r.Direction)}
 	if r.Label != "" {
 		b.readable(w, "label", r.Label)
 	}
@@ -315,7 +316,8 @@ func (b *builder) rangeOf(w where, key string, v []float64, k float64) coord.Ran
 
 // defaultLabel gives a stage its IEEE C37.2 device number: 51 for an
 // inverse-time overcurrent stage, 51DT for a definite-time one, 50 for an
-// instantaneous stage, with N for a residual (ground) stage (51NDT).
+// instantaneous stage, 67 for any directional stage, with N for a
+// residual (ground) stage (51NDT, 67N).
 func defaultLabel(s coord.Stage) string {
 	l, suffix := "51", ""
 	switch s.Shape {
@@ -323,6 +325,9 @@ func defaultLabel(s coord.Stage) string {
 		l = "50"
 	case curves.ShapeDefinite:
 		suffix = "DT"
+	}
+	if s.Direction != coord.NonDirectional {
+		l = "67"
 	}
 	if s.Measures == coord.Residual {
 		l += "N"

@@ -78,6 +78,7 @@ var limits = map[string]limit{
 	"z0_mv_lv_pct":       z0PctLimit,
 	"current_a":          currentLimit,
 	"max_load_a":         currentLimit,
+	"polarising_min_a":   currentLimit,
 	"ct_primary_a":       {1e6, "the largest CTs are rated about 50 kA"},
 	"ct_secondary_a":     {10, "CT secondaries are rated 1 A or 5 A"},
 	"ct_burden_ohm":      {1000, "relay burdens are a few ohms"},

@@ -58,6 +58,7 @@ type rawCriteria struct {
 	PhaseFaultXOhm      *float64 `key:"phase_fault_reactance_ohm"`
 	InrushMultiple      *float64 `key:"inrush_multiple"`
 	InrushTimeS         *float64 `key:"inrush_time_s"`
+	MaxClearingS        *float64 `key:"max_clearing_s"`
 }
 
 type rawBus struct {
@@ -83,6 +84,7 @@ type rawSource struct {
 	R0OhmMin *float64 `key:"r0_ohm_min"`
 	X0OhmMin *float64 `key:"x0_ohm_min"`
 	Earthed  *bool    `key:"earthed"`
+	OwnProt  *bool    `key:"own_protection"`
 }
 
 type rawGenerator struct {
@@ -101,6 +103,7 @@ type rawGenerator struct {
 	NeutralXOhm   *float64 `key:"neutral_x_ohm"`
 	InMax         *bool    `key:"in_max_case"`
 	AlwaysRunning *bool    `key:"always_running"`
+	OwnProt       *bool    `key:"own_protection"`
 	// A power station unit: the generator's unit transformer and its taps.
 	UnitTransformer string   `key:"unit_transformer"`
 	OnLoadTaps      *bool    `key:"on_load_tap_changer"`
@@ -233,11 +236,25 @@ type rawRelay struct {
 	MarginS         *float64   `key:"margin_s"`
 	EarthFaultsBy   string     `key:"earth_faults_cleared_by"`
 	Stages          []rawStage `key:"stage"`
+	// Directional elements (see directional.go).
+	PhaseAngleDeg    *float64 `key:"phase_angle_deg"`
+	GroundAngleDeg   *float64 `key:"ground_angle_deg"`
+	SectorDeg        *float64 `key:"sector_deg"`
+	PhaseMinPct      *float64 `key:"phase_min_polarising_pct"`
+	GroundMinPct     *float64 `key:"ground_min_polarising_pct"`
+	VoltageMemory    *bool    `key:"voltage_memory"`
+	GroundPolarising string   `key:"ground_polarising"`
+	PolarisingBranch string   `key:"polarising_branch"`
+	PolarisingAt     string   `key:"polarising_at"`
+	PolarisingMinA   *float64 `key:"polarising_min_a"`
+	NeutralCT        string   `key:"neutral_ct"`
+	NeutralCTAt      string   `key:"neutral_ct_at"`
 }
 
 type rawStage struct {
 	Label            string    `key:"label"`
 	Measures         string    `key:"measures"`
+	Direction        string    `key:"direction"`
 	Curve            string    `key:"curve"`
 	PickupA          *float64  `key:"pickup_a"`
 	PickupSecondaryA *float64  `key:"pickup_secondary_a"`

@@ -172,9 +172,11 @@ func (b *builder) build(dir fs.FS) {
 		if len(d.Stages) == 0 && o.tomlStages == 0 && o.csvRows == 0 && !b.csvUnread {
 			b.fail(o.where, "stage", "the relay has no stages: add [[relay.stage]] tables or rows in the settings table")
 		}
+		b.directional(o.where, o.raw, d)
 		uniqueLabels(d)
 		b.instantaneousTime(o.where, d)
 	}
+	b.ownProtection()
 	b.buildPairs()
 	b.buildAccepts()
 }
@@ -275,6 +277,7 @@ func (b *builder) buildCriteria() {
 	c.InstantaneousTimeS = b.optional(w, "instantaneous_time_s", r.InstantaneousTimeS, c.InstantaneousTimeS, 0, 1, false)
 	c.InrushMultiple = b.optional(w, "inrush_multiple", r.InrushMultiple, c.InrushMultiple, 1, 100, false)
 	c.InrushTimeS = b.optional(w, "inrush_time_s", r.InrushTimeS, c.InrushTimeS, 0, 10, true)
+	c.MaxClearingS = b.optional(w, "max_clearing_s", r.MaxClearingS, c.MaxClearingS, 0, 100, true)
 	b.st.Criteria = c
 	b.st.Faults.EarthFaultOhm = b.optional(w, "fault_resistance_ohm", r.FaultResistanceOhm, 0, 0, inf, false)
 	b.st.Faults.EarthFaultOhmLV = b.optional(w, "lv_fault_resistance_ohm", r.LVFaultResistance, 0, 0, inf, false)

@@ -60,7 +60,9 @@ func NewAtlas(in Input) (*Atlas, error) {
 	for i := range in.Study.Devices {
 		a.timers = append(a.timers, coord.NewTimer(&in.Study.Devices[i]))
 	}
-	a.paths = findPaths(in.Result.Pairs, n, MaxPaths)
+	a.paths = findPaths(in.Result.Pairs, n, MaxPaths, func(p coord.Pair) bool {
+		return in.Topology.Above(in.Study.Network, in.Study.Devices[p.Upstream], in.Study.Devices[p.Downstream])
+	})
 	a.failing = failingPairs(in.Result, in.Study)
 	a.specs = a.chartSpecs()
 	groups := make([][]int, len(a.specs))

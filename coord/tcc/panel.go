@@ -151,7 +151,7 @@ func (c *Chart) panelRows(scale, width vg.Length, lay *layout) []row {
 			kind = fmt.Sprintf("fuse %g A", d.RatingA)
 		}
 		add(fmt.Sprintf("%s  %s at %g kV", d.Name, kind, c.atlas.kvOf(i)), name, swatchW, 3*scale, c.deviceSwatch(i))
-		for _, line := range settingsLines(d, c.Kind) {
+		for _, line := range settingsLines(d, c.Kind, c.atlas.facing(i)) {
 			add(line, plain, swatchW, 0, nil)
 		}
 		add(c.ownLevels(i), plain, swatchW, 0, nil)
@@ -239,8 +239,10 @@ func (c *Chart) deviceSwatch(i int) func(draw.Canvas, vg.Length, vg.Length, vg.L
 // stages of that kind (IEEE C37.2 numbers, shape, pickup in primary
 // amperes, TMS/TD or delay), its CT and breaker, its declared accuracy.
 // Figures and their units are joined by no-break spaces, so a line wraps
-// between settings and never inside one.
-func settingsLines(d *coord.Device, q coord.Quantity) []string {
+// between settings and never inside one. A directional stage says its
+// direction, and, when it looks the other way from facing (the direction
+// of the faults the chart is about), that it is not drawn.
+func settingsLines(d *coord.Device, q coord.Quantity, facing coord.Direction) []string {
 	if d.Kind == coord.Fuse {
 		return []string{"thin: minimum melting; thick: total clearing"}
 	}
@@ -255,6 +257,12 @@ func settingsLines(d *coord.Device, q coord.Quantity) []string {
 			st += " " + nb(fmt.Sprintf("%s %g", s.Shape.MultiplierName(), s.Multiplier))
 		case s.DelayS > 0 || s.Shape == curves.ShapeDefinite:
 			st += " " + nb(fmt.Sprintf("%g s", s.DelayS))
+		}
+		if s.Direction != coord.NonDirectional {
+			st += " " + s.Direction.String()
+			if s.Direction != facing {
+				st += " (not drawn: it looks away from these faults)"
+			}
 		}
 		stages = append(stages, st)
 	}

@@ -21,18 +21,24 @@ func (p Path) Contains(i int) bool { return slices.Contains(p, i) }
 
 // findPaths returns the coordination paths of a set of pairs among n
 // devices. A path starts at a device that backs up nobody (it is never the
-// upstream device of a pair) and follows "is backed up by" links upwards;
+// upstream device of a pair) and follows "is backed up by" links upwards
+// (upward(u, d): device u sits nearer the grid sources than device d, or
+// the pair is the study's own), so that a path reads from a load towards a
+// source, as a time-current chart of series devices does; a backup at the
+// same bus or away from the sources (the other incomer of a busbar, the
+// feeder of an embedded generator) is a pair of its own but starts no
+// chain through it;
 // a device with several upstream devices (parallel incomers) gives a path
 // through each. A device in no pair is a path of its own, and devices left
 // over by a cycle of hand-made pairs start paths of their own too. Exact
 // duplicates and paths lying wholly inside a longer one are dropped.
 // Paths come in study order of their first device, then of the upstream
 // devices taken.
-func findPaths(pairs []coord.Pair, n, max int) []Path {
+func findPaths(pairs []coord.Pair, n, max int, upward func(p coord.Pair) bool) []Path {
 	ups := make([][]int, n)
 	isUp := make([]bool, n)
 	for _, p := range pairs {
-		if p.Upstream == p.Downstream {
+		if p.Upstream == p.Downstream || !p.Manual && upward != nil && !upward(p) {
 			continue
 		}
 		ups[p.Downstream] = append(ups[p.Downstream], p.Upstream)

@@ -30,7 +30,7 @@ func TestFindPaths(t *testing.T) {
 	}
 	for _, tc := range cases {
 		t.Run(tc.name, func(t *testing.T) {
-			if got := findPaths(tc.pairs, tc.n, MaxPaths); !reflect.DeepEqual(got, tc.want) {
+			if got := findPaths(tc.pairs, tc.n, MaxPaths, nil); !reflect.DeepEqual(got, tc.want) {
 				t.Errorf("got %v, want %v", got, tc.want)
 			}
 		})
@@ -51,7 +51,7 @@ func TestFindPathsCap(t *testing.T) {
 		}
 		prev = next
 	}
-	got := findPaths(pairs, n, 5)
+	got := findPaths(pairs, n, 5, nil)
 	if len(got) != 5 {
 		t.Fatalf("%d paths, want the cap of 5", len(got))
 	}

@@ -84,14 +84,14 @@ func (c *Chart) upstreamCurve(u int, q coord.Quantity) (curves.Characteristic, [
 		lo, hi := d.Melt.Span()
 		return d.Melt, []float64{lo, hi}, false
 	}
-	t := c.atlas.timers[u]
 	band := coord.Nominal
 	if crit := c.atlas.in.Study.Criteria; crit.WorstCaseTimes && crit.Components == nil {
 		band = coord.Early // the upstream edge the grading check takes
 	}
-	ch := t.Phase[band]
+	phase, ground := c.atlas.stagesFor(u)
+	ch := phase[band]
 	if q == coord.Residual {
-		ch = t.Ground[band]
+		ch = ground[band]
 	}
 	var breaks []float64
 	for _, s := range d.Stages {

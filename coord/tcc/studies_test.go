@@ -425,7 +425,7 @@ func TestNoneIsNotALevel(t *testing.T) {
 func TestSettingsNeverRunTogether(t *testing.T) {
 	a := loadAtlas(t, twoVoltage, nil)
 	d := &a.in.Study.Devices[a.Device("R11")]
-	lines := settingsLines(d, coord.Phase)
+	lines := settingsLines(d, coord.Phase, coord.Forward)
 	if want := nb("51 iec-si") + " " + nb("200 A") + " " + nb("TMS 0.1"); !strings.Contains(lines[0], nb("200 A")) || !strings.Contains(lines[0], nb("TMS 0.1")) {
 		t.Errorf("settings %q, want figures and units joined as in %q", lines[0], want)
 	}

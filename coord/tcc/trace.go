@@ -82,13 +82,31 @@ const (
 	floorS           = TimeMinS * 1.03
 )
 
+// stagesFor returns the characteristics of relay i's stages that operate
+// for the faults its charts are about, those beyond it away from the grid
+// sources: current into its branch where its branch leads away from
+// them, into its bus where it leads towards them (an LV incomer). A stage
+// directional the other way is left off the chart, as the checks leave it
+// out for those faults.
+func (a *Atlas) stagesFor(i int) (phase, ground [3]curves.Characteristic) {
+	return a.timers[i].Toward(a.facing(i))
+}
+
+// facing is the direction of the current that the faults ahead of device
+// i drive through it.
+func (a *Atlas) facing(i int) coord.Direction {
+	if a.in.Topology.IntoBranch(a.in.Study.Devices[i].Point) {
+		return coord.Forward
+	}
+	return coord.Reverse
+}
+
 // deviceTraces samples device i's curves of the chart's kind across the
 // current axis: a relay's phase (or ground) stages combined, a fuse's
 // melting and clearing curves, and the shaded band between the edges of a
 // declared tolerance or between a fuse's two curves.
 func (c *Chart) deviceTraces(i int) ([]Trace, []band) {
 	d := &c.atlas.in.Study.Devices[i]
-	t := c.atlas.timers[i]
 	f := c.factor(i)
 	var pickups []float64
 	for _, s := range d.Stages {
@@ -109,9 +127,10 @@ func (c *Chart) deviceTraces(i int) ([]Trace, []band) {
 		return []Trace{{Device: i, Kind: MeltCurve, Runs: melt}, {Device: i, Kind: ClearCurve, Runs: clear}},
 			[]band{{device: i, fuse: true, lower: melt, upper: clear}}
 	}
-	ch, kind := t.Phase, PhaseCurve
+	phase, ground := c.atlas.stagesFor(i)
+	ch, kind := phase, PhaseCurve
 	if c.Kind == coord.Residual {
-		ch, kind = t.Ground, GroundCurve
+		ch, kind = ground, GroundCurve
 	}
 	if ch[coord.Nominal] == nil {
 		return nil, nil
@@ -199,15 +218,15 @@ func (c *Chart) sample(ch curves.Characteristic, f float64, breaks []float64, fl
 // does not operate there).
 func (c *Chart) levelTime(l level) float64 {
 	d := &c.atlas.in.Study.Devices[l.device]
-	t := c.atlas.timers[l.device]
+	phase, ground := c.atlas.stagesFor(l.device)
 	var ch curves.Characteristic
 	switch {
 	case d.Kind == coord.Fuse:
 		ch = d.Clear
 	case c.Kind == coord.Residual:
-		ch = t.Ground[coord.Nominal]
+		ch = ground[coord.Nominal]
 	default:
-		ch = t.Phase[coord.Nominal]
+		ch = phase[coord.Nominal]
 	}
 	if ch == nil {
 		return math.NaN()
