@@ -268,9 +268,32 @@ func (t *tally) merge(o *tally) {
 
 // runPass judges every fault of the study on every CPU.
 func (x *netIndex) runPass(crit Criteria) (*tally, error) {
+	tallies, err := overNodes(x, x.newTally, func(ws *workspace, t *tally, i int, nd node) error {
+		for _, cs := range faults.Cases {
+			if err := x.judgeNode(ws, t, crit, i, nd, cs); err != nil {
+				return err
+			}
+		}
+		return nil
+	})
+	if err != nil {
+		return nil, err
+	}
+	total := x.newTally()
+	for _, t := range tallies {
+		total.merge(t)
+	}
+	return total, nil
+}
+
+// overNodes calls visit for every fault node of the study, on every CPU:
+// each worker has its own workspace and its own result (made by fresh),
+// and the results come back in worker order for the caller to merge. The
+// error of a node stops its worker; the first worker's error is returned.
+func overNodes[R any](x *netIndex, fresh func() R, visit func(ws *workspace, r R, i int, nd node) error) ([]R, error) {
 	nodes := x.nodes()
 	workers := runtime.GOMAXPROCS(0)
-	tallies := make([]*tally, workers)
+	results := make([]R, workers)
 	errs := make([]error, workers)
 	var next atomic.Int64
 	var wg sync.WaitGroup
@@ -279,18 +302,16 @@ func (x *netIndex) runPass(crit Criteria) (*tally, error) {
 		go func() {
 			defer wg.Done()
 			ws := x.newWorkspace()
-			t := x.newTally()
-			tallies[w] = t
+			r := fresh()
+			results[w] = r
 			for {
 				i := int(next.Add(1) - 1)
-				if i >= len(nodes) || errs[w] != nil {
+				if i >= len(nodes) {
 					return
 				}
-				for _, cs := range faults.Cases {
-					if err := x.judgeNode(ws, t, crit, i, nodes[i], cs); err != nil {
-						errs[w] = err
-						return
-					}
+				if err := visit(ws, r, i, nodes[i]); err != nil {
+					errs[w] = err
+					return
 				}
 			}
 		}()
@@ -301,11 +322,7 @@ func (x *netIndex) runPass(crit Criteria) (*tally, error) {
 			return nil, err
 		}
 	}
-	total := x.newTally()
-	for _, t := range tallies {
-		total.merge(t)
-	}
-	return total, nil
+	return results, nil
 }
 
 // judgeNode judges the faults of one node in one case.
