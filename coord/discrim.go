@@ -349,19 +349,9 @@ func (x *netIndex) judgeNode(ws *workspace, t *tally, crit Criteria, ni int, nd 
 	}
 	clear(ws.swept)
 	for ei, ne := range nd.elems {
-		v := &view{p: p, buf: ws.search, el: ne.el, cs: cs}
-		if !ne.place.IsBus() && (ne.place.Frac == 0 || ne.place.Frac == 1) {
-			ci, err := eng.Solve(eng.CaseFault(ne.place, faults.LLL, cs))
-			if err != nil {
-				return err
-			}
-			ci = ci.Share(ws.sc)
-			v.hasOwn = true
-			v.own[faults.From] = ci.Response(faults.Point{Branch: ne.el.branch, End: faults.From})
-			v.own[faults.To] = ci.Response(faults.Point{Branch: ne.el.branch, End: faults.To})
-		}
-		for _, k := range faults.Kinds {
-			v.kinds[k] = sol.WithKind(k, eng.CaseFault(ne.place, k, cs).ZOhm)
+		v, err := x.elementView(ws, p, sol, ne, cs)
+		if err != nil {
+			return err
 		}
 		ws.forgetStates()
 		if cs == faults.Max {
@@ -393,6 +383,29 @@ func (x *netIndex) judgeNode(ws *workspace, t *tally, crit Criteria, ni int, nd 
 		}
 	}
 	return nil
+}
+
+// elementView is the view of the faults of one element of a node, whose
+// LLL fault of case cs is sol with responses in probe p: a close-in fault
+// at a branch end sees that branch's own ends from its side of the
+// breaker.
+func (x *netIndex) elementView(ws *workspace, p *probe, sol faults.Solution, ne nodeElem, cs faults.Case) (*view, error) {
+	eng := x.eng
+	v := &view{p: p, buf: ws.search, el: ne.el, cs: cs}
+	if !ne.place.IsBus() && (ne.place.Frac == 0 || ne.place.Frac == 1) {
+		ci, err := eng.Solve(eng.CaseFault(ne.place, faults.LLL, cs))
+		if err != nil {
+			return nil, err
+		}
+		ci = ci.Share(ws.sc)
+		v.hasOwn = true
+		v.own[faults.From] = ci.Response(faults.Point{Branch: ne.el.branch, End: faults.From})
+		v.own[faults.To] = ci.Response(faults.Point{Branch: ne.el.branch, End: faults.To})
+	}
+	for _, k := range faults.Kinds {
+		v.kinds[k] = sol.WithKind(k, eng.CaseFault(ne.place, k, cs).ZOhm)
+	}
+	return v, nil
 }
 
 // faultSize is the largest phase current into a fault.

@@ -272,13 +272,20 @@ func (st *seqState) isOpen(d int) bool { return st.stamp[d] == st.gen && st.open
 // stopped d from operating: d would have operated at projS, m tripped at
 // mTrip.
 func (x *netIndex) offerRelief(t *tally, crit Criteria, d, m int, projS, mTrip float64, tt *timeTable, ne nodeElem, key faultKey) {
+	x.offerSequenceOp(t, crit, d, m, projS, mTrip, false, tt, ne, key)
+}
+
+// offerSequenceOp records device d's operation at dS during a sequence
+// against must-clear device m's trip at mS (tripped: d trips before the
+// fault is isolated), with both devices' currents in the state tt.
+func (x *netIndex) offerSequenceOp(t *tally, crit Criteria, d, m int, dS, mS float64, tripped bool, tt *timeTable, ne nodeElem, key faultKey) {
 	t.ops[d].count++
-	margin, req := x.marginOf(crit, d, m, projS, mTrip)
+	margin, req := x.marginOf(crit, d, m, dS, mS)
 	if !t.ops[d].worse(margin-req, key) {
 		return
 	}
 	r := opRecord{slack: margin - req, margin: margin, required: req, key: key, place: ne.place, scale: 1,
-		relief: m, dS: projS, reliefS: mTrip}
+		relief: m, dS: dS, reliefS: mS, tripped: tripped}
 	sd := tt.get(d).seen
 	r.dA, r.dQty = x.timers[d].governingSeen(&sd)
 	r.forward = x.forward(d, &sd)
@@ -308,19 +315,7 @@ func (x *netIndex) unwanted(t *tally, crit Criteria, d int, tripS float64, tt *t
 	if m < 0 {
 		return
 	}
-	t.ops[d].count++
-	margin, req := x.marginOf(crit, d, m, tripS, mS)
-	if !t.ops[d].worse(margin-req, key) {
-		return
-	}
-	r := opRecord{slack: margin - req, margin: margin, required: req, key: key, place: ne.place, scale: 1,
-		relief: m, dS: tripS, reliefS: mS, tripped: true}
-	sd := tt.get(d).seen
-	r.dA, r.dQty = x.timers[d].governingSeen(&sd)
-	r.forward = x.forward(d, &sd)
-	sm := tt.get(m).seen
-	r.reliefA, r.reliefQty = x.timers[m].governingSeen(&sm)
-	t.ops[d].offer(r)
+	x.offerSequenceOp(t, crit, d, m, tripS, mS, true, tt, ne, key)
 }
 
 // sortEvents orders openings by time, then device.

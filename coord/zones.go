@@ -219,19 +219,9 @@ func (x *netIndex) zoneNode(ws *workspace, r *relations, nd node) error {
 	sol = sol.Use(ws.sc)
 	p := x.newProbe(&ws.intact, sol, nil)
 	for _, ne := range nd.elems {
-		v := &view{p: p, buf: ws.search, el: ne.el, cs: faults.Max}
-		if !ne.place.IsBus() && (ne.place.Frac == 0 || ne.place.Frac == 1) {
-			ci, err := eng.Solve(eng.CaseFault(ne.place, faults.LLL, faults.Max))
-			if err != nil {
-				return err
-			}
-			ci = ci.Share(ws.sc)
-			v.hasOwn = true
-			v.own[faults.From] = ci.Response(faults.Point{Branch: ne.el.branch, End: faults.From})
-			v.own[faults.To] = ci.Response(faults.Point{Branch: ne.el.branch, End: faults.To})
-		}
-		for _, k := range faults.Kinds {
-			v.kinds[k] = sol.WithKind(k, eng.CaseFault(ne.place, k, faults.Max).ZOhm)
+		v, err := x.elementView(ws, p, sol, ne, faults.Max)
+		if err != nil {
+			return err
 		}
 		big := faultSize(v.kinds[faults.LLL])
 		for _, k := range []faults.Kind{faults.LLL, faults.LG} {
