@@ -273,6 +273,9 @@ func (st *seqState) isOpen(d int) bool { return st.stamp[d] == st.gen && st.open
 // mTrip.
 func (x *netIndex) offerRelief(t *tally, crit Criteria, d, m int, projS, mTrip float64, tt *timeTable, ne nodeElem, key faultKey) {
 	t.ops[d].count++
+	if x.hook != nil {
+		x.emitMargin(crit, d, m, &tt.get(d).seen, &tt.get(m).seen, projS, mTrip, 1, ne.place, key, true)
+	}
 	margin, req := x.marginOf(crit, d, m, projS, mTrip)
 	if !t.ops[d].worse(margin-req, key) {
 		return
@@ -309,6 +312,9 @@ func (x *netIndex) unwanted(t *tally, crit Criteria, d int, tripS float64, tt *t
 		return
 	}
 	t.ops[d].count++
+	if x.hook != nil {
+		x.emitMargin(crit, d, m, &tt.get(d).seen, &tt.get(m).seen, tripS, mS, 1, ne.place, key, true)
+	}
 	margin, req := x.marginOf(crit, d, m, tripS, mS)
 	if !t.ops[d].worse(margin-req, key) {
 		return

@@ -2,7 +2,6 @@ package coord
 
 import (
 	"math"
-	"math/cmplx"
 
 	"tripgrade/curves"
 )
@@ -143,26 +142,7 @@ const (
 
 func (t *Timer) relaySeen(s *Seen, b Band, which int) (float64, curves.Status) {
 	phaseA, residualA := s.PhaseA(), s.groundA(t.Dev)
-	if !t.directional {
-		return t.groups(phaseA, residualA, Dirs{}, b, which)
-	}
-	var d Dirs
-	d.Known = true
-	pd, gd := t.Directions(s)
-	for p, dir := range pd {
-		a := cmplx.Abs(s.I[p])
-		switch dir {
-		case Forward:
-			d.Fwd = math.Max(d.Fwd, a)
-		case Reverse:
-			d.Rev = math.Max(d.Rev, a)
-		}
-	}
-	if phaseA > 0 {
-		d.Fwd, d.Rev = d.Fwd/phaseA, d.Rev/phaseA
-	}
-	d.Ground = gd
-	return t.groups(phaseA, residualA, d, b, which)
+	return t.groups(phaseA, residualA, t.dirsSeen(s), b, which)
 }
 
 // Dirs say how a directional relay's elements decided for one fault, in a
