@@ -135,7 +135,7 @@ func (pr *Proposal) binding(p *problem) {
 
 // findingKey matches findings of two runs.
 type findingKey struct {
-	check               coord.CheckKind
+	check                coord.CheckKind
 	device, other, stage string
 }
 
