@@ -194,3 +194,14 @@ func (x *netIndex) emitClearing(crit Criteria, m int, sm *Seen, trip float64, pl
 		MarginS: trip + b, RequiredS: crit.MaxClearingS, DownS0: trip}
 	x.hook(&ms)
 }
+
+// emitOpening hands the opening of must-clear device m in a fault's
+// sequence, at atS, to the hook as a clearing bound: every opening that
+// isolates the fault comes within the maximum clearing time.
+func (x *netIndex) emitOpening(crit Criteria, m int, sm *Seen, atS float64, pl faults.Place, key faultKey) {
+	b := x.breaker(m)
+	ms := MarginSample{Check: Clearing, Up: -1, Down: m, Kind: key.kind, Case: key.cs, Place: pl, Scale: 1,
+		DownAt: x.timers[m].operatingSeen(sm), Beta: 1, Gamma: b - crit.MaxClearingS, Sequence: true, DownS: atS - b,
+		MarginS: atS, RequiredS: crit.MaxClearingS, DownS0: atS - b}
+	x.hook(&ms)
+}

@@ -190,6 +190,9 @@ func (x *netIndex) sequence(ws *workspace, t *tally, crit Criteria, v0 *view, tt
 				continue
 			}
 			st.open[d] = true
+			if x.hook != nil {
+				x.emitOpening(crit, d, &tt.get(d).seen, nextT, ne.place, key)
+			}
 			opening.Ends = append(opening.Ends, x.s.Devices[d].Point)
 			evs = append(evs, event{dev: d, atS: nextT, intactA: st.firstA[d], openA: x.governA(d, tt.get(d).seen)})
 			lastDev = nextT

@@ -32,8 +32,10 @@ type problem struct {
 	hiSrc []*Source
 	edges []edge
 	byD   [][]int // edges of each lower variable
-	// conflicts found while building and solving.
+	// conflicts found while building and solving; pushed indexes those
+	// of multipliers pushed past their range, by variable.
 	conflicts []Conflict
+	pushed    map[int]int
 }
 
 // edge is x_U ≥ K·x_D + B.
@@ -67,6 +69,9 @@ type Conflict struct {
 	// way: the continuous value lies between the last step below an
 	// upper bound and the bound.
 	Rounding bool
+	// More counts the further margins that pushed the same multiplier
+	// past its range.
+	More int
 }
 
 // build turns the collected constraints into a problem.
@@ -183,7 +188,7 @@ func (p *problem) least(x []float64, round func(i int, v float64) float64) ([]in
 			}
 			v := round(e.u, need)
 			if v > p.hi[e.u]+feasTol*math.Max(1, p.hi[e.u]) {
-				p.conflicts = append(p.conflicts, Conflict{Var: e.u, NeedX: need, LimitX: p.hi[e.u], Chain: p.chain(ei, reason)})
+				p.conflict(Conflict{Var: e.u, NeedX: need, LimitX: p.hi[e.u]}, func() []*Source { return p.chain(ei, reason) })
 				// The margin is left out, and the multiplier goes as far
 				// towards it as its range allows.
 				e.dropped = true
@@ -200,6 +205,21 @@ func (p *problem) least(x []float64, round func(i int, v float64) float64) ([]in
 		}
 	}
 	return reason, nil
+}
+
+// conflict records a conflict of a multiplier pushed past its range:
+// the first with its chain, and a count of the others.
+func (p *problem) conflict(c Conflict, chain func() []*Source) {
+	if p.pushed == nil {
+		p.pushed = map[int]int{}
+	}
+	if i, ok := p.pushed[c.Var]; ok {
+		p.conflicts[i].More++
+		return
+	}
+	c.Chain = chain()
+	p.pushed[c.Var] = len(p.conflicts)
+	p.conflicts = append(p.conflicts, c)
 }
 
 // chain lists the margin of edge ei and those that raised its lower

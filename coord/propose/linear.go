@@ -241,7 +241,10 @@ func (l *linearizer) constraints(ms *coord.MarginSample, src *Source, emit func(
 // sequenceConstraint linearises a margin of an opening sequence in the
 // two devices' multipliers, the other openings held.
 func (l *linearizer) sequenceConstraint(ms *coord.MarginSample, src *Source, emit func(constraint)) {
-	uv, gu := l.slope(ms.Up, ms.UpAt)
+	uv, gu := -1, 0.0
+	if ms.Up >= 0 {
+		uv, gu = l.slope(ms.Up, ms.UpAt)
+	}
 	dv, gd := l.slope(ms.Down, ms.DownAt)
 	c := ms.Gamma - ms.Alpha*ms.UpS + ms.Beta*ms.DownS
 	if uv >= 0 {

@@ -97,8 +97,9 @@ func Propose(s *coord.Study, eng *faults.Engine, topo *coord.Topology, o Setting
 		if err != nil {
 			return nil, err
 		}
+		last := len(pr.Unresolved)
 		pr.sortOut()
-		if pr.Verified() {
+		if pr.Verified() || round > 1 && len(pr.Unresolved) >= last {
 			break
 		}
 		col.merge(next)
@@ -150,11 +151,12 @@ func (pr *Proposal) sortOut() {
 		before[k] = append(before[k], f)
 	}
 	pr.Unchanged, pr.Unresolved = nil, nil
+	in := pr.conflictIndex()
 	for _, f := range pr.After.Findings {
 		if f.Verdict != coord.Fail || !timedChecks[f.Check] {
 			continue
 		}
-		if pr.explains(f) {
+		if pr.explains(f, in) {
 			continue
 		}
 		if sameFailure(before[keyOf(f)], f) || f.Check == coord.SettingsAudit && !strings.Contains(f.Note, "multiplier") {
@@ -182,43 +184,43 @@ func sameFailure(fs []coord.Finding, f coord.Finding) bool {
 // explains reports whether a conflict accounts for a failing finding:
 // one of its margins is between the finding's two devices (for a
 // clearing finding, names its device).
-func (pr *Proposal) explains(f coord.Finding) bool {
-	name := func(i int) string {
-		if i < 0 {
-			return ""
-		}
-		return pr.Study.Devices[i].Name
-	}
-	for _, c := range pr.Conflicts {
-		for _, src := range c.Chain {
-			if src == nil {
-				continue
-			}
-			up, down := name(src.Up), name(src.Down)
-			switch f.Check {
-			case coord.Grading, coord.Discrimination:
-				if (f.Device == up && f.Other == down) || (f.Device == down && f.Other == up) {
-					return true
-				}
-			case coord.Clearing:
-				if src.Check == coord.Clearing && containsName(f.Other, down) {
-					return true
-				}
+func (pr *Proposal) explains(f coord.Finding, in conflictIndex) bool {
+	switch f.Check {
+	case coord.Grading, coord.Discrimination:
+		return in.pairs[[2]string{f.Device, f.Other}] || in.pairs[[2]string{f.Other, f.Device}]
+	case coord.Clearing:
+		for _, n := range strings.Split(f.Other, ", ") {
+			if in.clearing[n] {
+				return true
 			}
 		}
 	}
 	return false
 }
 
-// containsName reports whether a ", "-separated list holds name.
-func containsName(list, name string) bool {
-	for _, n := range strings.Split(list, ", ") {
-		if n == name {
-			return true
+// conflictIndex holds the device pairs (by name) of every margin in a
+// conflict, and the devices of conflicting clearing times.
+type conflictIndex struct {
+	pairs    map[[2]string]bool
+	clearing map[string]bool
+}
+
+func (pr *Proposal) conflictIndex() conflictIndex {
+	in := conflictIndex{pairs: map[[2]string]bool{}, clearing: map[string]bool{}}
+	for _, c := range pr.Conflicts {
+		for _, src := range c.Chain {
+			switch {
+			case src == nil:
+			case src.Up < 0:
+				in.clearing[pr.Study.Devices[src.Down].Name] = true
+			default:
+				in.pairs[[2]string{pr.Study.Devices[src.Up].Name, pr.Study.Devices[src.Down].Name}] = true
+			}
 		}
 	}
-	return false
+	return in
 }
+
 
 // Describe names the fault and margin of a source for a reader:
 // "grading FM over MA-R, LL min @ MA-2: 0.300 s required".
