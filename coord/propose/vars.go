@@ -97,19 +97,30 @@ func variables(s *coord.Study, o Settings) ([]Variable, [][]int, error) {
 	return vars, index, nil
 }
 
-// onStep returns the least setting of r at or above x: Min + k·Step
-// (rounded to 12 significant digits, so that decimal steps print as
-// written), or x itself for a continuous range. Values within 1e-9 of a
-// step count as on it.
+// stepless is the resolution at which a range declared without a step
+// is set: numerical relays set TMS and TD in steps of 0.001 or finer
+// (common practice, from memory). A proposal on the exact continuous
+// optimum would sit on its margins to the last bit of the arithmetic.
+const stepless = 0.001
+
+// grid returns the setting grid of r: its first setting and its step.
+func grid(r coord.Range) (start, step float64) {
+	if r.Step > 0 {
+		return r.Min, r.Step
+	}
+	return 0, stepless
+}
+
+// onStep returns the least setting of r at or above x: a step of its
+// grid (rounded to 12 significant digits, so that decimal steps print as
+// written) at or above Min. Values within 1e-9 of a step count as on it.
 func onStep(x float64, r coord.Range) float64 {
 	if x < r.Min {
 		x = r.Min
 	}
-	if r.Step == 0 {
-		return x
-	}
-	k := math.Ceil((x-r.Min)/r.Step - 1e-9)
-	return tidy(r.Min + k*r.Step)
+	start, step := grid(r)
+	k := math.Ceil((x-start)/step - 1e-9)
+	return tidy(start + k*step)
 }
 
 // tidy rounds v to 12 significant digits.
@@ -130,9 +141,10 @@ func topStep(r coord.Range) float64 {
 // floorStep returns the highest setting of r at or below x (Min when x
 // lies below it).
 func floorStep(x float64, r coord.Range) float64 {
-	if r.Step == 0 || x <= r.Min {
-		return math.Max(x, r.Min)
+	if x <= r.Min {
+		return r.Min
 	}
-	k := math.Floor((x-r.Min)/r.Step + 1e-9)
-	return tidy(r.Min + k*r.Step)
+	start, step := grid(r)
+	k := math.Floor((x-start)/step + 1e-9)
+	return math.Max(r.Min, tidy(start+k*step))
 }
