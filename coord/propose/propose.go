@@ -221,7 +221,6 @@ func (pr *Proposal) conflictIndex() conflictIndex {
 	return in
 }
 
-
 // Describe names the fault and margin of a source for a reader:
 // "grading FM over MA-R, LL min @ MA-2: 0.300 s required".
 func Describe(s *coord.Study, src *Source) string {

@@ -356,14 +356,14 @@ func (p *Proposal) WriteJSON(w io.Writer) error {
 		Binding  string     `json:"bound_by"`
 	}
 	type margin struct {
-		Check     string      `json:"check"`
-		Device    string      `json:"device"`
-		Other     string      `json:"other"`
-		Before    *jsonNumber `json:"before_margin_s"`
-		After     *jsonNumber `json:"after_margin_s"`
-		Required  jsonNumber  `json:"required_s"`
-		VerdictB  string      `json:"verdict_before,omitempty"`
-		VerdictA  string      `json:"verdict_after"`
+		Check    string      `json:"check"`
+		Device   string      `json:"device"`
+		Other    string      `json:"other"`
+		Before   *jsonNumber `json:"before_margin_s"`
+		After    *jsonNumber `json:"after_margin_s"`
+		Required jsonNumber  `json:"required_s"`
+		VerdictB string      `json:"verdict_before,omitempty"`
+		VerdictA string      `json:"verdict_after"`
 	}
 	type finding struct {
 		Check  string      `json:"check"`
