@@ -78,47 +78,52 @@ func newCollector(lin *linearizer, vars []Variable) *collector {
 
 // margin receives one margin from the checker (coord.Options.Margins).
 func (c *collector) margin(ms *coord.MarginSample) {
-	src := &Source{Check: ms.Check, Up: ms.Up, Down: ms.Down, UpStage: -1, Kind: ms.Kind, Case: ms.Case, Place: ms.Place,
-		Scale: ms.Scale, Sequence: ms.Sequence, RequiredS: ms.RequiredS, MarginS: ms.MarginS}
-	var cons []constraint
-	c.lin.constraints(ms, src, func(k constraint) { cons = append(cons, k) })
+	var buf [16]constraint
+	cons := buf[:0]
+	c.lin.constraints(ms, func(k constraint) { cons = append(cons, k) })
 	c.mu.Lock()
 	defer c.mu.Unlock()
 	c.n++
 	for _, k := range cons {
-		c.add(k)
+		c.add(k, ms)
 	}
+}
+
+// source describes the margin a kept constraint comes from.
+func source(ms *coord.MarginSample, upStage int) *Source {
+	return &Source{Check: ms.Check, Up: ms.Up, Down: ms.Down, UpStage: upStage, Kind: ms.Kind, Case: ms.Case, Place: ms.Place,
+		Scale: ms.Scale, Sequence: ms.Sequence, RequiredS: ms.RequiredS, MarginS: ms.MarginS}
 }
 
 // feasTol is the slack below which a constraint counts as met: the
 // checker's figures are compared at the nanosecond.
 const feasTol = 1e-9
 
-// add files one constraint A·x_U − B·x_D ≥ C.
-func (c *collector) add(k constraint) {
+// add files one constraint A·x_U − B·x_D ≥ C of margin ms.
+func (c *collector) add(k constraint, ms *coord.MarginSample) {
 	hasU, hasD := k.u >= 0 && k.a > 0, k.d >= 0 && k.b > 0
 	switch {
 	case hasU && hasD:
-		c.addLine(k.u, k.d, line{k: k.b / k.a, b: k.c / k.a, src: k.src})
+		c.addLine(k.u, k.d, line{k: k.b / k.a, b: k.c / k.a}, func() *Source { return source(ms, k.upStage) })
 	case hasU:
 		if v := k.c / k.a; v > c.lower[k.u].v {
-			c.lower[k.u] = bound{v, k.src}
+			c.lower[k.u] = bound{v, source(ms, k.upStage)}
 		}
 	case hasD:
 		if v := -k.c / k.b; v < c.upper[k.d].v {
-			c.upper[k.d] = bound{v, k.src}
+			c.upper[k.d] = bound{v, source(ms, k.upStage)}
 		}
 	case k.c > feasTol:
-		key := fixedKey{k.src.Check, k.src.Up, k.src.Down}
+		key := fixedKey{ms.Check, ms.Up, ms.Down}
 		if m, ok := c.fixed[key]; !ok || k.c > m.shortS {
-			c.fixed[key] = fixedMiss{k.c, k.src}
+			c.fixed[key] = fixedMiss{k.c, source(ms, k.upStage)}
 		}
 	}
 }
 
 // addLine keeps x_u ≥ l.k·x_d + l.b unless another line is at least as
 // high at both ends of x_d's range, and drops the lines it lies above.
-func (c *collector) addLine(u, d int, l line) {
+func (c *collector) addLine(u, d int, l line, src func() *Source) {
 	key := [2]int{u, d}
 	lo, hi := c.vars[d].Range.Min, c.vars[d].Range.Max
 	at := func(m line, x float64) float64 { return m.k*x + m.b }
@@ -134,6 +139,9 @@ func (c *collector) addLine(u, d int, l line) {
 			kept = append(kept, m)
 		}
 	}
+	if l.src == nil {
+		l.src = src()
+	}
 	c.lines[key] = append(kept, l)
 }
 
@@ -142,7 +150,7 @@ func (c *collector) addLine(u, d int, l line) {
 func (c *collector) merge(o *collector) {
 	for key, ls := range o.lines {
 		for _, l := range ls {
-			c.addLine(key[0], key[1], l)
+			c.addLine(key[0], key[1], l, nil)
 		}
 	}
 	for i := range o.lower {

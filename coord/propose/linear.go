@@ -197,17 +197,18 @@ func (l *linearizer) slope(dev int, at coord.Operating) (int, float64) {
 	return l.index[dev][best], g
 }
 
-// constraint is A·x_U − B·x_D ≥ C, U or D −1 when the term is fixed.
+// constraint is A·x_U − B·x_D ≥ C, U or D −1 when the term is fixed,
+// from stage upStage (−1: the device as a whole) of the upstream device.
 type constraint struct {
 	u, d    int
 	a, b, c float64
-	src     *Source
+	upStage int
 }
 
 // constraints linearises one margin.
-func (l *linearizer) constraints(ms *coord.MarginSample, src *Source, emit func(constraint)) {
+func (l *linearizer) constraints(ms *coord.MarginSample, emit func(constraint)) {
 	if ms.Sequence {
-		l.sequenceConstraint(ms, src, emit)
+		l.sequenceConstraint(ms, emit)
 		return
 	}
 	dv, dps, ok := l.downPieces(ms.Down, ms.DownAt, ms.DownBand)
@@ -217,22 +218,16 @@ func (l *linearizer) constraints(ms *coord.MarginSample, src *Source, emit func(
 	if ms.Up < 0 {
 		// A clearing bound: −β·t_D ≥ γ.
 		for _, q := range dps {
-			emit(constraint{u: -1, d: dv, a: 0, b: ms.Beta * q.slope, c: ms.Gamma + ms.Beta*q.off, src: src})
+			emit(constraint{u: -1, d: dv, a: 0, b: ms.Beta * q.slope, c: ms.Gamma + ms.Beta*q.off, upStage: -1})
 		}
 		return
 	}
 	uvars, ups, stages := l.upPieces(ms.Up, ms.UpAt, ms.UpBand)
 	for i, uv := range uvars {
-		s := src
-		if stages[i] >= 0 {
-			c := *src
-			c.UpStage = stages[i]
-			s = &c
-		}
 		for _, p := range ups[i] {
 			for _, q := range dps {
 				emit(constraint{u: uv, d: dv, a: ms.Alpha * p.slope, b: ms.Beta * q.slope,
-					c: ms.Gamma - ms.Alpha*p.off + ms.Beta*q.off, src: s})
+					c: ms.Gamma - ms.Alpha*p.off + ms.Beta*q.off, upStage: stages[i]})
 			}
 		}
 	}
@@ -240,7 +235,7 @@ func (l *linearizer) constraints(ms *coord.MarginSample, src *Source, emit func(
 
 // sequenceConstraint linearises a margin of an opening sequence in the
 // two devices' multipliers, the other openings held.
-func (l *linearizer) sequenceConstraint(ms *coord.MarginSample, src *Source, emit func(constraint)) {
+func (l *linearizer) sequenceConstraint(ms *coord.MarginSample, emit func(constraint)) {
 	uv, gu := -1, 0.0
 	if ms.Up >= 0 {
 		uv, gu = l.slope(ms.Up, ms.UpAt)
@@ -253,5 +248,5 @@ func (l *linearizer) sequenceConstraint(ms *coord.MarginSample, src *Source, emi
 	if dv >= 0 {
 		c -= ms.Beta * gd * l.x[dv]
 	}
-	emit(constraint{u: uv, d: dv, a: ms.Alpha * gu, b: ms.Beta * gd, c: c, src: src})
+	emit(constraint{u: uv, d: dv, a: ms.Alpha * gu, b: ms.Beta * gd, c: c, upStage: -1})
 }

@@ -30,6 +30,8 @@ type Proposal struct {
 	// Unchanged are findings that fail before and after with the same
 	// figure: no multiplier moves them (a pickup, a missing device).
 	Unchanged []coord.Finding
+	// Conflicting are failing findings the conflicts account for.
+	Conflicting []coord.Finding
 	// Unresolved are findings the checker fails on the proposal that no
 	// conflict accounts for and that the multipliers changed: the search
 	// did not converge on them. A proposal with any is not verified.
@@ -150,13 +152,14 @@ func (pr *Proposal) sortOut() {
 		k := keyOf(f)
 		before[k] = append(before[k], f)
 	}
-	pr.Unchanged, pr.Unresolved = nil, nil
+	pr.Unchanged, pr.Unresolved, pr.Conflicting = nil, nil, nil
 	in := pr.conflictIndex()
 	for _, f := range pr.After.Findings {
 		if f.Verdict != coord.Fail || !timedChecks[f.Check] {
 			continue
 		}
 		if pr.explains(f, in) {
+			pr.Conflicting = append(pr.Conflicting, f)
 			continue
 		}
 		if sameFailure(before[keyOf(f)], f) || f.Check == coord.SettingsAudit && !strings.Contains(f.Note, "multiplier") {
@@ -208,6 +211,11 @@ type conflictIndex struct {
 func (pr *Proposal) conflictIndex() conflictIndex {
 	in := conflictIndex{pairs: map[[2]string]bool{}, clearing: map[string]bool{}}
 	for _, c := range pr.Conflicts {
+		if c.Var >= 0 && !c.Below && !c.Rounding {
+			// A multiplier held at the top of its range by a margin it
+			// cannot meet: the clearing times of its device follow.
+			in.clearing[pr.Study.Devices[pr.Vars[c.Var].Device].Name] = true
+		}
 		for _, src := range c.Chain {
 			switch {
 			case src == nil:

@@ -25,8 +25,8 @@ type Proposal struct {
 	// Conflicts describe the margins no multipliers within their ranges
 	// meet; Unchanged and Unresolved are the failing findings of the
 	// proposal (see propose.Proposal).
-	Conflicts             []ConflictRow
-	Unchanged, Unresolved []coord.Finding
+	Conflicts                          []ConflictRow
+	Conflicting, Unchanged, Unresolved []coord.Finding
 	// ShownConflicts caps the conflicts the text and Markdown tables list
 	// (0: all).
 	ShownConflicts int
@@ -60,7 +60,7 @@ type ConflictRow struct {
 func NewProposal(pr *propose.Proposal) *Proposal {
 	s := pr.Study
 	out := &Proposal{Study: s.Name, Verified: pr.Verified(), ShownConflicts: 40,
-		Unchanged: pr.Unchanged, Unresolved: pr.Unresolved}
+		Conflicting: pr.Conflicting, Unchanged: pr.Unchanged, Unresolved: pr.Unresolved}
 	out.Method = fmt.Sprintf("least multipliers meeting every margin the checker judges: %d margins linearised, %d constraints kept after removing dominated ones, %d groups of linked multipliers (%d solved by gonum's simplex, the rest by label correcting); rounded up to each range's step and verified by the checker (%d round(s))",
 		pr.Margins, pr.Constraints, pr.Groups, pr.LPGroups, pr.Rounds)
 	for i, v := range pr.Vars {
@@ -160,7 +160,7 @@ func (p *Proposal) summary() string {
 	}
 	line := fmt.Sprintf("verified by the checker: %d of %d multipliers changed", changed, len(p.Settings))
 	if len(p.Conflicts) > 0 {
-		line += fmt.Sprintf("; %d conflicts no multiplier can resolve (listed): the findings they name still fail", len(p.Conflicts))
+		line += fmt.Sprintf("; %d conflicts no multiplier can resolve (listed), %d findings still fail by them", len(p.Conflicts), len(p.Conflicting))
 	}
 	if len(p.Unchanged) > 0 {
 		line += fmt.Sprintf("; %d findings fail before and after, unmoved by multipliers", len(p.Unchanged))
@@ -204,6 +204,7 @@ func (p *Proposal) WriteText(w io.Writer) error {
 		}
 	}
 	p.writeConflictsText(ew)
+	p.writeFindingsText(ew, "STILL FAILING, BY THE CONFLICTS", p.Conflicting)
 	p.writeFindingsText(ew, "STILL FAILING, UNMOVED BY MULTIPLIERS", p.Unchanged)
 	p.writeFindingsText(ew, "STILL FAILING, NOT ACCOUNTED FOR", p.Unresolved)
 	fmt.Fprintf(ew, "\n%s\n%s\n", p.summary(), Caution)
@@ -287,7 +288,7 @@ func (p *Proposal) WriteMarkdown(w io.Writer) error {
 	for _, part := range []struct {
 		title string
 		fs    []coord.Finding
-	}{{"Still failing, unmoved by multipliers", p.Unchanged}, {"Still failing, not accounted for", p.Unresolved}} {
+	}{{"Still failing, by the conflicts", p.Conflicting}, {"Still failing, unmoved by multipliers", p.Unchanged}, {"Still failing, not accounted for", p.Unresolved}} {
 		if len(part.fs) == 0 {
 			continue
 		}
@@ -331,7 +332,7 @@ func (p *Proposal) WriteCSV(w io.Writer) error {
 	for _, part := range []struct {
 		row string
 		fs  []coord.Finding
-	}{{"unchanged_failure", p.Unchanged}, {"unresolved_failure", p.Unresolved}} {
+	}{{"conflict_failure", p.Conflicting}, {"unchanged_failure", p.Unchanged}, {"unresolved_failure", p.Unresolved}} {
 		for _, f := range part.fs {
 			_ = cw.Write([]string{part.row, textCell(f.Device), textCell(f.Stage), textCell(f.Other), f.Check.Slug(), "", "", "", "", "", numberCell(f.Margin), "", "", f.Verdict.String(), textCell(f.Note)})
 		}
@@ -374,19 +375,20 @@ func (p *Proposal) WriteJSON(w io.Writer) error {
 		Note   string      `json:"note"`
 	}
 	doc := struct {
-		Study      string        `json:"study"`
-		Caution    string        `json:"caution"`
-		Verified   bool          `json:"verified"`
-		Summary    string        `json:"summary"`
-		Method     string        `json:"method"`
-		Notes      []string      `json:"notes,omitempty"`
-		Settings   []setting     `json:"multipliers"`
-		Margins    []margin      `json:"margins"`
-		Conflicts  []ConflictRow `json:"conflicts"`
-		Unchanged  []finding     `json:"unchanged_failures"`
-		Unresolved []finding     `json:"unresolved_failures"`
+		Study       string        `json:"study"`
+		Caution     string        `json:"caution"`
+		Verified    bool          `json:"verified"`
+		Summary     string        `json:"summary"`
+		Method      string        `json:"method"`
+		Notes       []string      `json:"notes,omitempty"`
+		Settings    []setting     `json:"multipliers"`
+		Margins     []margin      `json:"margins"`
+		Conflicts   []ConflictRow `json:"conflicts"`
+		Conflicting []finding     `json:"conflict_failures"`
+		Unchanged   []finding     `json:"unchanged_failures"`
+		Unresolved  []finding     `json:"unresolved_failures"`
 	}{Study: p.Study, Caution: Caution, Verified: p.Verified, Summary: p.summary(), Method: p.Method, Notes: p.Notes,
-		Settings: []setting{}, Margins: []margin{}, Conflicts: p.Conflicts, Unchanged: []finding{}, Unresolved: []finding{}}
+		Settings: []setting{}, Margins: []margin{}, Conflicts: p.Conflicts, Conflicting: []finding{}, Unchanged: []finding{}, Unresolved: []finding{}}
 	if doc.Conflicts == nil {
 		doc.Conflicts = []ConflictRow{}
 	}
@@ -415,6 +417,9 @@ func (p *Proposal) WriteJSON(w io.Writer) error {
 			}
 			doc.Margins = append(doc.Margins, r)
 		}
+	}
+	for _, f := range p.Conflicting {
+		doc.Conflicting = append(doc.Conflicting, finding{f.Check.Slug(), f.Device, f.Other, f.Stage, num(&f), f.Note})
 	}
 	for _, f := range p.Unchanged {
 		doc.Unchanged = append(doc.Unchanged, finding{f.Check.Slug(), f.Device, f.Other, f.Stage, num(&f), f.Note})
