@@ -49,11 +49,18 @@ type collector struct {
 	// lines, per (upper variable, lower variable).
 	lines map[[2]int][]line
 	lower []bound // x ≥ lower (max), src nil when none
-	upper []bound // x ≤ upper (min), src nil when none
+	upper []map[upperKey]bound // x ≤ upper, the lowest of each source
 	// fixed holds, per (check, up, down), the worst constraint 0 ≥ C with
 	// C > 0 between fixed times: a margin no multiplier can change.
 	fixed map[fixedKey]fixedMiss
 	n     int // margins seen
+}
+
+// upperKey is the source of an upper bound: a check and an upstream
+// device's stage (−1 for a clearing bound).
+type upperKey struct {
+	check       coord.CheckKind
+	up, upStage int
 }
 
 type fixedKey struct {
@@ -68,10 +75,9 @@ type fixedMiss struct {
 
 func newCollector(lin *linearizer, vars []Variable) *collector {
 	c := &collector{lin: lin, vars: vars, lines: map[[2]int][]line{}, fixed: map[fixedKey]fixedMiss{},
-		lower: make([]bound, len(vars)), upper: make([]bound, len(vars))}
+		lower: make([]bound, len(vars)), upper: make([]map[upperKey]bound, len(vars))}
 	for i := range vars {
 		c.lower[i] = bound{v: math.Inf(-1)}
-		c.upper[i] = bound{v: math.Inf(1)}
 	}
 	return c
 }
@@ -110,8 +116,17 @@ func (c *collector) add(k constraint, ms *coord.MarginSample) {
 			c.lower[k.u] = bound{v, source(ms, k.upStage)}
 		}
 	case hasD:
-		if v := -k.c / k.b; v < c.upper[k.d].v {
-			c.upper[k.d] = bound{v, source(ms, k.upStage)}
+		// Bounds below the range cannot be met: the lowest of them is kept
+		// apart, for the conflict, so that it does not hide the lowest
+		// bound the range can meet.
+		// Every source's lowest bound is kept: which of them the range
+		// (and the lower bounds) can meet is known only when all are in.
+		v, key := -k.c/k.b, upperKey{ms.Check, ms.Up, k.upStage}
+		if old, ok := c.upper[k.d][key]; !ok || v < old.v {
+			if c.upper[k.d] == nil {
+				c.upper[k.d] = map[upperKey]bound{}
+			}
+			c.upper[k.d][key] = bound{v, source(ms, k.upStage)}
 		}
 	case k.c > feasTol:
 		key := fixedKey{ms.Check, ms.Up, ms.Down}
@@ -157,8 +172,13 @@ func (c *collector) merge(o *collector) {
 		if o.lower[i].v > c.lower[i].v {
 			c.lower[i] = o.lower[i]
 		}
-		if o.upper[i].v < c.upper[i].v {
-			c.upper[i] = o.upper[i]
+		for key, b := range o.upper[i] {
+			if old, ok := c.upper[i][key]; !ok || b.v < old.v {
+				if c.upper[i] == nil {
+					c.upper[i] = map[upperKey]bound{}
+				}
+				c.upper[i][key] = b
+			}
 		}
 	}
 	for key, m := range o.fixed {

@@ -83,21 +83,33 @@ func build(c *collector) *problem {
 		if lb := c.lower[i]; lb.src != nil && lb.v > p.lo[i] {
 			p.lo[i], p.loSrc[i] = lb.v, lb.src
 		}
-		ub := c.upper[i]
-		if ub.src == nil || ub.v >= p.hi[i] {
-			continue
+		// The upper bounds, lowest first (ties by source, for a fixed
+		// order): those below what the range and the lower bounds allow
+		// cannot be met and are left out, as one conflict.
+		ubs := make([]bound, 0, len(c.upper[i]))
+		for _, b := range c.upper[i] {
+			ubs = append(ubs, b)
 		}
-		if ub.v < p.lo[i]-feasTol*math.Max(1, p.lo[i]) {
-			// An upper bound below what the range (or a fixed lower
-			// bound) allows: the margin cannot be met; it is left out.
-			chain := []*Source{ub.src}
+		sort.Slice(ubs, func(a, b int) bool {
+			if ubs[a].v != ubs[b].v {
+				return ubs[a].v < ubs[b].v
+			}
+			return sourceLess(ubs[a].src, ubs[b].src)
+		})
+		var under []bound
+		for len(ubs) > 0 && ubs[0].v < p.lo[i]-feasTol*math.Max(1, p.lo[i]) {
+			under, ubs = append(under, ubs[0]), ubs[1:]
+		}
+		if len(under) > 0 {
+			chain := []*Source{under[0].src}
 			if p.loSrc[i] != nil {
 				chain = append(chain, p.loSrc[i])
 			}
-			p.conflicts = append(p.conflicts, Conflict{Var: i, NeedX: ub.v, LimitX: p.lo[i], Chain: chain, Below: true})
-			continue
+			p.conflicts = append(p.conflicts, Conflict{Var: i, NeedX: under[0].v, LimitX: p.lo[i], Chain: chain, Below: true, More: len(under) - 1})
 		}
-		p.hi[i], p.hiSrc[i] = ub.v, ub.src
+		if len(ubs) > 0 && ubs[0].v < p.hi[i] {
+			p.hi[i], p.hiSrc[i] = ubs[0].v, ubs[0].src
+		}
 	}
 	for i, v := range c.vars {
 		if p.lo[i] > p.hi[i]+feasTol*math.Max(1, p.hi[i]) {
@@ -284,4 +296,23 @@ func (p *problem) binding(x []float64) (edges []int, need []float64) {
 		}
 	}
 	return edges, need
+}
+
+// sourceLess orders two sources by check, devices, stage and fault.
+func sourceLess(a, b *Source) bool {
+	switch {
+	case a.Check != b.Check:
+		return a.Check < b.Check
+	case a.Up != b.Up:
+		return a.Up < b.Up
+	case a.Down != b.Down:
+		return a.Down < b.Down
+	case a.UpStage != b.UpStage:
+		return a.UpStage < b.UpStage
+	case a.Kind != b.Kind:
+		return a.Kind < b.Kind
+	case a.Case != b.Case:
+		return a.Case < b.Case
+	}
+	return a.Scale < b.Scale
 }
