@@ -48,7 +48,7 @@ type collector struct {
 	mu   sync.Mutex
 	// lines, per (upper variable, lower variable).
 	lines map[[2]int][]line
-	lower []bound // x ≥ lower (max), src nil when none
+	lower []bound              // x ≥ lower (max), src nil when none
 	upper []map[upperKey]bound // x ≤ upper, the lowest of each source
 	// fixed holds, per (check, up, down), the worst constraint 0 ≥ C with
 	// C > 0 between fixed times: a margin no multiplier can change.
