@@ -39,6 +39,9 @@ type netIndex struct {
 	topo *Topology
 	// isl tells whether an opening cuts a fault off from every infeed.
 	isl *islands
+	// hook, when not nil, receives every margin judged (Options.Margins;
+	// margins.go).
+	hook func(*MarginSample)
 }
 
 // pickupLimits are a relay's lowest pickups (+Inf where it has no stage of

@@ -190,6 +190,9 @@ func (x *netIndex) sequence(ws *workspace, t *tally, crit Criteria, v0 *view, tt
 				continue
 			}
 			st.open[d] = true
+			if x.hook != nil {
+				x.emitOpening(crit, d, &tt.get(d).seen, nextT, ne.place, key)
+			}
 			opening.Ends = append(opening.Ends, x.s.Devices[d].Point)
 			evs = append(evs, event{dev: d, atS: nextT, intactA: st.firstA[d], openA: x.governA(d, tt.get(d).seen)})
 			lastDev = nextT
@@ -280,6 +283,9 @@ func (x *netIndex) offerRelief(t *tally, crit Criteria, d, m int, projS, mTrip f
 // fault is isolated), with both devices' currents in the state tt.
 func (x *netIndex) offerSequenceOp(t *tally, crit Criteria, d, m int, dS, mS float64, tripped bool, tt *timeTable, ne nodeElem, key faultKey) {
 	t.ops[d].count++
+	if x.hook != nil {
+		x.emitMargin(crit, d, m, &tt.get(d).seen, &tt.get(m).seen, dS, mS, 1, ne.place, key, true)
+	}
 	margin, req := x.marginOf(crit, d, m, dS, mS)
 	if !t.ops[d].worse(margin-req, key) {
 		return
