@@ -476,9 +476,12 @@ func (x *netIndex) breaker(d int) float64 {
 // time as the downstream device is tDown (the same rules as grading).
 func (x *netIndex) required(crit Criteria, up, down int, tDown float64) float64 {
 	u, d := &x.s.Devices[up], &x.s.Devices[down]
+	pairS := x.pairMarginS(up, down)
 	switch {
 	case u.Kind == Fuse:
 		return 0 // judged as clearing ≤ FuseMeltRatio × melting: see marginOf
+	case pairS > 0:
+		return pairS
 	case d.Kind == Fuse:
 		return crit.MarginFuseS
 	case crit.Components != nil:
@@ -486,6 +489,19 @@ func (x *netIndex) required(crit Criteria, up, down int, tDown float64) float64 
 		return (2*d.Accuracy.ClassPct+k.CTErrorPct)/100*tDown + d.BreakerS + k.OvertravelS + k.SafetyS
 	}
 	return crit.MarginS
+}
+
+// pairMarginS is the margin the study sets for device up over device down,
+// as grading takes it: a [[pair]] entry's margin_s, else the upstream
+// relay's own margin_s; 0 when the criteria's applies.
+func (x *netIndex) pairMarginS(up, down int) float64 {
+	if s, ok := x.pairMargins[[2]int{up, down}]; ok {
+		return s
+	}
+	if u := &x.s.Devices[up]; u.Kind == Relay && u.MarginS > 0 {
+		return u.MarginS
+	}
+	return 0
 }
 
 // marginOf returns the margin of device up (operating at upS as the

@@ -161,7 +161,7 @@ func (x *netIndex) emitMargin(crit Criteria, d, m int, sd, sm *Seen, upS, mTrip,
 		ms.UpBand, ms.DownBand = bands(crit)
 	}
 	ms.MarginS, ms.RequiredS = x.marginOf(crit, d, m, upS, mTrip)
-	ms.Alpha, ms.Beta, ms.Gamma = marginRule(crit, &x.s.Devices[d], &x.s.Devices[m], 0)
+	ms.Alpha, ms.Beta, ms.Gamma = marginRule(crit, &x.s.Devices[d], &x.s.Devices[m], x.pairMarginS(d, m))
 	x.hook(&ms)
 }
 
