@@ -23,6 +23,8 @@ type Source struct {
 	// clearing bound); MarginS the margin the checker found where the
 	// constraint was linearised.
 	RequiredS, MarginS float64
+	// CurrentA is the inrush current of an inrush bound (Check Inrush).
+	CurrentA float64
 }
 
 // line is x_U ≥ K·x_D + B between two variables.
