@@ -45,6 +45,10 @@ type linearizer struct {
 	timers []*coord.Timer
 	index  [][]int   // variable of each (device, stage), −1 when fixed
 	x      []float64 // the multipliers of the study being linearised, per variable
+	// from, when not nil, linearises the study the margins were judged
+	// on, where its pickups differ from s's (a pickup search): the times
+	// of a sequence are then scaled by the governing stages' time ratio.
+	from *linearizer
 }
 
 func newLinearizer(s *coord.Study, index [][]int, x []float64) *linearizer {
@@ -241,7 +245,24 @@ func (l *linearizer) sequenceConstraint(ms *coord.MarginSample, emit func(constr
 		uv, gu = l.slope(ms.Up, ms.UpAt)
 	}
 	dv, gd := l.slope(ms.Down, ms.DownAt)
-	c := ms.Gamma - ms.Alpha*ms.UpS + ms.Beta*ms.DownS
+	upS, downS := ms.UpS, ms.DownS
+	if l.from != nil {
+		// The sequence's times at the pickups it was judged with, scaled
+		// to these by the governing stage's time at multiplier 1: exact
+		// for a device one stage times throughout, an estimate otherwise
+		// (the verifying check judges the sequence itself).
+		if ms.Up >= 0 && uv >= 0 {
+			if _, g0 := l.from.slope(ms.Up, ms.UpAt); g0 > 0 {
+				upS *= gu / g0
+			}
+		}
+		if dv >= 0 {
+			if _, g0 := l.from.slope(ms.Down, ms.DownAt); g0 > 0 {
+				downS *= gd / g0
+			}
+		}
+	}
+	c := ms.Gamma - ms.Alpha*upS + ms.Beta*downS
 	if uv >= 0 {
 		c += ms.Alpha * gu * l.x[uv]
 	}

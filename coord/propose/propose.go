@@ -36,6 +36,15 @@ type Proposal struct {
 	// conflict accounts for and that the multipliers changed: the search
 	// did not converge on them. A proposal with any is not verified.
 	Unresolved []coord.Finding
+	// Pickups are the stages whose pickups were chosen (Settings.Pickups),
+	// P the chosen pickups and PickupBy what holds each; KeptPickups the
+	// stages whose pickups were left as given, and why. PickupEvals counts
+	// the candidate sets of pickups the search scored.
+	Pickups     []PickupVar
+	P           []float64
+	PickupBy    []Limit
+	KeptPickups []KeptPickup
+	PickupEvals int
 	// Rounds is the number of solve-and-verify rounds run.
 	Rounds int
 	// Margins counts the margins linearised in the first round;
@@ -62,42 +71,58 @@ var timedChecks = map[coord.CheckKind]bool{coord.Grading: true, coord.Discrimina
 // Propose searches for the least multipliers of the study's inverse-time
 // stages that meet every margin the checker judges, rounds them up to
 // their steps, and verifies them with the checker, linearising again at
-// the new settings until the checker agrees or the rounds run out.
+// the new settings until the checker agrees or the rounds run out. With
+// Settings.Pickups it first chooses the pickups (pickups.go, search.go).
 func Propose(s *coord.Study, eng *faults.Engine, topo *coord.Topology, o Settings) (*Proposal, error) {
 	vars, index, err := variables(s, o)
 	if err != nil {
 		return nil, err
 	}
 	pr := &Proposal{Study: s, Vars: vars}
+	ia := inrushCurrents(s, topo)
+	if o.Pickups {
+		return pr, pr.choosePickups(eng, topo, o, index, ia)
+	}
 	col := newCollector(newLinearizer(s, index, multipliers(s, vars)), vars)
+	col.inrush(s, ia)
 	pr.Before, err = coord.CheckWith(s, eng, topo, coord.Options{Margins: col.margin})
 	if err != nil {
 		return nil, err
 	}
 	pr.Margins = col.n
+	return pr, pr.solve(s, eng, index, col, o, ia)
+}
+
+// solve runs the rounds: the least multipliers of the collected
+// constraints, rounded, applied to base (the study at the pickups
+// proposed) and verified by the checker, whose margins at the new
+// settings join the constraints for the next round.
+func (pr *Proposal) solve(base *coord.Study, eng *faults.Engine, index [][]int, col *collector, o Settings, ia []float64) error {
+	vars := pr.Vars
 	for round := 1; round <= o.rounds(); round++ {
 		pr.Rounds = round
 		p := build(col)
 		xc, lpGroups, err := p.solve()
 		if err != nil {
-			return nil, err
+			return err
 		}
 		xr, err := p.rounded(xc)
 		if err != nil {
-			return nil, err
+			return err
 		}
 		pr.Continuous, pr.X, pr.Conflicts = xc, xr, p.conflicts
 		pr.Constraints, pr.Groups, pr.LPGroups = p.size(), len(p.components()), lpGroups
 		pr.binding(p)
-		pr.Proposed = Apply(s, vars, xr)
+		pr.Proposed = Apply(base, vars, xr)
 		t2, err := coord.NewTopology(pr.Proposed, eng)
 		if err != nil {
-			return nil, err
+			return err
 		}
 		next := newCollector(newLinearizer(pr.Proposed, index, xr), vars)
+		next.inrush(pr.Proposed, ia)
 		pr.After, err = coord.CheckWith(pr.Proposed, eng, t2, coord.Options{Margins: next.margin})
 		if err != nil {
-			return nil, err
+			return err
 		}
 		last := len(pr.Unresolved)
 		pr.sortOut()
@@ -106,7 +131,7 @@ func Propose(s *coord.Study, eng *faults.Engine, topo *coord.Topology, o Setting
 		}
 		col.merge(next)
 	}
-	return pr, nil
+	return nil
 }
 
 // size counts the constraints of a problem: the edges and the bounds.
@@ -155,7 +180,20 @@ func (pr *Proposal) sortOut() {
 	pr.Unchanged, pr.Unresolved, pr.Conflicting = nil, nil, nil
 	in := pr.conflictIndex()
 	for _, f := range pr.After.Findings {
-		if f.Verdict != coord.Fail || !timedChecks[f.Check] {
+		if f.Verdict != coord.Fail {
+			continue
+		}
+		if pr.Pickups != nil && pickupChecks[f.Check] {
+			// A pickup moved: the finding fails by the proposal unless it
+			// failed on the study too.
+			if failed(before[keyOf(f)]) {
+				pr.Unchanged = append(pr.Unchanged, f)
+			} else {
+				pr.Unresolved = append(pr.Unresolved, f)
+			}
+			continue
+		}
+		if !timedChecks[f.Check] {
 			continue
 		}
 		if pr.explains(f, in) {
@@ -170,6 +208,16 @@ func (pr *Proposal) sortOut() {
 		}
 		pr.Unresolved = append(pr.Unresolved, f)
 	}
+}
+
+// failed reports whether one of the findings fails.
+func failed(fs []coord.Finding) bool {
+	for _, f := range fs {
+		if f.Verdict == coord.Fail {
+			return true
+		}
+	}
+	return false
 }
 
 // sameFailure reports whether one of the earlier findings failed with
@@ -218,7 +266,7 @@ func (pr *Proposal) conflictIndex() conflictIndex {
 		}
 		for _, src := range c.Chain {
 			switch {
-			case src == nil:
+			case src == nil, isInrush(src):
 			case src.Up < 0:
 				in.clearing[pr.Study.Devices[src.Down].Name] = true
 			default:
@@ -234,6 +282,10 @@ func (pr *Proposal) conflictIndex() conflictIndex {
 func Describe(s *coord.Study, src *Source) string {
 	if src == nil {
 		return "bottom of the range"
+	}
+	if isInrush(src) {
+		return fmt.Sprintf("inrush: %s does not operate within %.3g s at %s A (%g × the full-load current of the transformers it energises)",
+			s.Devices[src.Down].Name, src.RequiredS, fmtA(src.CurrentA), s.Criteria.InrushMultiple)
 	}
 	fault := fmt.Sprintf("%s %s @ %s", src.Kind, src.Case, coord.PlaceName(s.Network, src.Place))
 	if src.Scale != 1 && src.Scale > 0 {
