@@ -88,6 +88,9 @@ type Finding struct {
 	// Acceptance is set when an [[accept]] entry covers the finding; the
 	// Verdict is then Accepted (see Accept).
 	Acceptance *Acceptance
+	// Scenario names the operating configuration the finding was made in
+	// (see Scenario); "" for a study checked without scenarios.
+	Scenario string
 }
 
 // FaultRef describes the fault behind a figure.

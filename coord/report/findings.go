@@ -31,12 +31,42 @@ type Findings struct {
 	// earlier run.
 	Scope    *ScopeInfo
 	Baseline *Comparison
+	// Scenarios lists the study's scenarios, the study as drawn first,
+	// when it has any: each finding is then the worst of its check,
+	// device, other device and stage over them all, and names the
+	// scenario it comes from. ScenarioNotes say what the N-1 sweep left
+	// out. Section, when set, names the one scenario this table is of
+	// (check --scenarios all), whose header the full report gives.
+	Scenarios     []ScenarioLine
+	ScenarioNotes []string
+	Section       *ScenarioLine
 }
 
-// PairRow is one backup pair by name.
+// ScenarioLine is one scenario in a report's header.
+type ScenarioLine struct {
+	Name, Changes string
+	Outage        bool
+}
+
+// NewScenarioLines lists a study's scenarios for a report, the study as
+// drawn first; nil when it has none.
+func NewScenarioLines(s *coord.Study) []ScenarioLine {
+	if len(s.Scenarios) == 0 {
+		return nil
+	}
+	out := []ScenarioLine{{Name: coord.AsDrawn, Changes: "every element in service, every switch as normally operated"}}
+	for _, sc := range s.Scenarios {
+		out = append(out, ScenarioLine{Name: sc.Name, Changes: sc.Changes, Outage: sc.Outage})
+	}
+	return out
+}
+
+// PairRow is one backup pair by name; Scenario names the scenario it was
+// first found in when the study as drawn does not have it.
 type PairRow struct {
 	Upstream, Downstream string
 	Manual               bool
+	Scenario             string
 }
 
 // Row is one finding with its figures formatted.
@@ -51,10 +81,10 @@ func NewFindings(s *coord.Study, r *coord.Result) *Findings {
 	f := &Findings{Study: s.Name, Cases: CaseLines(s), Criteria: append(criteriaLines(s.Criteria), r.Notes...), Notes: s.Notes}
 	name := func(i int) string { return s.Devices[i].Name }
 	for _, p := range r.Pairs {
-		f.Pairs = append(f.Pairs, PairRow{name(p.Upstream), name(p.Downstream), p.Manual})
+		f.Pairs = append(f.Pairs, PairRow{Upstream: name(p.Upstream), Downstream: name(p.Downstream), Manual: p.Manual})
 	}
 	for _, p := range r.Excluded {
-		f.Excluded = append(f.Excluded, PairRow{name(p.Upstream), name(p.Downstream), false})
+		f.Excluded = append(f.Excluded, PairRow{Upstream: name(p.Upstream), Downstream: name(p.Downstream)})
 	}
 	for _, x := range r.Findings {
 		f.Rows = append(f.Rows, newRow(x))
@@ -62,7 +92,17 @@ func NewFindings(s *coord.Study, r *coord.Result) *Findings {
 	f.Pass, f.Warn, f.Fail = r.Counts()
 	f.Accepted = r.Accepted()
 	f.Acceptances = s.Accepts
+	f.Scenarios = NewScenarioLines(s)
+	f.ScenarioNotes = s.ScenarioNotes
 	return f
+}
+
+// AddScenarioPairs adds the backup pairs that only scenarios other than
+// the study as drawn have.
+func (f *Findings) AddScenarioPairs(ps []coord.ScenarioPair) {
+	for _, p := range ps {
+		f.Pairs = append(f.Pairs, PairRow{Upstream: p.Upstream, Downstream: p.Downstream, Manual: p.Manual, Scenario: p.Scenario})
+	}
 }
 
 func newRow(x coord.Finding) Row {
@@ -242,6 +282,9 @@ func pairText(p PairRow) string {
 	s := p.Upstream + " → " + p.Downstream
 	if p.Manual {
 		s += " (added by [[pair]])"
+	}
+	if p.Scenario != "" {
+		s += " (in scenario " + p.Scenario + ")"
 	}
 	return s
 }

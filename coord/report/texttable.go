@@ -124,13 +124,18 @@ func wrap(text string, width int, indent string) string {
 }
 
 // findingsTable builds the text table of one check's rows.
-func findingsTable(g []Row) *textTable {
+// With scenarios it has a scenario column, before the fault.
+func findingsTable(g []Row, scenarios bool) *textTable {
 	with := withHeading(g[0].Finding.Check)
 	t := &textTable{head: []string{"verdict", subjectHeading(g[0].Finding.Check)}}
 	if with != "" {
 		t.head = append(t.head, with)
 	}
-	t.head = append(t.head, "stage", "measured", "required", "margin", "fault", "detail", "note")
+	t.head = append(t.head, "stage", "measured", "required", "margin")
+	if scenarios {
+		t.head = append(t.head, "scenario")
+	}
+	t.head = append(t.head, "fault", "detail", "note")
 	var notes []string
 	for _, r := range g {
 		x := r.Finding
@@ -154,7 +159,11 @@ func findingsTable(g []Row) *textTable {
 		if with != "" {
 			row = append(row, x.Other)
 		}
-		row = append(row, dash(x.Stage), r.Measured, r.Required, r.Margin, dash(r.Fault))
+		row = append(row, dash(x.Stage), r.Measured, r.Required, r.Margin)
+		if scenarios {
+			row = append(row, dash(x.Scenario))
+		}
+		row = append(row, dash(r.Fault))
 		t.rows = append(t.rows, row)
 		details = append(details, dash(r.Detail))
 		t.under = append(t.under, "")
