@@ -39,7 +39,7 @@ func addCheckFlags(c *cmdLine) *checkOptions {
 	o.format = c.fs.String("format", "text", "table `formats`, comma-separated: text, md, csv, json (the first is printed)")
 	c.fs.StringVar(&o.outDir, "out", "", "also write the table in every format, and the plots, to `DIR`")
 	c.fs.BoolVar(&o.strict, "strict", false, "exit 1 on warnings too (checks that could not be made, CT and damage warnings)")
-	c.fs.StringVar(&o.scenarios, "scenarios", "", "with scenarios in the study: `all` lists every scenario's findings, then the worst; NAMES (comma-separated, \"as drawn\" for the study as drawn) checks only those; by default every scenario is checked and the table gives the worst finding of each check, device and stage")
+	c.fs.StringVar(&o.scenarios, "scenarios", "", "list the findings of `all` the study's scenarios, or of the NAMES given (comma-separated; \"as drawn\" is the study as drawn), each in turn, then the worst of each check, device and stage over them; by default every scenario is checked and only the worst are given")
 	o.review = addReviewFlags(c)
 	return o
 }
@@ -89,7 +89,7 @@ func checkLoaded(l loaded, o *checkOptions, stdout, stderr io.Writer) int {
 		return fprintErr(stderr, err)
 	}
 	var out *outFolder
-	if o.outDir != "" && o.scenarios == "all" {
+	if o.outDir != "" && o.listing() {
 		// The findings of every scenario are streamed into the folder.
 		if out, err = openOutFolder(o.outDir); err == nil {
 			err = out.plan(findingFiles(o))
@@ -117,7 +117,7 @@ func checkLoaded(l loaded, o *checkOptions, stdout, stderr io.Writer) int {
 		run.abort()
 		return fprintErr(stderr, err)
 	}
-	if o.scenarios == "all" {
+	if o.listing() {
 		wrote, err := run.finish(tab)
 		listWritten(stderr, wrote)
 		if err != nil {
@@ -219,7 +219,7 @@ func writeOutputs(l loaded, run *scenarioRun, tab *report.Findings, o *checkOpti
 	if err := out.plan(names); err != nil {
 		return nil, nil, err
 	}
-	if o.scenarios != "all" {
+	if !o.listing() {
 		for _, f := range o.formats {
 			w := findingWriters[f]
 			path, err := out.write("findings."+w.ext, func(b *bytes.Buffer) error { return w.write(tab, b) })

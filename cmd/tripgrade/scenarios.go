@@ -46,6 +46,10 @@ type scenarioChart struct {
 	out, report             []byte // PNG at the --out size and at the report's
 }
 
+// listing reports whether --scenarios asks for each scenario's findings
+// (all of them, or those named) rather than only the worst.
+func (o *checkOptions) listing() bool { return o.scenarios != "" }
+
 // pickScenarios reads --scenarios: nil (every scenario) for "" and
 // "all", or the names given, each the study as drawn or one of its
 // scenarios.
@@ -93,7 +97,7 @@ func newScenarioRun(l loaded, o *checkOptions, stdout io.Writer, out *outFolder)
 	if _, ok := r.lines[coord.AsDrawn]; !ok {
 		r.lines[coord.AsDrawn] = report.ScenarioLine{Name: coord.AsDrawn, Changes: "the study as drawn"}
 	}
-	if o.scenarios != "all" {
+	if !o.listing() {
 		return r, nil
 	}
 	for k, f := range o.formats {
