@@ -2,6 +2,8 @@ package coord
 
 import (
 	"fmt"
+	"runtime"
+	"sync"
 
 	"tripgrade/faults"
 )
@@ -76,18 +78,65 @@ func CheckScenarios(s *Study, eng *faults.Engine, t *Topology, pick func(name st
 			return err
 		}
 	}
+	var list []Scenario
 	for _, sc := range s.Scenarios {
-		if pick != nil && !pick(sc.Name) {
-			continue
+		if pick == nil || pick(sc.Name) {
+			list = append(list, sc)
 		}
-		c, err := checkScenario(sc)
-		if err != nil {
-			return &ScenarioError{Scenario: sc.Name, Err: err}
+	}
+	return pipeline(list, visit)
+}
+
+// pipeline checks the scenarios of list on every CPU, several at a time,
+// and hands them to visit in list order. A scenario's check is kept only
+// until visit has taken it, and no more than one per CPU are under way or
+// waiting, so memory does not grow with the number of scenarios. The
+// first error, in list order, stops it.
+func pipeline(list []Scenario, visit func(Checked) error) error {
+	type outcome struct {
+		c   Checked
+		err error
+	}
+	results := make([]chan outcome, len(list))
+	for i := range results {
+		results[i] = make(chan outcome, 1)
+	}
+	slots := make(chan struct{}, runtime.GOMAXPROCS(0))
+	stop := make(chan struct{})
+	var wg sync.WaitGroup
+	defer wg.Wait()
+	defer close(stop)
+	wg.Add(1)
+	go func() {
+		defer wg.Done()
+		for i, sc := range list {
+			select {
+			case slots <- struct{}{}:
+			case <-stop:
+				return
+			}
+			wg.Add(1)
+			go func() {
+				defer wg.Done()
+				c, err := checkScenario(sc)
+				if err != nil {
+					err = &ScenarioError{Scenario: sc.Name, Err: err}
+				} else {
+					c.Result.Tag(sc.Name)
+				}
+				results[i] <- outcome{c, err}
+			}()
 		}
-		c.Result.Tag(sc.Name)
-		if err := visit(c); err != nil {
+	}()
+	for i := range list {
+		o := <-results[i]
+		if o.err != nil {
+			return o.err
+		}
+		if err := visit(o.c); err != nil {
 			return err
 		}
+		<-slots
 	}
 	return nil
 }
