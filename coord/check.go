@@ -19,13 +19,19 @@ type checker struct {
 	timers  []*Timer
 	places  [][]faults.Place       // fault places of each device's zone
 	atPoint map[faults.Point][]int // devices at each branch end
+	hook    func(*MarginSample)    // Options.Margins
 }
 
 // Check runs every check on a study and returns the backup pairs and the
 // findings, grouped by check in report order and, within a check, in the
 // study's device order.
 func Check(s *Study, eng *faults.Engine, t *Topology) (*Result, error) {
-	c := &checker{s: s, eng: eng, topo: t, sol: newSolver(eng), atPoint: map[faults.Point][]int{}}
+	return CheckWith(s, eng, t, Options{})
+}
+
+// CheckWith is Check with options.
+func CheckWith(s *Study, eng *faults.Engine, t *Topology, o Options) (*Result, error) {
+	c := &checker{s: s, eng: eng, topo: t, sol: newSolver(eng), atPoint: map[faults.Point][]int{}, hook: o.Margins}
 	for i := range s.Devices {
 		c.timers = append(c.timers, NewTimer(&s.Devices[i]))
 		c.places = append(c.places, t.Places(t.Zones[i], s.Network, s.Faults))

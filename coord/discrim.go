@@ -268,9 +268,32 @@ func (t *tally) merge(o *tally) {
 
 // runPass judges every fault of the study on every CPU.
 func (x *netIndex) runPass(crit Criteria) (*tally, error) {
+	tallies, err := overNodes(x, x.newTally, func(ws *workspace, t *tally, i int, nd node) error {
+		for _, cs := range faults.Cases {
+			if err := x.judgeNode(ws, t, crit, i, nd, cs); err != nil {
+				return err
+			}
+		}
+		return nil
+	})
+	if err != nil {
+		return nil, err
+	}
+	total := x.newTally()
+	for _, t := range tallies {
+		total.merge(t)
+	}
+	return total, nil
+}
+
+// overNodes calls visit for every fault node of the study, on every CPU:
+// each worker has its own workspace and its own result (made by fresh),
+// and the results come back in worker order for the caller to merge. The
+// error of a node stops its worker; the first worker's error is returned.
+func overNodes[R any](x *netIndex, fresh func() R, visit func(ws *workspace, r R, i int, nd node) error) ([]R, error) {
 	nodes := x.nodes()
 	workers := runtime.GOMAXPROCS(0)
-	tallies := make([]*tally, workers)
+	results := make([]R, workers)
 	errs := make([]error, workers)
 	var next atomic.Int64
 	var wg sync.WaitGroup
@@ -279,18 +302,16 @@ func (x *netIndex) runPass(crit Criteria) (*tally, error) {
 		go func() {
 			defer wg.Done()
 			ws := x.newWorkspace()
-			t := x.newTally()
-			tallies[w] = t
+			r := fresh()
+			results[w] = r
 			for {
 				i := int(next.Add(1) - 1)
-				if i >= len(nodes) || errs[w] != nil {
+				if i >= len(nodes) {
 					return
 				}
-				for _, cs := range faults.Cases {
-					if err := x.judgeNode(ws, t, crit, i, nodes[i], cs); err != nil {
-						errs[w] = err
-						return
-					}
+				if err := visit(ws, r, i, nodes[i]); err != nil {
+					errs[w] = err
+					return
 				}
 			}
 		}()
@@ -301,11 +322,7 @@ func (x *netIndex) runPass(crit Criteria) (*tally, error) {
 			return nil, err
 		}
 	}
-	total := x.newTally()
-	for _, t := range tallies {
-		total.merge(t)
-	}
-	return total, nil
+	return results, nil
 }
 
 // judgeNode judges the faults of one node in one case.
@@ -332,19 +349,9 @@ func (x *netIndex) judgeNode(ws *workspace, t *tally, crit Criteria, ni int, nd 
 	}
 	clear(ws.swept)
 	for ei, ne := range nd.elems {
-		v := &view{p: p, buf: ws.search, el: ne.el, cs: cs}
-		if !ne.place.IsBus() && (ne.place.Frac == 0 || ne.place.Frac == 1) {
-			ci, err := eng.Solve(eng.CaseFault(ne.place, faults.LLL, cs))
-			if err != nil {
-				return err
-			}
-			ci = ci.Share(ws.sc)
-			v.hasOwn = true
-			v.own[faults.From] = ci.Response(faults.Point{Branch: ne.el.branch, End: faults.From})
-			v.own[faults.To] = ci.Response(faults.Point{Branch: ne.el.branch, End: faults.To})
-		}
-		for _, k := range faults.Kinds {
-			v.kinds[k] = sol.WithKind(k, eng.CaseFault(ne.place, k, cs).ZOhm)
+		v, err := x.elementView(ws, p, sol, ne, cs)
+		if err != nil {
+			return err
 		}
 		ws.forgetStates()
 		if cs == faults.Max {
@@ -376,6 +383,29 @@ func (x *netIndex) judgeNode(ws *workspace, t *tally, crit Criteria, ni int, nd 
 		}
 	}
 	return nil
+}
+
+// elementView is the view of the faults of one element of a node, whose
+// LLL fault of case cs is sol with responses in probe p: a close-in fault
+// at a branch end sees that branch's own ends from its side of the
+// breaker.
+func (x *netIndex) elementView(ws *workspace, p *probe, sol faults.Solution, ne nodeElem, cs faults.Case) (*view, error) {
+	eng := x.eng
+	v := &view{p: p, buf: ws.search, el: ne.el, cs: cs}
+	if !ne.place.IsBus() && (ne.place.Frac == 0 || ne.place.Frac == 1) {
+		ci, err := eng.Solve(eng.CaseFault(ne.place, faults.LLL, cs))
+		if err != nil {
+			return nil, err
+		}
+		ci = ci.Share(ws.sc)
+		v.hasOwn = true
+		v.own[faults.From] = ci.Response(faults.Point{Branch: ne.el.branch, End: faults.From})
+		v.own[faults.To] = ci.Response(faults.Point{Branch: ne.el.branch, End: faults.To})
+	}
+	for _, k := range faults.Kinds {
+		v.kinds[k] = sol.WithKind(k, eng.CaseFault(ne.place, k, cs).ZOhm)
+	}
+	return v, nil
 }
 
 // faultSize is the largest phase current into a fault.
@@ -446,9 +476,12 @@ func (x *netIndex) breaker(d int) float64 {
 // time as the downstream device is tDown (the same rules as grading).
 func (x *netIndex) required(crit Criteria, up, down int, tDown float64) float64 {
 	u, d := &x.s.Devices[up], &x.s.Devices[down]
+	pairS := x.pairMarginS(up, down)
 	switch {
 	case u.Kind == Fuse:
 		return 0 // judged as clearing ≤ FuseMeltRatio × melting: see marginOf
+	case pairS > 0:
+		return pairS
 	case d.Kind == Fuse:
 		return crit.MarginFuseS
 	case crit.Components != nil:
@@ -456,6 +489,19 @@ func (x *netIndex) required(crit Criteria, up, down int, tDown float64) float64 
 		return (2*d.Accuracy.ClassPct+k.CTErrorPct)/100*tDown + d.BreakerS + k.OvertravelS + k.SafetyS
 	}
 	return crit.MarginS
+}
+
+// pairMarginS is the margin the study sets for device up over device down,
+// as grading takes it: a [[pair]] entry's margin_s, else the upstream
+// relay's own margin_s; 0 when the criteria's applies.
+func (x *netIndex) pairMarginS(up, down int) float64 {
+	if s, ok := x.pairMargins[[2]int{up, down}]; ok {
+		return s
+	}
+	if u := &x.s.Devices[up]; u.Kind == Relay && u.MarginS > 0 {
+		return u.MarginS
+	}
+	return 0
 }
 
 // marginOf returns the margin of device up (operating at upS as the

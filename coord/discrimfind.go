@@ -11,6 +11,7 @@ import (
 func (c *checker) discrimination() ([]Finding, []string, error) {
 	x := newNetIndex(c.s, c.eng, c.topo.ratioKV)
 	x.topo = c.topo
+	x.hook = c.hook
 	t, err := x.runPass(c.s.Criteria)
 	if err != nil {
 		return nil, nil, err

@@ -25,6 +25,8 @@ type grader struct {
 	// marginS is the pair's own required margin (from a [[pair]] entry or
 	// the upstream relay's margin_s), 0 when the criteria's applies.
 	marginS float64
+	// up and down are the two devices' indices (for the margins hook).
+	up, down int
 }
 
 func (g grader) eval(s sample) gradeOutcome {
@@ -135,7 +137,7 @@ func curveName(t *Timer, melting bool) string {
 // family of those faults down to the smallest current the downstream
 // device sees (sweep.go).
 func (c *checker) grading(p Pair) (Finding, error) {
-	g := grader{c: c, u: c.timers[p.Upstream], d: c.timers[p.Downstream]}
+	g := grader{c: c, u: c.timers[p.Upstream], d: c.timers[p.Downstream], up: p.Upstream, down: p.Downstream}
 	var marginNote string
 	g.marginS, marginNote = c.pairMargin(p)
 	var worst *sample
@@ -162,6 +164,9 @@ func (c *checker) grading(p Pair) (Finding, error) {
 		}
 		if !o.ok {
 			return
+		}
+		if c.hook != nil {
+			g.emitGrading(s, o)
 		}
 		evaluated++
 		if worst == nil || o.margin-o.required < best.margin-best.required-tieTolerance {
@@ -275,7 +280,7 @@ func (c *checker) samples(places []faults.Place, u, d int, k faults.Kind, cs fau
 		if dp == 0 && dr == 0 {
 			continue
 		}
-		out = append(out, sample{dp: dp, dr: dr, up: up, ur: ur, dd: dd, ud: ud, kind: k, cs: cs, place: PlaceName(n, pl), scale: 1})
+		out = append(out, sample{dp: dp, dr: dr, up: up, ur: ur, dd: dd, ud: ud, kind: k, cs: cs, place: PlaceName(n, pl), at: pl, scale: 1})
 	}
 	return out, nil
 }

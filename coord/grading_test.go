@@ -125,5 +125,10 @@ func TestPairMargin(t *testing.T) {
 		if g.Required != c.want || g.Verdict != c.verdict {
 			t.Errorf("%s: %s with %g s required, want %s with %g s", c.name, g.Verdict, g.Required, c.verdict, c.want)
 		}
+		// The fault-by-fault check asks the same margin of R1 over R2.
+		d := findingOf(t, r, coord.Discrimination, "R1", "R2", "")
+		if d.Required != c.want || d.Verdict != c.verdict {
+			t.Errorf("%s: discrimination %s with %g s required, want %s with %g s", c.name, d.Verdict, d.Required, c.verdict, c.want)
+		}
 	}
 }

@@ -166,6 +166,8 @@ func (x *netIndex) judge(ws *workspace, t *tally, crit Criteria, v *view, devs [
 		}
 		if tt.get(m).undef {
 			rec.isoS, rec.undef, rec.undefSet = math.NaN(), m, true
+		} else if x.hook != nil && !math.IsInf(rec.isoS, 1) {
+			x.emitClearing(crit, m, &tt.get(m).seen, tt.get(m).trip, ne.place, key)
 		}
 		x.judgeOthers(ws, t, crit, v, tt, cl.must, m, ne, k, key)
 	} else {
@@ -291,6 +293,9 @@ func (x *netIndex) offerMargin(t *tally, crit Criteria, d, m int, sd, sm *Seen, 
 	// fault uncleared: the clearing check reports that, not a margin.
 	if math.IsInf(upS, 1) || math.IsInf(mTrip, 1) || mTrip > seqLimitS(crit) {
 		return
+	}
+	if x.hook != nil {
+		x.emitMargin(crit, d, m, sd, sm, upS, mTrip, scale, ne.place, key, false)
 	}
 	if key.sweep == 0 {
 		t.ops[d].count++

@@ -1,7 +1,6 @@
 package coord
 
 import (
-	"math"
 	"math/cmplx"
 
 	"tripgrade/faults"
@@ -31,21 +30,7 @@ func (c *checker) measure(i int, sol faults.Solution) (phaseA, groundA float64, 
 	if !t.directional {
 		return phaseA, groundA, d
 	}
-	pd, gd := t.Directions(&s)
-	d = Dirs{Known: true, Ground: gd}
-	for p, dir := range pd {
-		a := cmplx.Abs(s.I[p])
-		switch dir {
-		case Forward:
-			d.Fwd = math.Max(d.Fwd, a)
-		case Reverse:
-			d.Rev = math.Max(d.Rev, a)
-		}
-	}
-	if phaseA > 0 {
-		d.Fwd, d.Rev = d.Fwd/phaseA, d.Rev/phaseA
-	}
-	return phaseA, groundA, d
+	return phaseA, groundA, t.dirs(&s, phaseA)
 }
 
 // effective returns the phase and ground currents device i's stage groups

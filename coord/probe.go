@@ -39,6 +39,12 @@ type netIndex struct {
 	topo *Topology
 	// isl tells whether an opening cuts a fault off from every infeed.
 	isl *islands
+	// pairMargins are the [[pair]] entries' own margins by (upstream,
+	// downstream) device.
+	pairMargins map[[2]int]float64
+	// hook, when not nil, receives every margin judged (Options.Margins;
+	// margins.go).
+	hook func(*MarginSample)
 }
 
 // pickupLimits are a relay's lowest pickups (+Inf where it has no stage of
@@ -106,6 +112,18 @@ func newNetIndex(s *Study, eng *faults.Engine, ratio []float64) *netIndex {
 	}
 	x.tauPhase, x.tauGround = explorationThresholds(s, x.devBus, ratio)
 	x.isl = newIslands(n, x.adj)
+	byName := map[string]int{}
+	for i, d := range s.Devices {
+		byName[d.Name] = i
+	}
+	x.pairMargins = map[[2]int]float64{}
+	for _, r := range s.Pairs {
+		u, okU := byName[r.Upstream]
+		d, okD := byName[r.Downstream]
+		if _, seen := x.pairMargins[[2]int{u, d}]; okU && okD && !seen && !r.Exclude && r.MarginS > 0 {
+			x.pairMargins[[2]int{u, d}] = r.MarginS
+		}
+	}
 	return x
 }
 

@@ -190,6 +190,9 @@ func (x *netIndex) sequence(ws *workspace, t *tally, crit Criteria, v0 *view, tt
 				continue
 			}
 			st.open[d] = true
+			if x.hook != nil {
+				x.emitOpening(crit, d, &tt.get(d).seen, nextT, ne.place, key)
+			}
 			opening.Ends = append(opening.Ends, x.s.Devices[d].Point)
 			evs = append(evs, event{dev: d, atS: nextT, intactA: st.firstA[d], openA: x.governA(d, tt.get(d).seen)})
 			lastDev = nextT
@@ -272,13 +275,23 @@ func (st *seqState) isOpen(d int) bool { return st.stamp[d] == st.gen && st.open
 // stopped d from operating: d would have operated at projS, m tripped at
 // mTrip.
 func (x *netIndex) offerRelief(t *tally, crit Criteria, d, m int, projS, mTrip float64, tt *timeTable, ne nodeElem, key faultKey) {
+	x.offerSequenceOp(t, crit, d, m, projS, mTrip, false, tt, ne, key)
+}
+
+// offerSequenceOp records device d's operation at dS during a sequence
+// against must-clear device m's trip at mS (tripped: d trips before the
+// fault is isolated), with both devices' currents in the state tt.
+func (x *netIndex) offerSequenceOp(t *tally, crit Criteria, d, m int, dS, mS float64, tripped bool, tt *timeTable, ne nodeElem, key faultKey) {
 	t.ops[d].count++
-	margin, req := x.marginOf(crit, d, m, projS, mTrip)
+	if x.hook != nil {
+		x.emitMargin(crit, d, m, &tt.get(d).seen, &tt.get(m).seen, dS, mS, 1, ne.place, key, true)
+	}
+	margin, req := x.marginOf(crit, d, m, dS, mS)
 	if !t.ops[d].worse(margin-req, key) {
 		return
 	}
 	r := opRecord{slack: margin - req, margin: margin, required: req, key: key, place: ne.place, scale: 1,
-		relief: m, dS: projS, reliefS: mTrip}
+		relief: m, dS: dS, reliefS: mS, tripped: tripped}
 	sd := tt.get(d).seen
 	r.dA, r.dQty = x.timers[d].governingSeen(&sd)
 	r.forward = x.forward(d, &sd)
@@ -308,19 +321,7 @@ func (x *netIndex) unwanted(t *tally, crit Criteria, d int, tripS float64, tt *t
 	if m < 0 {
 		return
 	}
-	t.ops[d].count++
-	margin, req := x.marginOf(crit, d, m, tripS, mS)
-	if !t.ops[d].worse(margin-req, key) {
-		return
-	}
-	r := opRecord{slack: margin - req, margin: margin, required: req, key: key, place: ne.place, scale: 1,
-		relief: m, dS: tripS, reliefS: mS, tripped: true}
-	sd := tt.get(d).seen
-	r.dA, r.dQty = x.timers[d].governingSeen(&sd)
-	r.forward = x.forward(d, &sd)
-	sm := tt.get(m).seen
-	r.reliefA, r.reliefQty = x.timers[m].governingSeen(&sm)
-	t.ops[d].offer(r)
+	x.offerSequenceOp(t, crit, d, m, tripS, mS, true, tt, ne, key)
 }
 
 // sortEvents orders openings by time, then device.

@@ -45,6 +45,7 @@ type sample struct {
 	kind           faults.Kind
 	cs             faults.Case
 	place          string
+	at             faults.Place // the place place names
 	// scale is 1 for a solved fault and the factor applied to the solved
 	// fault's currents for a swept point.
 	scale float64

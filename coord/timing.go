@@ -146,9 +146,14 @@ func (t *Timer) relaySeen(s *Seen, b Band, which int) (float64, curves.Status) {
 	if !t.directional {
 		return t.groups(phaseA, residualA, Dirs{}, b, which)
 	}
-	var d Dirs
-	d.Known = true
+	return t.groups(phaseA, residualA, t.dirs(s, phaseA), b, which)
+}
+
+// dirs are the decisions of the relay's elements for what it sees, with
+// phaseA its largest phase current.
+func (t *Timer) dirs(s *Seen, phaseA float64) Dirs {
 	pd, gd := t.Directions(s)
+	d := Dirs{Known: true, Ground: gd}
 	for p, dir := range pd {
 		a := cmplx.Abs(s.I[p])
 		switch dir {
@@ -161,8 +166,7 @@ func (t *Timer) relaySeen(s *Seen, b Band, which int) (float64, curves.Status) {
 	if phaseA > 0 {
 		d.Fwd, d.Rev = d.Fwd/phaseA, d.Rev/phaseA
 	}
-	d.Ground = gd
-	return t.groups(phaseA, residualA, d, b, which)
+	return d
 }
 
 // Dirs say how a directional relay's elements decided for one fault, in a
@@ -197,36 +201,16 @@ func (t *Timer) groups(phaseA, groundA float64, d Dirs, b Band, which int) (floa
 	if d.Ground != NonDirectional {
 		ground[d.Ground] = groundA
 	}
-	best, status := math.Inf(1), curves.Undefined
-	anyNoTrip, any := false, false
+	var r race
 	for dir := range quantity {
-		for qi, q := range [2]struct {
-			c curves.Characteristic
-			a float64
-		}{{t.phaseDir[dir][b], quantity[dir]}, {t.groundDir[dir][b], ground[dir]}} {
-			if q.c == nil || which&(1<<qi) == 0 {
-				continue
-			}
-			any = true
-			x, st := q.c.Time(q.a)
-			switch st {
-			case curves.Operates:
-				if x < best {
-					best = x
-				}
-				status = curves.Operates
-			case curves.NoTrip:
-				anyNoTrip = true
-			}
+		if which&phaseStages != 0 {
+			r.add(t.phaseDir[dir][b], quantity[dir])
+		}
+		if which&groundStages != 0 {
+			r.add(t.groundDir[dir][b], ground[dir])
 		}
 	}
-	switch {
-	case status == curves.Operates:
-		return best, curves.Operates
-	case anyNoTrip || !any:
-		return math.Inf(1), curves.NoTrip
-	}
-	return math.NaN(), curves.Undefined
+	return r.result()
 }
 
 // OperateDir is Operate for a relay whose elements decided d: directional
@@ -311,31 +295,43 @@ func (t *Timer) Clearing(phaseA, residualA float64, b Band) (float64, curves.Sta
 // the earlier of those that operate; otherwise NoTrip if either says so;
 // otherwise Undefined.
 func fastest(ph curves.Characteristic, phaseA float64, gr curves.Characteristic, residualA float64) (float64, curves.Status) {
-	best, status := math.Inf(1), curves.Undefined
-	anyNoTrip, any := false, false
-	for _, q := range [2]struct {
-		c curves.Characteristic
-		a float64
-	}{{ph, phaseA}, {gr, residualA}} {
-		if q.c == nil {
-			continue
-		}
-		any = true
-		s, st := q.c.Time(q.a)
-		switch st {
-		case curves.Operates:
-			if s < best {
-				best = s
-			}
-			status = curves.Operates
-		case curves.NoTrip:
-			anyNoTrip = true
-		}
+	var r race
+	r.add(ph, phaseA)
+	r.add(gr, residualA)
+	return r.result()
+}
+
+// race gathers the answers of several characteristics as curves.Fastest
+// combines them: the earliest of those that operate; otherwise NoTrip if
+// one says so or none was asked; otherwise Undefined.
+type race struct {
+	best                    float64
+	operates, noTrip, asked bool
+}
+
+// add asks characteristic c (nil: none) at current a.
+func (r *race) add(c curves.Characteristic, a float64) {
+	if c == nil {
+		return
 	}
+	r.asked = true
+	x, st := c.Time(a)
+	switch st {
+	case curves.Operates:
+		if !r.operates || x < r.best {
+			r.best = x
+		}
+		r.operates = true
+	case curves.NoTrip:
+		r.noTrip = true
+	}
+}
+
+func (r *race) result() (float64, curves.Status) {
 	switch {
-	case status == curves.Operates:
-		return best, curves.Operates
-	case anyNoTrip || !any:
+	case r.operates:
+		return r.best, curves.Operates
+	case r.noTrip || !r.asked:
 		return math.Inf(1), curves.NoTrip
 	}
 	return math.NaN(), curves.Undefined

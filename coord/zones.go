@@ -1,10 +1,7 @@
 package coord
 
 import (
-	"runtime"
 	"sort"
-	"sync"
-	"sync/atomic"
 
 	"tripgrade/faults"
 )
@@ -198,35 +195,14 @@ func (r *relations) pair(u, d int, pl faults.Place) {
 // zonePass searches who must clear every maximum-case fault, and who
 // backs each of them up, on every CPU.
 func (x *netIndex) zonePass() (*relations, error) {
-	nodes := x.nodes()
-	workers := runtime.GOMAXPROCS(0)
-	rels := make([]*relations, workers)
-	errs := make([]error, workers)
-	var next atomic.Int64
-	var wg sync.WaitGroup
-	for w := range workers {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			ws := x.newWorkspace()
-			r := newRelations(len(x.s.Devices))
-			rels[w] = r
-			for {
-				i := int(next.Add(1) - 1)
-				if i >= len(nodes) || errs[w] != nil {
-					return
-				}
-				errs[w] = x.zoneNode(ws, r, nodes[i])
-			}
-		}()
+	nd := len(x.s.Devices)
+	rels, err := overNodes(x, func() *relations { return newRelations(nd) }, func(ws *workspace, r *relations, _ int, n node) error {
+		return x.zoneNode(ws, r, n)
+	})
+	if err != nil {
+		return nil, err
 	}
-	wg.Wait()
-	for _, err := range errs {
-		if err != nil {
-			return nil, err
-		}
-	}
-	total := newRelations(len(x.s.Devices))
+	total := newRelations(nd)
 	for _, r := range rels {
 		total.merge(r)
 	}
@@ -243,19 +219,9 @@ func (x *netIndex) zoneNode(ws *workspace, r *relations, nd node) error {
 	sol = sol.Use(ws.sc)
 	p := x.newProbe(&ws.intact, sol, nil)
 	for _, ne := range nd.elems {
-		v := &view{p: p, buf: ws.search, el: ne.el, cs: faults.Max}
-		if !ne.place.IsBus() && (ne.place.Frac == 0 || ne.place.Frac == 1) {
-			ci, err := eng.Solve(eng.CaseFault(ne.place, faults.LLL, faults.Max))
-			if err != nil {
-				return err
-			}
-			ci = ci.Share(ws.sc)
-			v.hasOwn = true
-			v.own[faults.From] = ci.Response(faults.Point{Branch: ne.el.branch, End: faults.From})
-			v.own[faults.To] = ci.Response(faults.Point{Branch: ne.el.branch, End: faults.To})
-		}
-		for _, k := range faults.Kinds {
-			v.kinds[k] = sol.WithKind(k, eng.CaseFault(ne.place, k, faults.Max).ZOhm)
+		v, err := x.elementView(ws, p, sol, ne, faults.Max)
+		if err != nil {
+			return err
 		}
 		big := faultSize(v.kinds[faults.LLL])
 		for _, k := range []faults.Kind{faults.LLL, faults.LG} {

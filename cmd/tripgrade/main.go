@@ -38,6 +38,7 @@ func commands() map[string]command {
 		"diff":      {"setting changes between two studies and what they do to every finding", runDiff},
 		"faults":    {"fault currents at every device and bus of a study", runFaults},
 		"plot":      {"time-current charts of the coordination paths through one device", runPlot},
+		"propose":   {"the least time multipliers that meet every margin, verified by the check", runPropose},
 		"testsheet": {"secondary injection currents and expected times of every relay stage", runTestSheet},
 	}
 }

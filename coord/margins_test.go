@@ -1,0 +1,90 @@
+package coord_test
+
+import (
+	"math"
+	"sync"
+	"testing"
+
+	"tripgrade/coord"
+	"tripgrade/coord/study"
+	"tripgrade/curves"
+)
+
+// TestMarginRuleMatchesChecks holds the margins hook (Options.Margins) to
+// the checks that hand the margins out: for every margin of the Fenwick
+// Quay example (relays over relays and over a fuse) and of Kestrel Park
+// (directional stages, neutral CTs, opening sequences), the linear rule
+// Alpha·tUp − Beta·tDown − Gamma gives the checker's own margin minus the
+// margin it required, and, at a single fault, the fastest of each
+// relay's stages, each timed at StageCurrentA, gives the checker's time.
+func TestMarginRuleMatchesChecks(t *testing.T) {
+	for _, path := range []string{"../examples/fenwick-quay.toml", "../examples/kestrel-park.toml"} {
+		s, err := study.Load(path)
+		if err != nil {
+			t.Fatal(err)
+		}
+		eng, topo, err := coord.Prepare(s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		timers := make([]*coord.Timer, len(s.Devices))
+		for i := range s.Devices {
+			timers[i] = coord.NewTimer(&s.Devices[i])
+		}
+		var mu sync.Mutex
+		seen := map[coord.CheckKind]int{}
+		var bad []string
+		hook := func(ms *coord.MarginSample) {
+			mu.Lock()
+			defer mu.Unlock()
+			seen[ms.Check]++
+			if ms.Check == coord.Clearing {
+				// tDown + breaker ≤ maximum: −tDown ≥ breaker − maximum.
+				if d := -ms.Beta*ms.DownS0 - ms.Gamma - (ms.RequiredS - ms.MarginS); math.Abs(d) > 1e-9 && len(bad) < 5 {
+					bad = append(bad, "clearing rule")
+				}
+				return
+			}
+			if d := ms.Alpha*ms.UpS0 - ms.Beta*ms.DownS0 - ms.Gamma - (ms.MarginS - ms.RequiredS); math.Abs(d) > 1e-9 {
+				if len(bad) < 5 {
+					bad = append(bad, ms.Check.String()+" rule: "+s.Devices[ms.Up].Name+" over "+s.Devices[ms.Down].Name)
+				}
+			}
+			if ms.Sequence || ms.UpBand != coord.Nominal {
+				return
+			}
+			for _, side := range []struct {
+				dev int
+				at  coord.Operating
+				t   float64
+				up  bool
+			}{{ms.Up, ms.UpAt, ms.UpS0, true}, {ms.Down, ms.DownAt, ms.DownS0, false}} {
+				d := &s.Devices[side.dev]
+				if d.Kind != coord.Relay {
+					continue
+				}
+				best := math.Inf(1)
+				for i, st := range d.Stages {
+					if x, status := st.Curve.Time(timers[side.dev].StageCurrentA(i, side.at)); status == curves.Operates && x < best {
+						best = x
+					}
+				}
+				if math.Abs(best-side.t) > 1e-9*math.Max(1, side.t) && len(bad) < 5 {
+					bad = append(bad, ms.Check.String()+" stage times of "+d.Name)
+				}
+			}
+		}
+		if _, err := coord.CheckWith(s, eng, topo, coord.Options{Margins: hook}); err != nil {
+			t.Fatal(err)
+		}
+		for _, b := range bad {
+			t.Errorf("%s: %s disagrees with the checker", path, b)
+		}
+		for _, k := range []coord.CheckKind{coord.Grading, coord.Discrimination, coord.Clearing} {
+			if seen[k] == 0 {
+				t.Errorf("%s: no %s margin handed out", path, k)
+			}
+		}
+		t.Logf("%s: %v", path, seen)
+	}
+}

@@ -1,0 +1,44 @@
+package propose
+
+import (
+	"bytes"
+	"fmt"
+	"testing"
+
+	"tripgrade/coord"
+	"tripgrade/coord/study"
+	"tripgrade/coord/study/gen"
+)
+
+// BenchmarkPropose runs the whole search on a generated meshed study
+// (coord/study/gen: 33 kV rings, 33/11 kV primaries, 11 kV loops, a relay
+// with an inverse phase stage and a definite-time ground stage at every
+// line end), the study prepared once:
+// go test -run X -bench Propose -benchtime 1x ./coord/propose/
+func BenchmarkPropose(b *testing.B) {
+	for _, n := range []int{1000} {
+		b.Run(fmt.Sprintf("buses=%d", n), func(b *testing.B) {
+			var src bytes.Buffer
+			if err := gen.Write(&src, gen.Options{Buses: n, Seed: 1}); err != nil {
+				b.Fatal(err)
+			}
+			s, err := study.Parse("gen.toml", src.Bytes(), nil)
+			if err != nil {
+				b.Fatal(err)
+			}
+			eng, topo, err := coord.Prepare(s)
+			if err != nil {
+				b.Fatal(err)
+			}
+			b.ResetTimer()
+			for b.Loop() {
+				pr, err := Propose(s, eng, topo, Settings{})
+				if err != nil {
+					b.Fatal(err)
+				}
+				b.ReportMetric(float64(pr.Rounds), "rounds")
+				b.ReportMetric(float64(pr.Constraints), "constraints")
+			}
+		})
+	}
+}

@@ -1,0 +1,190 @@
+package propose
+
+import (
+	"math"
+	"sync"
+
+	"tripgrade/coord"
+	"tripgrade/faults"
+)
+
+// Source is the margin a constraint comes from: which check judged it,
+// the two devices, the upstream stage, and the fault.
+type Source struct {
+	Check    coord.CheckKind
+	Up, Down int // device indices (Up −1 for a clearing bound)
+	UpStage  int // the upstream stage the constraint holds (−1: the device as a whole)
+	Kind     faults.Kind
+	Case     faults.Case
+	Place    faults.Place
+	Scale    float64
+	Sequence bool
+	// RequiredS is the margin required (the maximum clearing time for a
+	// clearing bound); MarginS the margin the checker found where the
+	// constraint was linearised.
+	RequiredS, MarginS float64
+}
+
+// line is x_U ≥ K·x_D + B between two variables.
+type line struct {
+	k, b float64
+	src  *Source
+}
+
+// bound is a fixed lower or upper bound of one variable.
+type bound struct {
+	v   float64
+	src *Source
+}
+
+// collector gathers the constraints of every margin the checker hands
+// out, keeping only those that can bind: between two variables the
+// upper envelope of the lines over the lower variable's range, per
+// variable the highest lower bound and the lowest upper bound, and per
+// pair of devices the worst margin that no multiplier changes.
+type collector struct {
+	lin  *linearizer
+	vars []Variable
+	mu   sync.Mutex
+	// lines, per (upper variable, lower variable).
+	lines map[[2]int][]line
+	lower []bound              // x ≥ lower (max), src nil when none
+	upper []map[upperKey]bound // x ≤ upper, the lowest of each source
+	// fixed holds, per (check, up, down), the worst constraint 0 ≥ C with
+	// C > 0 between fixed times: a margin no multiplier can change.
+	fixed map[fixedKey]fixedMiss
+	n     int // margins seen
+}
+
+// upperKey is the source of an upper bound: a check and an upstream
+// device's stage (−1 for a clearing bound).
+type upperKey struct {
+	check       coord.CheckKind
+	up, upStage int
+}
+
+type fixedKey struct {
+	check    coord.CheckKind
+	up, down int
+}
+
+type fixedMiss struct {
+	shortS float64 // how much the margin falls short
+	src    *Source
+}
+
+func newCollector(lin *linearizer, vars []Variable) *collector {
+	c := &collector{lin: lin, vars: vars, lines: map[[2]int][]line{}, fixed: map[fixedKey]fixedMiss{},
+		lower: make([]bound, len(vars)), upper: make([]map[upperKey]bound, len(vars))}
+	for i := range vars {
+		c.lower[i] = bound{v: math.Inf(-1)}
+	}
+	return c
+}
+
+// margin receives one margin from the checker (coord.Options.Margins).
+func (c *collector) margin(ms *coord.MarginSample) {
+	var buf [16]constraint
+	cons := buf[:0]
+	c.lin.constraints(ms, func(k constraint) { cons = append(cons, k) })
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	c.n++
+	for _, k := range cons {
+		c.add(k, ms)
+	}
+}
+
+// source describes the margin a kept constraint comes from.
+func source(ms *coord.MarginSample, upStage int) *Source {
+	return &Source{Check: ms.Check, Up: ms.Up, Down: ms.Down, UpStage: upStage, Kind: ms.Kind, Case: ms.Case, Place: ms.Place,
+		Scale: ms.Scale, Sequence: ms.Sequence, RequiredS: ms.RequiredS, MarginS: ms.MarginS}
+}
+
+// feasTol is the slack below which a constraint counts as met: the
+// checker's figures are compared at the nanosecond.
+const feasTol = 1e-9
+
+// add files one constraint A·x_U − B·x_D ≥ C of margin ms.
+func (c *collector) add(k constraint, ms *coord.MarginSample) {
+	hasU, hasD := k.u >= 0 && k.a > 0, k.d >= 0 && k.b > 0
+	switch {
+	case hasU && hasD:
+		c.addLine(k.u, k.d, line{k: k.b / k.a, b: k.c / k.a}, func() *Source { return source(ms, k.upStage) })
+	case hasU:
+		if v := k.c / k.a; v > c.lower[k.u].v {
+			c.lower[k.u] = bound{v, source(ms, k.upStage)}
+		}
+	case hasD:
+		// Bounds below the range cannot be met: the lowest of them is kept
+		// apart, for the conflict, so that it does not hide the lowest
+		// bound the range can meet.
+		// Every source's lowest bound is kept: which of them the range
+		// (and the lower bounds) can meet is known only when all are in.
+		v, key := -k.c/k.b, upperKey{ms.Check, ms.Up, k.upStage}
+		if old, ok := c.upper[k.d][key]; !ok || v < old.v {
+			if c.upper[k.d] == nil {
+				c.upper[k.d] = map[upperKey]bound{}
+			}
+			c.upper[k.d][key] = bound{v, source(ms, k.upStage)}
+		}
+	case k.c > feasTol:
+		key := fixedKey{ms.Check, ms.Up, ms.Down}
+		if m, ok := c.fixed[key]; !ok || k.c > m.shortS {
+			c.fixed[key] = fixedMiss{k.c, source(ms, k.upStage)}
+		}
+	}
+}
+
+// addLine keeps x_u ≥ l.k·x_d + l.b unless another line is at least as
+// high at both ends of x_d's range, and drops the lines it lies above.
+func (c *collector) addLine(u, d int, l line, src func() *Source) {
+	key := [2]int{u, d}
+	lo, hi := c.vars[d].Range.Min, c.vars[d].Range.Max
+	at := func(m line, x float64) float64 { return m.k*x + m.b }
+	ls := c.lines[key]
+	for _, m := range ls {
+		if at(m, lo) >= at(l, lo) && at(m, hi) >= at(l, hi) {
+			return
+		}
+	}
+	kept := ls[:0]
+	for _, m := range ls {
+		if !(at(l, lo) >= at(m, lo) && at(l, hi) >= at(m, hi)) {
+			kept = append(kept, m)
+		}
+	}
+	if l.src == nil {
+		l.src = src()
+	}
+	c.lines[key] = append(kept, l)
+}
+
+// merge adds another collector's constraints (a later round's
+// linearisation) to this one.
+func (c *collector) merge(o *collector) {
+	for key, ls := range o.lines {
+		for _, l := range ls {
+			c.addLine(key[0], key[1], l, nil)
+		}
+	}
+	for i := range o.lower {
+		if o.lower[i].v > c.lower[i].v {
+			c.lower[i] = o.lower[i]
+		}
+		for key, b := range o.upper[i] {
+			if old, ok := c.upper[i][key]; !ok || b.v < old.v {
+				if c.upper[i] == nil {
+					c.upper[i] = map[upperKey]bound{}
+				}
+				c.upper[i][key] = b
+			}
+		}
+	}
+	for key, m := range o.fixed {
+		if old, ok := c.fixed[key]; !ok || m.shortS > old.shortS {
+			c.fixed[key] = m
+		}
+	}
+	c.n += o.n
+}

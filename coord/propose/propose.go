@@ -1,0 +1,254 @@
+package propose
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"tripgrade/coord"
+	"tripgrade/faults"
+)
+
+// Proposal is the outcome of a search: the proposed multipliers, what
+// binds each, the conflicts, and the checker's findings before and after.
+type Proposal struct {
+	Study *coord.Study // the study as given
+	// Proposed is the study with the proposed settings.
+	Proposed *coord.Study
+	Vars     []Variable
+	// X are the proposed multipliers (on their steps), Continuous the
+	// least multipliers before rounding, per variable.
+	X, Continuous []float64
+	// Binding is, per variable, the margin that holds it where it is
+	// (nil Src: the bottom of its range), and the multiplier it asks for.
+	Binding []Binding
+	// Conflicts are the margins no multipliers within their ranges meet.
+	Conflicts []Conflict
+	// Before and After are the checker's findings on the study and on the
+	// proposal.
+	Before, After *coord.Result
+	// Unchanged are findings that fail before and after with the same
+	// figure: no multiplier moves them (a pickup, a missing device).
+	Unchanged []coord.Finding
+	// Conflicting are failing findings the conflicts account for.
+	Conflicting []coord.Finding
+	// Unresolved are findings the checker fails on the proposal that no
+	// conflict accounts for and that the multipliers changed: the search
+	// did not converge on them. A proposal with any is not verified.
+	Unresolved []coord.Finding
+	// Rounds is the number of solve-and-verify rounds run.
+	Rounds int
+	// Margins counts the margins linearised in the first round;
+	// Constraints the constraints kept after removing dominated ones
+	// (between two multipliers, and bounds); Groups the groups of linked
+	// multipliers and LPGroups those the simplex solved.
+	Margins, Constraints, Groups, LPGroups int
+}
+
+// Binding is what holds one multiplier.
+type Binding struct {
+	Src   *Source // nil: the bottom of the range (or a fixed lower bound's Source in LowSrc)
+	NeedX float64 // the multiplier it asks for, before rounding
+}
+
+// Verified reports whether the checker passes every margin the proposal
+// could change, but for the conflicts it names.
+func (p *Proposal) Verified() bool { return len(p.Unresolved) == 0 }
+
+// timedChecks are the checks whose findings the multipliers move.
+var timedChecks = map[coord.CheckKind]bool{coord.Grading: true, coord.Discrimination: true, coord.Clearing: true,
+	coord.Inrush: true, coord.Damage: true, coord.SettingsAudit: true}
+
+// Propose searches for the least multipliers of the study's inverse-time
+// stages that meet every margin the checker judges, rounds them up to
+// their steps, and verifies them with the checker, linearising again at
+// the new settings until the checker agrees or the rounds run out.
+func Propose(s *coord.Study, eng *faults.Engine, topo *coord.Topology, o Settings) (*Proposal, error) {
+	vars, index, err := variables(s, o)
+	if err != nil {
+		return nil, err
+	}
+	pr := &Proposal{Study: s, Vars: vars}
+	col := newCollector(newLinearizer(s, index, multipliers(s, vars)), vars)
+	pr.Before, err = coord.CheckWith(s, eng, topo, coord.Options{Margins: col.margin})
+	if err != nil {
+		return nil, err
+	}
+	pr.Margins = col.n
+	for round := 1; round <= o.rounds(); round++ {
+		pr.Rounds = round
+		p := build(col)
+		xc, lpGroups, err := p.solve()
+		if err != nil {
+			return nil, err
+		}
+		xr, err := p.rounded(xc)
+		if err != nil {
+			return nil, err
+		}
+		pr.Continuous, pr.X, pr.Conflicts = xc, xr, p.conflicts
+		pr.Constraints, pr.Groups, pr.LPGroups = p.size(), len(p.components()), lpGroups
+		pr.binding(p)
+		pr.Proposed = Apply(s, vars, xr)
+		t2, err := coord.NewTopology(pr.Proposed, eng)
+		if err != nil {
+			return nil, err
+		}
+		next := newCollector(newLinearizer(pr.Proposed, index, xr), vars)
+		pr.After, err = coord.CheckWith(pr.Proposed, eng, t2, coord.Options{Margins: next.margin})
+		if err != nil {
+			return nil, err
+		}
+		last := len(pr.Unresolved)
+		pr.sortOut()
+		if pr.Verified() || round > 1 && len(pr.Unresolved) >= last {
+			break
+		}
+		col.merge(next)
+	}
+	return pr, nil
+}
+
+// size counts the constraints of a problem: the edges and the bounds.
+func (p *problem) size() int {
+	n := len(p.edges)
+	for i := range p.lo {
+		if p.loSrc[i] != nil {
+			n++
+		}
+		if p.hiSrc[i] != nil {
+			n++
+		}
+	}
+	return n
+}
+
+// binding records what holds each proposed multiplier.
+func (pr *Proposal) binding(p *problem) {
+	edges, need := p.binding(pr.X)
+	pr.Binding = make([]Binding, len(pr.X))
+	for i := range pr.X {
+		b := Binding{NeedX: need[i], Src: p.loSrc[i]}
+		if edges[i] >= 0 {
+			b.Src = p.edges[edges[i]].src
+		}
+		pr.Binding[i] = b
+	}
+}
+
+// findingKey matches findings of two runs.
+type findingKey struct {
+	check                coord.CheckKind
+	device, other, stage string
+}
+
+func keyOf(f coord.Finding) findingKey { return findingKey{f.Check, f.Device, f.Other, f.Stage} }
+
+// sortOut sorts the proposal's failing findings into those a conflict
+// accounts for, those no multiplier moves, and the unresolved.
+func (pr *Proposal) sortOut() {
+	before := map[findingKey][]coord.Finding{}
+	for _, f := range pr.Before.Findings {
+		k := keyOf(f)
+		before[k] = append(before[k], f)
+	}
+	pr.Unchanged, pr.Unresolved, pr.Conflicting = nil, nil, nil
+	in := pr.conflictIndex()
+	for _, f := range pr.After.Findings {
+		if f.Verdict != coord.Fail || !timedChecks[f.Check] {
+			continue
+		}
+		if pr.explains(f, in) {
+			pr.Conflicting = append(pr.Conflicting, f)
+			continue
+		}
+		if sameFailure(before[keyOf(f)], f) || f.Check == coord.SettingsAudit && !strings.Contains(f.Note, "multiplier") {
+			// A settings audit failure that names no multiplier is its
+			// pickup's: the proposed multipliers lie on their steps.
+			pr.Unchanged = append(pr.Unchanged, f)
+			continue
+		}
+		pr.Unresolved = append(pr.Unresolved, f)
+	}
+}
+
+// sameFailure reports whether one of the earlier findings failed with
+// the same figure.
+func sameFailure(fs []coord.Finding, f coord.Finding) bool {
+	for _, b := range fs {
+		if b.Verdict == coord.Fail && b.Valid == f.Valid && b.Note == f.Note &&
+			(!f.Valid || math.Abs(b.Margin-f.Margin) <= 1e-9*math.Max(1, math.Abs(f.Margin))) {
+			return true
+		}
+	}
+	return false
+}
+
+// explains reports whether a conflict accounts for a failing finding:
+// one of its margins is between the finding's two devices (for a
+// clearing finding, names its device).
+func (pr *Proposal) explains(f coord.Finding, in conflictIndex) bool {
+	switch f.Check {
+	case coord.Grading, coord.Discrimination:
+		return in.pairs[[2]string{f.Device, f.Other}] || in.pairs[[2]string{f.Other, f.Device}]
+	case coord.Clearing:
+		for _, n := range strings.Split(f.Other, ", ") {
+			if in.clearing[n] {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// conflictIndex holds the device pairs (by name) of every margin in a
+// conflict, and the devices of conflicting clearing times.
+type conflictIndex struct {
+	pairs    map[[2]string]bool
+	clearing map[string]bool
+}
+
+func (pr *Proposal) conflictIndex() conflictIndex {
+	in := conflictIndex{pairs: map[[2]string]bool{}, clearing: map[string]bool{}}
+	for _, c := range pr.Conflicts {
+		if c.Var >= 0 && !c.Below && !c.Rounding {
+			// A multiplier held at the top of its range by a margin it
+			// cannot meet: the clearing times of its device follow.
+			in.clearing[pr.Study.Devices[pr.Vars[c.Var].Device].Name] = true
+		}
+		for _, src := range c.Chain {
+			switch {
+			case src == nil:
+			case src.Up < 0:
+				in.clearing[pr.Study.Devices[src.Down].Name] = true
+			default:
+				in.pairs[[2]string{pr.Study.Devices[src.Up].Name, pr.Study.Devices[src.Down].Name}] = true
+			}
+		}
+	}
+	return in
+}
+
+// Describe names the fault and margin of a source for a reader:
+// "grading FM over MA-R, LL min @ MA-2: 0.300 s required".
+func Describe(s *coord.Study, src *Source) string {
+	if src == nil {
+		return "bottom of the range"
+	}
+	fault := fmt.Sprintf("%s %s @ %s", src.Kind, src.Case, coord.PlaceName(s.Network, src.Place))
+	if src.Scale != 1 && src.Scale > 0 {
+		fault += fmt.Sprintf(" (sweep, %.0f %%)", src.Scale*100)
+	}
+	if src.Sequence {
+		fault += " (in its opening sequence)"
+	}
+	down := s.Devices[src.Down].Name
+	if src.Up < 0 {
+		return fmt.Sprintf("clearing by %s within %.3g s, %s", down, src.RequiredS, fault)
+	}
+	up := s.Devices[src.Up].Name
+	if src.UpStage >= 0 {
+		up += " " + s.Devices[src.Up].Stages[src.UpStage].Label
+	}
+	return fmt.Sprintf("%s: %s over %s by %.3f s, %s", src.Check, up, down, src.RequiredS, fault)
+}
