@@ -3,6 +3,7 @@ package coord
 import (
 	"fmt"
 	"math"
+	"strings"
 )
 
 // Worst gathers the results of a study's scenarios, one at a time, and
@@ -22,8 +23,60 @@ type Worst struct {
 	pairs    map[[2]string]bool
 	extra    []ScenarioPair
 	notes    map[string]bool
-	added    []string
+	added    []*addedNote
+	shapes   map[string]*addedNote
 }
+
+// addedNote is a note that scenarios add to those of the first result:
+// notes that differ only in their figures (the N-1 sweep gives one per
+// outage, with its own count of faults) are told once, with the number of
+// scenarios that give one and the first few names, so the list does not
+// grow with the number of scenarios.
+type addedNote struct {
+	text  string   // as the first scenario gives it
+	names []string // the first few scenarios that give one
+	n     int      // how many do
+}
+
+// namedScenarios is how many scenarios a grouped note names.
+const namedScenarios = 3
+
+// String tells the note with the scenarios that give it.
+func (a *addedNote) String() string {
+	if a.n == 1 {
+		return fmt.Sprintf("%s: %s", a.names[0], a.text)
+	}
+	more := ""
+	if a.n > len(a.names) {
+		more = fmt.Sprintf(" and %d more", a.n-len(a.names))
+	}
+	return fmt.Sprintf("%d scenarios (%s%s): %s (the figures are %s's; the others differ)", a.n, strings.Join(a.names, ", "), more, a.text, a.names[0])
+}
+
+// noteShape is a note's text with its figures (numbers standing as words
+// of their own, not digits inside names such as "L-1") blanked, so that
+// notes differing only in counts group together.
+func noteShape(n string) string {
+	b := []byte(n)
+	var out []byte
+	for i := 0; i < len(b); i++ {
+		if isDigit(b[i]) && (i == 0 || b[i-1] == ' ' || b[i-1] == '(') {
+			j := i
+			for j < len(b) && (isDigit(b[j]) || b[j] == '.') {
+				j++
+			}
+			if j == len(b) || b[j] == ' ' || b[j] == ',' || b[j] == ')' || b[j] == '%' {
+				out = append(out, '#')
+				i = j - 1
+				continue
+			}
+		}
+		out = append(out, b[i])
+	}
+	return string(out)
+}
+
+func isDigit(c byte) bool { return c >= '0' && c <= '9' }
 
 // ScenarioPair is a backup pair by name that a scenario has and the first
 // result added does not, with the first scenario it was found in.
@@ -35,7 +88,7 @@ type ScenarioPair struct {
 
 // NewWorst returns an empty gathering.
 func NewWorst() *Worst {
-	return &Worst{index: map[string]int{}, pairs: map[[2]string]bool{}, notes: map[string]bool{}}
+	return &Worst{index: map[string]int{}, pairs: map[[2]string]bool{}, notes: map[string]bool{}, shapes: map[string]*addedNote{}}
 }
 
 // Add takes the result r of study s (in one scenario, its findings
@@ -59,10 +112,25 @@ func (w *Worst) Add(s *Study, r *Result) []int {
 				w.extra = append(w.extra, ScenarioPair{Upstream: k[0], Downstream: k[1], Manual: p.Manual, Scenario: scenarioOf(r)})
 			}
 		}
+		seen := map[string]int{}
 		for _, n := range r.Notes {
-			if !w.notes[n] {
-				w.notes[n] = true
-				w.added = append(w.added, fmt.Sprintf("%s: %s", scenarioOf(r), n))
+			if w.notes[n] {
+				continue
+			}
+			// The k-th note of a shape in one scenario groups with the
+			// k-th of that shape in the others.
+			sh := noteShape(n)
+			seen[sh]++
+			sh = fmt.Sprintf("%s#%d", sh, seen[sh])
+			a := w.shapes[sh]
+			if a == nil {
+				a = &addedNote{text: n}
+				w.shapes[sh] = a
+				w.added = append(w.added, a)
+			}
+			a.n++
+			if len(a.names) < namedScenarios {
+				a.names = append(a.names, scenarioOf(r))
 			}
 		}
 	}
@@ -105,7 +173,10 @@ func (w *Worst) Result() *Result {
 	r := &Result{Findings: append([]Finding(nil), w.findings...)}
 	if w.first != nil {
 		r.Pairs, r.Excluded = w.first.Pairs, w.first.Excluded
-		r.Notes = append(append([]string(nil), w.first.Notes...), w.added...)
+		r.Notes = append([]string(nil), w.first.Notes...)
+		for _, a := range w.added {
+			r.Notes = append(r.Notes, a.String())
+		}
 	}
 	return r
 }
