@@ -111,7 +111,7 @@ func checkLoaded(l loaded, o *checkOptions, stdout, stderr io.Writer) int {
 		run.abort()
 		return exitUsage
 	}
-	res := run.worst.Result()
+	res := run.result()
 	tab, err := run.table(res)
 	if err != nil {
 		run.abort()

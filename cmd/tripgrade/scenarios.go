@@ -36,6 +36,10 @@ type scenarioRun struct {
 	charts  map[string]*scenarioChart
 	draw    bool          // charts are wanted (--out or --report)
 	res     *coord.Result // the worst findings, once every scenario is checked
+	// only is the result of a study without scenarios: it is its own
+	// worst, and is not copied into worst (a table of 10,000 buses holds
+	// some 270,000 findings).
+	only *coord.Result
 }
 
 // scenarioChart is a failing pair's chart drawn in the scenario where it
@@ -147,7 +151,12 @@ func (r *scenarioRun) visit(c coord.Checked) error {
 			}
 		}
 	}
-	changed := r.worst.Add(c.Study, res)
+	var changed []int
+	if len(r.l.study.Scenarios) == 0 {
+		r.only = res
+	} else {
+		changed = r.worst.Add(c.Study, res)
+	}
 	if len(r.streams) > 0 {
 		if err := r.writeScenario(c); err != nil {
 			return err
@@ -255,6 +264,15 @@ func (r *scenarioRun) pairCharts(res *coord.Result) []*scenarioChart {
 	}
 	sort.Slice(out, func(i, j int) bool { return out[i].name < out[j].name })
 	return out
+}
+
+// result returns the worst findings over every scenario checked.
+func (r *scenarioRun) result() *coord.Result {
+	if r.only != nil {
+		cp := *r.only
+		return &cp
+	}
+	return r.worst.Result()
 }
 
 // abort drops the stream files.
