@@ -239,6 +239,9 @@ func (f *Findings) Verdict() string {
 
 // groups returns the rows of each check in report order.
 func (f *Findings) groups() [][]Row {
+	if out, ok := f.runs(); ok {
+		return out
+	}
 	var out [][]Row
 	for _, c := range coord.CheckKinds {
 		var g []Row
@@ -252,6 +255,35 @@ func (f *Findings) groups() [][]Row {
 		}
 	}
 	return out
+}
+
+// runs returns the groups as parts of f.Rows, without copying them, when
+// the rows already come check by check in the order of coord.CheckKinds
+// (as a check's result gives them).
+func (f *Findings) runs() ([][]Row, bool) {
+	rank := map[coord.CheckKind]int{}
+	for i, c := range coord.CheckKinds {
+		rank[c] = i
+	}
+	var out [][]Row
+	start := 0
+	for i := 1; i <= len(f.Rows); i++ {
+		if i < len(f.Rows) && f.Rows[i].Finding.Check == f.Rows[start].Finding.Check {
+			continue
+		}
+		if i < len(f.Rows) {
+			a, oka := rank[f.Rows[start].Finding.Check]
+			b, okb := rank[f.Rows[i].Finding.Check]
+			if !oka || !okb || a >= b {
+				return nil, false
+			}
+		} else if _, ok := rank[f.Rows[start].Finding.Check]; !ok {
+			return nil, false
+		}
+		out = append(out, f.Rows[start:i:i])
+		start = i
+	}
+	return out, true
 }
 
 // withHeading names the "other" column for a check.
