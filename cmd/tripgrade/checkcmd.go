@@ -102,7 +102,10 @@ func checkLoaded(l loaded, o *checkOptions, stdout, stderr io.Writer) int {
 	if err != nil {
 		return fprintErr(stderr, err)
 	}
-	if err := coord.CheckScenarios(l.study, l.engine, l.topo, pick, run.visit); err != nil {
+	run.showProgress(stderr, pick)
+	err = coord.CheckScenarios(l.study, l.engine, l.topo, pick, run.visit)
+	run.endProgress()
+	if err != nil {
 		run.abort()
 		scenarioFailure(l, err, stderr)
 		return exitUsage

@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"os"
 	"sort"
 	"strings"
 
@@ -40,6 +41,10 @@ type scenarioRun struct {
 	// worst, and is not copied into worst (a table of 10,000 buses holds
 	// some 270,000 findings).
 	only *coord.Result
+	// progress, when stderr is a terminal, counts the scenarios checked
+	// on one line that each count overwrites.
+	progress    io.Writer
+	done, total int
 }
 
 // scenarioChart is a failing pair's chart drawn in the scenario where it
@@ -129,8 +134,29 @@ func newScenarioRun(l loaded, o *checkOptions, stdout io.Writer, out *outFolder)
 	return r, nil
 }
 
+// showProgress counts the scenarios checked on w when w is a terminal
+// (a run of hundreds of N-1 outages takes minutes); pipelines and files
+// get nothing.
+func (r *scenarioRun) showProgress(w io.Writer, pick func(string) bool) {
+	r.total = 0
+	for _, name := range append([]string{coord.AsDrawn}, scenarioNames(r.l.study)...) {
+		if pick == nil || pick(name) {
+			r.total++
+		}
+	}
+	if f, ok := w.(*os.File); ok && r.total > 1 {
+		if fi, err := f.Stat(); err == nil && fi.Mode()&os.ModeCharDevice != 0 {
+			r.progress = w
+		}
+	}
+}
+
 // visit takes one scenario's check.
 func (r *scenarioRun) visit(c coord.Checked) error {
+	if r.progress != nil {
+		r.done++
+		fmt.Fprintf(r.progress, "\rchecked %d of %d configurations (%s)\x1b[K", r.done, r.total, c.Scenario)
+	}
 	res := c.Result
 	r.acc.Apply(res)
 	if r.first == nil {
@@ -281,6 +307,22 @@ func (r *scenarioRun) abort() {
 		f.abort()
 	}
 	r.files = nil
+}
+
+// scenarioNames lists the names of a study's scenarios.
+func scenarioNames(s *coord.Study) []string {
+	var out []string
+	for _, sc := range s.Scenarios {
+		out = append(out, sc.Name)
+	}
+	return out
+}
+
+// endProgress clears the progress line.
+func (r *scenarioRun) endProgress() {
+	if r.progress != nil {
+		fmt.Fprint(r.progress, "\r\x1b[K")
+	}
 }
 
 // finish writes the worst findings to the streams and commits their
