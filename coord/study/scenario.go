@@ -159,11 +159,7 @@ func (b *builder) scenarioOut(w where, r rawScenario, elems map[string][]element
 		es := elems[name]
 		switch {
 		case len(es) == 0:
-			known := map[string]int{}
-			for n := range elems {
-				known[n] = 0
-			}
-			b.fail(w, "out_of_service", "out_of_service: %q is no line, transformer, generator or source of the study%s", name, b.closest(name, known))
+			b.fail(w, "out_of_service", "out_of_service: %q is no line, transformer, generator or source of the study%s", name, b.notOutageHint(name, elems))
 		case len(es) > 1:
 			b.fail(w, "out_of_service", "out_of_service: %q names both a %s and a %s; rename one of them", name, es[0].kind, es[1].kind)
 		case d.out[es[0]]:
@@ -184,11 +180,7 @@ func (b *builder) scenarioSwitches(w where, key string, names []string, closed b
 		_, twice := d.switches[name]
 		switch {
 		case !ok:
-			known := map[string]int{}
-			for n := range b.switches {
-				known[n] = 0
-			}
-			b.fail(w, key, "%s: %q is no switch of the study%s", key, name, b.closest(name, known))
+			b.fail(w, key, "%s: %q is no switch of the study%s", key, name, b.notSwitchHint(name))
 		case twice:
 			b.fail(w, key, "switch %q is named twice in open and close", name)
 		case s.closed == closed:
@@ -198,6 +190,36 @@ func (b *builder) scenarioSwitches(w where, key string, names []string, closed b
 			d.changes = append(d.changes, fmt.Sprintf("switch %s %s", name, state[closed]))
 		}
 	}
+}
+
+// notOutageHint says what a name out_of_service does not know is: a
+// switch (which a scenario opens), a bus (which goes out with the
+// elements that connect it), or a slip for one of elems.
+func (b *builder) notOutageHint(name string, elems map[string][]element) verbatim {
+	if _, ok := b.switches[name]; ok {
+		return "; it is a switch: list it in open to take it out of service"
+	}
+	if _, ok := b.busRaw[name]; ok {
+		return "; it is a bus: take out of service the elements that connect it, and open its switches"
+	}
+	known := map[string]int{}
+	for n := range elems {
+		known[n] = 0
+	}
+	return verbatim(b.closest(name, known))
+}
+
+// notSwitchHint says what a name open or close does not know is: an
+// element (which out_of_service takes out), or a slip for a switch.
+func (b *builder) notSwitchHint(name string) verbatim {
+	if es := b.elementsByName()[name]; len(es) > 0 {
+		return verbatim(fmt.Sprintf("; it is a %s: list it in out_of_service to take it out", es[0].kind))
+	}
+	known := map[string]int{}
+	for n := range b.switches {
+		known[n] = 0
+	}
+	return verbatim(b.closest(name, known))
 }
 
 // scenarioSource reads a source's strength in a scenario.
@@ -250,6 +272,8 @@ func (b *builder) nMinus1(names map[string]int) []scenarioDef {
 	want := map[string]bool{}
 	for _, k := range kinds {
 		switch {
+		case k == "switch":
+			b.fail(w, "n_minus_1", "n_minus_1: %q: the sweep takes elements out of service one at a time; a switch's other state is a [[scenario]] with open or close", k)
 		case !contains(outageKinds, k):
 			known := map[string]int{}
 			for _, o := range outageKinds {
