@@ -307,17 +307,25 @@ func (b *builder) nMinus1(names map[string]int) []scenarioDef {
 		defs = append(defs, scenarioDef{name: name, outage: true, out: map[element]bool{e: true},
 			changes: []string{fmt.Sprintf("%s %s out of service", e.kind, e.name)}})
 	}
-	b.st.ScenarioNotes = append(b.st.ScenarioNotes, fmt.Sprintf("N-1 (%s): %d single outages", strings.Join(kinds, ", "), len(defs)))
+	b.st.ScenarioNotes = append(b.st.ScenarioNotes, fmt.Sprintf("N-1 (%s): %s", strings.Join(kinds, ", "), count(len(defs), "single outage")))
 	if len(left) > 0 {
 		shown := left
 		more := ""
 		if len(shown) > 10 {
 			shown, more = shown[:10], fmt.Sprintf(" and %d more", len(left)-10)
 		}
-		b.st.ScenarioNotes = append(b.st.ScenarioNotes, fmt.Sprintf("N-1: %d outage(s) left out because they leave part of the network with no source: %s%s",
-			len(left), strings.Join(shown, ", "), more))
+		b.st.ScenarioNotes = append(b.st.ScenarioNotes, fmt.Sprintf("N-1: %s left out because %s part of the network with no source: %s%s",
+			count(len(left), "outage"), map[bool]string{true: "it leaves", false: "they leave"}[len(left) == 1], strings.Join(shown, ", "), more))
 	}
 	return defs
+}
+
+// count says how many of a thing: "1 outage", "3 outages".
+func count(n int, thing string) string {
+	if n == 1 {
+		return "1 " + thing
+	}
+	return fmt.Sprintf("%d %ss", n, thing)
 }
 
 func contains(list []string, s string) bool {
