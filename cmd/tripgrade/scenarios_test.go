@@ -413,3 +413,29 @@ func TestScenarioInputErrorsExit2(t *testing.T) {
 		t.Errorf("--scenarios with an unknown name: exit %d, stderr %q", code, errOut)
 	}
 }
+
+// TestScenarioReportNamesScenarios: the audit report of a study with
+// scenarios lists them with the sweep's notes, and each finding's table
+// row names the scenario it comes from.
+func TestScenarioReportNamesScenarios(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "audit.html")
+	if code, _, errOut := runArgs("check", n1Mesh, "--report", path); code != exitFail {
+		t.Fatalf("exit %d, stderr %q", code, errOut)
+	}
+	b, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	doc := string(b)
+	for _, want := range []string{
+		"<h3>Scenarios</h3>",
+		"<li>as drawn: every element in service, every switch as normally operated</li>",
+		"N-1: 2 outages left out because they leave part of the network with no source: TB-DE out, TB-T out",
+		"<th>scenario</th>",
+		"<td>TB-AB out</td>",
+	} {
+		if !strings.Contains(doc, want) {
+			t.Errorf("the report lacks %q", want)
+		}
+	}
+}
