@@ -439,3 +439,17 @@ func TestScenarioReportNamesScenarios(t *testing.T) {
 		}
 	}
 }
+
+// TestScenariosNamedHeaderNamesOnlyThose: with --scenarios NAMES the
+// table of the worst findings says it is over the scenarios checked and
+// lists only those.
+func TestScenariosNamedHeaderNamesOnlyThose(t *testing.T) {
+	_, out, _ := runArgs("check", n1Mesh, "--scenarios", "TB-AB out")
+	_, worst, ok := strings.Cut(out, "\n=== the scenarios above: the worst finding of each check, device and stage ===\n")
+	if !ok {
+		t.Fatalf("no table of the worst findings over the scenarios checked:\n%s", out)
+	}
+	if !strings.Contains(worst, "scenarios checked, as --scenarios asked") || strings.Contains(worst, "as drawn: every element") {
+		t.Errorf("the header does not list only the scenario checked:\n%s", worst)
+	}
+}

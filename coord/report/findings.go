@@ -45,6 +45,23 @@ type Findings struct {
 	Scenarios     []ScenarioLine
 	ScenarioNotes []string
 	Section       *ScenarioLine
+	// Picked is set when only some of the study's scenarios were checked
+	// (KeepScenarios).
+	Picked bool
+}
+
+// KeepScenarios leaves in Scenarios only those that keep picks: the
+// scenarios a run checked, when it did not check them all.
+func (f *Findings) KeepScenarios(keep func(name string) bool) {
+	var kept []ScenarioLine
+	for _, s := range f.Scenarios {
+		if keep(s.Name) {
+			kept = append(kept, s)
+		}
+	}
+	if len(kept) < len(f.Scenarios) {
+		f.Scenarios, f.Picked = kept, true
+	}
 }
 
 // ScenarioLine is one scenario in a report's header.

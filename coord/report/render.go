@@ -62,6 +62,9 @@ func (f *Findings) scenarioLines() []string {
 		return nil
 	}
 	out := []string{"scenarios (each finding is the worst of its check, device and stage over them all, and names the scenario it comes from):"}
+	if f.Picked {
+		out[0] = "scenarios checked, as --scenarios asked (each finding is the worst of its check, device and stage over them, and names the scenario it comes from):"
+	}
 	outages, first := 0, ""
 	for _, s := range f.Scenarios {
 		if s.Outage {

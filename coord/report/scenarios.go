@@ -74,7 +74,11 @@ func (s *ScenarioStream) Scenario(f *Findings) error {
 func (s *ScenarioStream) Finish(worst *Findings) error {
 	switch s.format {
 	case "text":
-		fmt.Fprintf(s.w, "\n=== all scenarios: the worst finding of each check, device and stage ===\n\n")
+		which := "all scenarios"
+		if worst.Picked {
+			which = "the scenarios above"
+		}
+		fmt.Fprintf(s.w, "\n=== %s: the worst finding of each check, device and stage ===\n\n", which)
 		return worst.WriteText(s.w)
 	case "md":
 		fmt.Fprintf(s.w, "\n")
