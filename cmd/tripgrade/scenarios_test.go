@@ -453,3 +453,36 @@ func TestScenariosNamedHeaderNamesOnlyThose(t *testing.T) {
 		t.Errorf("the header does not list only the scenario checked:\n%s", worst)
 	}
 }
+
+// TestFaultsAndPlotInAScenario: faults and plot take --scenario NAME:
+// the fault study and the charts of the study in that configuration,
+// the scenario named in their titles; an unknown name exits 2 with a
+// "did you mean".
+func TestFaultsAndPlotInAScenario(t *testing.T) {
+	code, out, errOut := runArgs("faults", n1Mesh, "--scenario", "TB-AB out")
+	if code != exitOK || errOut != "" {
+		t.Fatalf("faults --scenario: exit %d, stderr %q", code, errOut)
+	}
+	if !strings.HasPrefix(out, "tripgrade fault study: Tolbury 33/11 kV (N-1 sweep), scenario TB-AB out (line TB-AB out of service)\n") {
+		t.Errorf("the title does not name the scenario:\n%.200s", out)
+	}
+	if strings.Contains(out, "\nA-AB ") {
+		t.Errorf("A-AB, on the line out of service, is still in the fault study")
+	}
+	_, drawn, _ := runArgs("faults", n1Mesh, "--scenario", "as drawn")
+	if _, plain, _ := runArgs("faults", n1Mesh); drawn != plain || !strings.Contains(plain, "\nA-AB ") {
+		t.Errorf("--scenario \"as drawn\" differs from the plain fault study")
+	}
+	code, _, errOut = runArgs("faults", n1Mesh, "--scenario", "TB-AB ot")
+	if code != exitUsage || !strings.Contains(errOut, `did you mean "TB-AB out"?`) {
+		t.Errorf("unknown scenario: exit %d, stderr %q", code, errOut)
+	}
+	file := filepath.Join(t.TempDir(), "t-hv.png")
+	code, out, errOut = runArgs("plot", n1Mesh, "--scenario", "TB-CA out", "--device", "T-HV", "--out", file)
+	if code != exitOK || errOut != "" || out == "" {
+		t.Fatalf("plot --scenario: exit %d, stdout %q, stderr %q", code, out, errOut)
+	}
+	for _, f := range strings.Fields(out) {
+		checkPNG(t, f)
+	}
+}
