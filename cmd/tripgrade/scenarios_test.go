@@ -486,3 +486,49 @@ func TestFaultsAndPlotInAScenario(t *testing.T) {
 		checkPNG(t, f)
 	}
 }
+
+// TestAshcombeRingExample: the README's scenario example passes as drawn
+// and fails in the scenarios its text names, each failure naming its
+// scenario.
+func TestAshcombeRingExample(t *testing.T) {
+	const ring = "../../testdata/scenarios/ashcombe-ring.toml"
+	if code, _, errOut := runArgs("check", ring, "--scenarios", "as drawn"); code != exitOK || errOut != "" {
+		t.Fatalf("as drawn: exit %d (want %d), stderr %q", code, exitOK, errOut)
+	}
+	code, out, _ := runArgs("check", ring, "--format", "json")
+	if code != exitFail {
+		t.Fatalf("every scenario: exit %d, want %d", code, exitFail)
+	}
+	var doc struct {
+		Findings []struct {
+			Check, Verdict, Device, Other, Scenario string
+		} `json:"findings"`
+		Notes []string `json:"scenario_notes"`
+	}
+	if err := json.Unmarshal([]byte(out), &doc); err != nil {
+		t.Fatal(err)
+	}
+	got := map[string]string{}
+	for _, f := range doc.Findings {
+		if f.Verdict == "FAIL" {
+			other := f.Other
+			if f.Check == "clearing" {
+				other = "" // the element alone
+			}
+			got[f.Check+" "+f.Device+" "+other] = f.Scenario
+		}
+	}
+	for key, scenario := range map[string]string{
+		"grading BB-F1 BB-T1-LV": "BB-T2 out",                // the remaining incomer's earth-fault stage
+		"grading CW-T1-HV BB-BC": "CA-OHL out",               // the ring open: BB-BC feeds Corrow alone
+		"clearing BB-33 ":        "Corrow load on Bellbrook", // the 11 kV tie feeds 33 kV faults
+		"grading CW-F1 BB-F1":    "Corrow load on Bellbrook",
+	} {
+		if got[key] != scenario {
+			t.Errorf("%s: worst failure in %q, want %q", key, got[key], scenario)
+		}
+	}
+	if len(doc.Notes) != 3 || !strings.Contains(doc.Notes[2], "BF2-CABLE out, BF2-OHL out") {
+		t.Errorf("sweep notes %q", doc.Notes)
+	}
+}
