@@ -94,20 +94,29 @@ func Accept(r *Result, entries []Acceptance) []error {
 
 // Acceptances applies a study's [[accept]] entries to the results of its
 // scenarios one at a time (as Accept does to one result) and remembers
-// which entries covered a failing or warning finding in any of them.
+// which entries covered a failing or warning finding in any of them, and
+// which scenarios were applied.
 type Acceptances struct {
 	entries          []Acceptance
 	matched, covered []bool
+	checked          map[string]bool // scenarios applied, AsDrawn for a study without any
 }
 
 // NewAcceptances returns the entries, to apply.
 func NewAcceptances(entries []Acceptance) *Acceptances {
-	return &Acceptances{entries: entries, matched: make([]bool, len(entries)), covered: make([]bool, len(entries))}
+	return &Acceptances{entries: entries, matched: make([]bool, len(entries)), covered: make([]bool, len(entries)), checked: map[string]bool{}}
 }
 
 // Apply marks every failing or warning finding of r that an entry names
 // as Accepted.
 func (a *Acceptances) Apply(r *Result) {
+	for _, f := range r.Findings {
+		if f.Scenario == "" {
+			a.checked[AsDrawn] = true
+		} else {
+			a.checked[f.Scenario] = true
+		}
+	}
 	for k := range a.entries {
 		e := &a.entries[k]
 		for i := range r.Findings {
@@ -131,10 +140,15 @@ func (a *Acceptances) Apply(r *Result) {
 }
 
 // Stale returns one *StaleAcceptance for every entry that covered no
-// failing or warning finding of any result applied, in entry order.
+// failing or warning finding of any result applied, in entry order. An
+// entry limited to a scenario that was not applied (check --scenarios
+// left it out) is not judged.
 func (a *Acceptances) Stale() []error {
 	var stale []error
 	for k := range a.entries {
+		if sc := a.entries[k].Scenario; sc != "" && !a.checked[sc] {
+			continue
+		}
 		if !a.covered[k] {
 			stale = append(stale, &StaleAcceptance{Entry: &a.entries[k], Passing: a.matched[k]})
 		}

@@ -184,10 +184,17 @@ func (w *Worst) Result() *Result {
 // ExtraPairs returns the backup pairs that only later scenarios have.
 func (w *Worst) ExtraPairs() []ScenarioPair { return w.extra }
 
-// findingKey identifies a finding across scenarios and runs: its check,
-// device, other device and stage.
+// findingKey identifies a finding across scenarios: its check, device,
+// other device and stage. A fault-clearing finding is about its element
+// alone: the devices that clear it (its Other) are a result, which
+// differs from one scenario to the next, so its worst over the
+// scenarios is one finding per element.
 func findingKey(f Finding) string {
-	return fmt.Sprintf("%q %q %q %q", f.Check.Slug(), f.Device, f.Other, f.Stage)
+	other := f.Other
+	if f.Check == Clearing {
+		other = ""
+	}
+	return fmt.Sprintf("%q %q %q %q", f.Check.Slug(), f.Device, other, f.Stage)
 }
 
 // severity orders verdicts for Worst: a pass, an accepted finding, a

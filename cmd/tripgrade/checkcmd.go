@@ -173,6 +173,9 @@ func (r *scenarioRun) table(res *coord.Result) (*report.Findings, error) {
 	tab := report.NewFindings(r.first, res)
 	tab.Study, tab.Cases, tab.Notes = r.l.study.Name, report.CaseLines(r.l.study), r.l.study.Notes
 	tab.Acceptances, tab.Scenarios, tab.ScenarioNotes = r.l.study.Accepts, report.NewScenarioLines(r.l.study), r.l.study.ScenarioNotes
+	if pick, _ := r.o.pickScenarios(r.l.study); pick != nil {
+		tab.KeepScenarios(pick) // the header names only the scenarios checked
+	}
 	tab.AddScenarioPairs(extra)
 	tab.Scope = info
 	var err error

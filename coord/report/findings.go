@@ -14,6 +14,11 @@ type Findings struct {
 	Study    string
 	Cases    []string
 	Criteria []string
+	// CheckNotes are the lines the check added to the criteria (faults
+	// left to a source's own protection, parts no device clears): the
+	// tail of Criteria, which a scenario's section prints under its
+	// heading.
+	CheckNotes []string
 	// Notes are what loading the study assumed where its input left a
 	// choice (coord.Study.Notes).
 	Notes    []string
@@ -40,6 +45,23 @@ type Findings struct {
 	Scenarios     []ScenarioLine
 	ScenarioNotes []string
 	Section       *ScenarioLine
+	// Picked is set when only some of the study's scenarios were checked
+	// (KeepScenarios).
+	Picked bool
+}
+
+// KeepScenarios leaves in Scenarios only those that keep picks: the
+// scenarios a run checked, when it did not check them all.
+func (f *Findings) KeepScenarios(keep func(name string) bool) {
+	var kept []ScenarioLine
+	for _, s := range f.Scenarios {
+		if keep(s.Name) {
+			kept = append(kept, s)
+		}
+	}
+	if len(kept) < len(f.Scenarios) {
+		f.Scenarios, f.Picked = kept, true
+	}
 }
 
 // ScenarioLine is one scenario in a report's header.
@@ -78,7 +100,7 @@ type Row struct {
 
 // NewFindings formats a check's result.
 func NewFindings(s *coord.Study, r *coord.Result) *Findings {
-	f := &Findings{Study: s.Name, Cases: CaseLines(s), Criteria: append(criteriaLines(s.Criteria), r.Notes...), Notes: s.Notes}
+	f := &Findings{Study: s.Name, Cases: CaseLines(s), Criteria: append(criteriaLines(s.Criteria), r.Notes...), CheckNotes: r.Notes, Notes: s.Notes}
 	name := func(i int) string { return s.Devices[i].Name }
 	for _, p := range r.Pairs {
 		f.Pairs = append(f.Pairs, PairRow{Upstream: name(p.Upstream), Downstream: name(p.Downstream), Manual: p.Manual})

@@ -16,6 +16,9 @@ func (f *Findings) WriteText(w io.Writer) error {
 	ew := &errWriter{w: w}
 	if f.Section != nil {
 		fmt.Fprintf(ew, "\n=== scenario %s: %s ===\n", f.Section.Name, f.Section.Changes)
+		for _, c := range f.CheckNotes {
+			fmt.Fprintf(ew, "  %s\n", wrap(c, TextWidth-2, "      "))
+		}
 	} else {
 		fmt.Fprintf(ew, "tripgrade coordination check: %s\n", f.Study)
 		for _, c := range append(append(append([]string{}, f.Cases...), f.Criteria...), f.Scope.lines()...) {
@@ -59,16 +62,26 @@ func (f *Findings) scenarioLines() []string {
 		return nil
 	}
 	out := []string{"scenarios (each finding is the worst of its check, device and stage over them all, and names the scenario it comes from):"}
-	outages := 0
+	if f.Picked {
+		out[0] = "scenarios checked, as --scenarios asked (each finding is the worst of its check, device and stage over them, and names the scenario it comes from):"
+	}
+	outages, first := 0, ""
 	for _, s := range f.Scenarios {
 		if s.Outage {
+			if outages == 0 {
+				first = s.Name
+			}
 			outages++
 			continue
 		}
 		out = append(out, fmt.Sprintf("  %s: %s", s.Name, s.Changes))
 	}
 	if outages > 0 {
-		out = append(out, fmt.Sprintf("  %d N-1 outages, each named after the element out of service (\"L5 out\")", outages))
+		what := fmt.Sprintf("%d N-1 outages, each", outages)
+		if outages == 1 {
+			what = "1 N-1 outage,"
+		}
+		out = append(out, fmt.Sprintf("  %s named after the element out of service (%q)", what, first))
 	}
 	return append(out, f.ScenarioNotes...)
 }
@@ -85,6 +98,12 @@ func (f *Findings) WriteMarkdown(w io.Writer) error {
 	ew := &errWriter{w: w}
 	if f.Section != nil {
 		fmt.Fprintf(ew, "\n# Scenario %s\n\n%s\n", md(f.Section.Name), md(f.Section.Changes))
+		if len(f.CheckNotes) > 0 {
+			fmt.Fprintln(ew)
+		}
+		for _, c := range f.CheckNotes {
+			fmt.Fprintf(ew, "- %s\n", md(c))
+		}
 	} else {
 		fmt.Fprintf(ew, "# Coordination check: %s\n\n> %s\n\n", md(f.Study), Caution)
 		for _, c := range append(append(append([]string{}, f.Cases...), f.Criteria...), f.Scope.lines()...) {

@@ -30,6 +30,7 @@ func NewScenarioStream(format string, w io.Writer) *ScenarioStream {
 type jsonScenarioFindings struct {
 	Name     string        `json:"name"`
 	Changes  string        `json:"changes"`
+	Criteria []string      `json:"criteria"`
 	Pairs    []jsonPair    `json:"pairs"`
 	Findings []jsonFinding `json:"findings"`
 	Summary  jsonSummary   `json:"summary"`
@@ -40,14 +41,20 @@ func (s *ScenarioStream) Scenario(f *Findings) error {
 	s.n++
 	switch s.format {
 	case "text":
+		if s.n == 1 {
+			fmt.Fprintf(s.w, "%s\n", wrap(fmt.Sprintf("tripgrade coordination check: %s, scenario by scenario (the worst finding of each check, device and stage over them all follows at the end)", f.Study), TextWidth, "  "))
+		}
 		return f.WriteText(s.w)
 	case "md":
+		if s.n == 1 {
+			fmt.Fprintf(s.w, "# Coordination check: %s, scenario by scenario\n\n> %s\n\nThe worst finding of each check, device and stage over them all follows at the end.\n", md(f.Study), Caution)
+		}
 		return f.WriteMarkdown(s.w)
 	case "csv":
 		return f.WriteCSVRows(s.w, s.n == 1)
 	}
 	d := f.jsonDoc()
-	one := jsonScenarioFindings{Pairs: d.Pairs, Findings: d.Findings, Summary: d.Summary}
+	one := jsonScenarioFindings{Criteria: d.Criteria, Pairs: d.Pairs, Findings: d.Findings, Summary: d.Summary}
 	if f.Section != nil {
 		one.Name, one.Changes = f.Section.Name, f.Section.Changes
 	}
@@ -67,7 +74,11 @@ func (s *ScenarioStream) Scenario(f *Findings) error {
 func (s *ScenarioStream) Finish(worst *Findings) error {
 	switch s.format {
 	case "text":
-		fmt.Fprintf(s.w, "\n=== all scenarios: the worst finding of each check, device and stage ===\n\n")
+		which := "all scenarios"
+		if worst.Picked {
+			which = "the scenarios above"
+		}
+		fmt.Fprintf(s.w, "\n=== %s: the worst finding of each check, device and stage ===\n\n", which)
 		return worst.WriteText(s.w)
 	case "md":
 		fmt.Fprintf(s.w, "\n")

@@ -159,11 +159,7 @@ func (b *builder) scenarioOut(w where, r rawScenario, elems map[string][]element
 		es := elems[name]
 		switch {
 		case len(es) == 0:
-			known := map[string]int{}
-			for n := range elems {
-				known[n] = 0
-			}
-			b.fail(w, "out_of_service", "out_of_service: %q is no line, transformer, generator or source of the study%s", name, b.closest(name, known))
+			b.fail(w, "out_of_service", "out_of_service: %q is no line, transformer, generator or source of the study%s", name, b.notOutageHint(name, elems))
 		case len(es) > 1:
 			b.fail(w, "out_of_service", "out_of_service: %q names both a %s and a %s; rename one of them", name, es[0].kind, es[1].kind)
 		case d.out[es[0]]:
@@ -184,11 +180,7 @@ func (b *builder) scenarioSwitches(w where, key string, names []string, closed b
 		_, twice := d.switches[name]
 		switch {
 		case !ok:
-			known := map[string]int{}
-			for n := range b.switches {
-				known[n] = 0
-			}
-			b.fail(w, key, "%s: %q is no switch of the study%s", key, name, b.closest(name, known))
+			b.fail(w, key, "%s: %q is no switch of the study%s", key, name, b.notSwitchHint(name))
 		case twice:
 			b.fail(w, key, "switch %q is named twice in open and close", name)
 		case s.closed == closed:
@@ -198,6 +190,36 @@ func (b *builder) scenarioSwitches(w where, key string, names []string, closed b
 			d.changes = append(d.changes, fmt.Sprintf("switch %s %s", name, state[closed]))
 		}
 	}
+}
+
+// notOutageHint says what a name out_of_service does not know is: a
+// switch (which a scenario opens), a bus (which goes out with the
+// elements that connect it), or a slip for one of elems.
+func (b *builder) notOutageHint(name string, elems map[string][]element) verbatim {
+	if _, ok := b.switches[name]; ok {
+		return "; it is a switch: list it in open to take it out of service"
+	}
+	if _, ok := b.busRaw[name]; ok {
+		return "; it is a bus: take out of service the elements that connect it, and open its switches"
+	}
+	known := map[string]int{}
+	for n := range elems {
+		known[n] = 0
+	}
+	return verbatim(b.closest(name, known))
+}
+
+// notSwitchHint says what a name open or close does not know is: an
+// element (which out_of_service takes out), or a slip for a switch.
+func (b *builder) notSwitchHint(name string) verbatim {
+	if es := b.elementsByName()[name]; len(es) > 0 {
+		return verbatim(fmt.Sprintf("; it is a %s: list it in out_of_service to take it out", es[0].kind))
+	}
+	known := map[string]int{}
+	for n := range b.switches {
+		known[n] = 0
+	}
+	return verbatim(b.closest(name, known))
 }
 
 // scenarioSource reads a source's strength in a scenario.
@@ -239,8 +261,9 @@ func (b *builder) scenarioSource(w where, s rawScenarioSource, srcs map[string]i
 
 // nMinus1 reads the study's n_minus_1 setting and gives one scenario per
 // single outage of every element of the kinds it names, leaving out those
-// that would leave some bus with no source (said in a note). names are the
-// study's own scenarios, by their tables' index.
+// that would leave some bus with no source, or to generators alone (said
+// in a note; see cutsOff). names are the study's own scenarios, by their
+// tables' index.
 func (b *builder) nMinus1(names map[string]int) []scenarioDef {
 	kinds := b.raw.Study.NMinus1
 	if len(kinds) == 0 {
@@ -250,6 +273,8 @@ func (b *builder) nMinus1(names map[string]int) []scenarioDef {
 	want := map[string]bool{}
 	for _, k := range kinds {
 		switch {
+		case k == "switch":
+			b.fail(w, "n_minus_1", "n_minus_1: %q: the sweep takes elements out of service one at a time; a switch's other state is a [[scenario]] with open or close", k)
 		case !contains(outageKinds, k):
 			known := map[string]int{}
 			for _, o := range outageKinds {
@@ -266,7 +291,7 @@ func (b *builder) nMinus1(names map[string]int) []scenarioDef {
 	}
 	byName := b.elementsByName()
 	var defs []scenarioDef
-	var left []string
+	var left, islands []string
 	for _, e := range b.outageCandidates(want) {
 		name := e.name + " out"
 		if len(byName[e.name]) > 1 {
@@ -276,24 +301,46 @@ func (b *builder) nMinus1(names map[string]int) []scenarioDef {
 			b.fail(tableAt("scenario", k, name), "name", "name = %q is the name of an outage of the n_minus_1 sweep; give the scenario another", name)
 			continue
 		}
-		if b.cutsOff(e) {
+		switch b.cutsOff(e) {
+		case noSource:
 			left = append(left, name)
+			continue
+		case generators:
+			islands = append(islands, name)
 			continue
 		}
 		defs = append(defs, scenarioDef{name: name, outage: true, out: map[element]bool{e: true},
 			changes: []string{fmt.Sprintf("%s %s out of service", e.kind, e.name)}})
 	}
-	b.st.ScenarioNotes = append(b.st.ScenarioNotes, fmt.Sprintf("N-1 (%s): %d single outages", strings.Join(kinds, ", "), len(defs)))
-	if len(left) > 0 {
-		shown := left
-		more := ""
-		if len(shown) > 10 {
-			shown, more = shown[:10], fmt.Sprintf(" and %d more", len(left)-10)
-		}
-		b.st.ScenarioNotes = append(b.st.ScenarioNotes, fmt.Sprintf("N-1: %d outage(s) left out because they leave part of the network with no source: %s%s",
-			len(left), strings.Join(shown, ", "), more))
-	}
+	b.st.ScenarioNotes = append(b.st.ScenarioNotes, fmt.Sprintf("N-1 (%s): %s", strings.Join(kinds, ", "), count(len(defs), "single outage")))
+	b.sweepNote(left, "part of the network with no source")
+	b.sweepNote(islands, "part of the network that a grid source feeds as drawn to embedded generators alone (write a [[scenario]] to check such an island)")
 	return defs
+}
+
+// sweepNote notes the outages the sweep left out, and why.
+func (b *builder) sweepNote(left []string, why string) {
+	if len(left) == 0 {
+		return
+	}
+	shown, more := left, ""
+	if len(shown) > 10 {
+		shown, more = shown[:10], fmt.Sprintf(" and %d more", len(left)-10)
+	}
+	verb := "they leave"
+	if len(left) == 1 {
+		verb = "it leaves"
+	}
+	b.st.ScenarioNotes = append(b.st.ScenarioNotes, fmt.Sprintf("N-1: %s left out because %s %s: %s%s",
+		count(len(left), "outage"), verb, why, strings.Join(shown, ", "), more))
+}
+
+// count says how many of a thing: "1 outage", "3 outages".
+func count(n int, thing string) string {
+	if n == 1 {
+		return "1 " + thing
+	}
+	return fmt.Sprintf("%d %ss", n, thing)
 }
 
 func contains(list []string, s string) bool {
@@ -340,24 +387,24 @@ func (b *builder) outageCandidates(want map[string]bool) []element {
 	return out
 }
 
-// cutsOff reports whether taking element e out of the study as drawn
-// leaves some bus with no source or generator of the maximum case: the
-// fault engine needs every bus energised. A power station unit's
-// generator goes with its unit transformer.
-func (b *builder) cutsOff(e element) bool {
+// Why the sweep leaves an outage out (see cutsOff).
+const (
+	keeps      = iota // every bus stays fed as it was
+	noSource          // some bus is left with no source or generator
+	generators        // some bus fed by a grid source as drawn is left to generators alone
+)
+
+// cutsOff says whether taking element e out of the study as drawn leaves
+// some bus with no source or generator of the maximum case (the fault
+// engine needs every bus energised), or leaves a bus that a grid source
+// feeds as drawn to embedded generators alone: an island that the
+// generators' own loss-of-mains protection would not let stand, and whose
+// minimum case has no source at all unless they always run (a
+// [[scenario]] may still take the element out, to check such an island
+// on purpose). A power station unit's generator goes with its unit
+// transformer.
+func (b *builder) cutsOff(e element) int {
 	n := b.net
-	parent := make([]int, len(n.Buses))
-	for i := range parent {
-		parent[i] = i
-	}
-	var root func(int) int
-	root = func(i int) int {
-		for parent[i] != i {
-			parent[i] = parent[parent[i]]
-			i = parent[i]
-		}
-		return i
-	}
 	skipBranch := map[int]bool{}
 	skipBus := map[int]bool{}
 	switch e.kind {
@@ -370,33 +417,67 @@ func (b *builder) cutsOff(e element) bool {
 		}
 		skipBus[n.Transformers3[k].StarBus] = true
 	}
+	gridDrawn, _ := b.feeding(nil, nil)
+	grid, any := b.feeding(skipBranch, func(kind, name string) bool { return kind == e.kind && name == e.name })
+	why := keeps
+	for k := range n.Buses {
+		switch {
+		case skipBus[k]:
+		case !any[k]:
+			return noSource
+		case gridDrawn[k] && !grid[k]:
+			why = generators
+		}
+	}
+	return why
+}
+
+// feeding reports, for every bus, whether it is connected to a grid
+// source and whether to a source or a generator of the maximum case,
+// with the branches of skip open and the elements out (nil: none) out of
+// service.
+func (b *builder) feeding(skip map[int]bool, out func(kind, name string) bool) (grid, any []bool) {
+	n := b.net
+	parent := make([]int, len(n.Buses))
+	for i := range parent {
+		parent[i] = i
+	}
+	root := func(i int) int {
+		for parent[i] != i {
+			parent[i] = parent[parent[i]]
+			i = parent[i]
+		}
+		return i
+	}
 	for br := 0; br < n.BranchCount(); br++ {
-		if !skipBranch[br] {
+		if !skip[br] {
 			f, t := n.BranchEnds(br)
 			parent[root(f)] = root(t)
 		}
 	}
-	fed := map[int]bool{}
+	if out == nil {
+		out = func(string, string) bool { return false }
+	}
+	fedGrid, fedAny := map[int]bool{}, map[int]bool{}
 	for _, s := range n.Sources {
-		if !(e.kind == "source" && s.Name == e.name) {
-			fed[root(s.Bus)] = true
+		if !out("source", s.Name) {
+			fedGrid[root(s.Bus)], fedAny[root(s.Bus)] = true, true
 		}
 	}
-	for i, g := range n.Generators {
-		out := e.kind == "generator" && g.Name == e.name
-		if u := g.Unit; u != nil && skipBranch[len(n.Lines)+u.Transformer] {
-			out = true
+	for _, g := range n.Generators {
+		gone := out("generator", g.Name)
+		if u := g.Unit; u != nil && skip[len(n.Lines)+u.Transformer] {
+			gone = true
 		}
-		if g.InMax && !out {
-			fed[root(n.Generators[i].Bus)] = true
+		if g.InMax && !gone {
+			fedAny[root(g.Bus)] = true
 		}
 	}
+	grid, any = make([]bool, len(n.Buses)), make([]bool, len(n.Buses))
 	for k := range n.Buses {
-		if !skipBus[k] && !fed[root(k)] {
-			return true
-		}
+		grid[k], any[k] = fedGrid[root(k)], fedAny[root(k)]
 	}
-	return false
+	return grid, any
 }
 
 // acceptScenarios checks the scenario each [[accept]] entry names.

@@ -109,12 +109,12 @@ func (b *builder) rawBusRef(w where, key, name string) (int, bool) {
 // tiedBy names the closed switches that tie the buses named x and y
 // into one bus of the model, for a message about an element between
 // them: the switches on a shortest path of closed switches from x to y.
-func (b *builder) tiedBy(x, y string) string {
+func (b *builder) tiedBy(x, y string) []string {
 	type step struct{ bus, via, prev int }
 	from, okX := b.busRaw[x]
 	to, okY := b.busRaw[y]
 	if !okX || !okY {
-		return ""
+		return nil
 	}
 	adj := map[int][][2]int{} // bus → (other bus, switch index)
 	for i, r := range b.raw.Switches {
@@ -136,7 +136,7 @@ func (b *builder) tiedBy(x, y string) string {
 			for j := k; steps[j].via >= 0; j = steps[j].prev {
 				names = append([]string{b.raw.Switches[steps[j].via].Name}, names...)
 			}
-			return joinQuoted(names)
+			return names
 		}
 		for _, e := range adj[steps[k].bus] {
 			if !seen[e[0]] {
@@ -145,7 +145,7 @@ func (b *builder) tiedBy(x, y string) string {
 			}
 		}
 	}
-	return ""
+	return nil
 }
 
 // switchClosed reports whether a switch is closed in the configuration
@@ -169,6 +169,11 @@ func (b *builder) sameBus(w where, kind, from, to string) {
 		b.fail(w, "to", "from and to are the same bus %q", from)
 		return
 	}
-	b.fail(w, "to", "%q and %q are one bus while switch(es) %s are closed: the %s would be shorted out (open a switch, or take the %s out of service%s)",
-		from, to, b.tiedBy(from, to), kind, kind, b.cfgWords())
+	tied := b.tiedBy(from, to)
+	word, verb := verbatim("switch"), verbatim("is")
+	if len(tied) > 1 {
+		word, verb = "switches", "are"
+	}
+	b.fail(w, "to", "%q and %q are one bus while %s %s %s closed: the %s would be shorted out (open a switch, or take the %s out of service%s)",
+		from, to, word, joinQuoted(tied), verb, kind, kind, b.cfgWords())
 }
