@@ -80,7 +80,7 @@ func (o *checkOptions) pickScenarios(s *coord.Study) (func(string) bool, error) 
 		}
 		if !known[n] {
 			hint := ""
-			if near := study.Closest(n, append(names, coord.AsDrawn)); near != "" {
+			if near := closestScenario(n, names); near != "" {
 				hint = fmt.Sprintf("; did you mean %q?", near)
 			}
 			return nil, fmt.Errorf("--scenarios: the study has no scenario %q (%q is the study as drawn)%s", n, coord.AsDrawn, hint)

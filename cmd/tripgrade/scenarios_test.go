@@ -408,9 +408,15 @@ func TestScenarioInputErrorsExit2(t *testing.T) {
 			}
 		}
 	}
-	code, _, errOut := runArgs("check", n1Mesh, "--scenarios", "TB-AB ot")
-	if code != exitUsage || !strings.Contains(errOut, `did you mean "TB-AB out"?`) {
-		t.Errorf("--scenarios with an unknown name: exit %d, stderr %q", code, errOut)
+	for _, name := range []string{"TB-AB ot", "TB-AB"} {
+		code, _, errOut := runArgs("check", n1Mesh, "--scenarios", name)
+		if code != exitUsage || !strings.Contains(errOut, `did you mean "TB-AB out"?`) {
+			t.Errorf("--scenarios %q: exit %d, stderr %q", name, code, errOut)
+		}
+		code, _, errOut = runArgs("faults", n1Mesh, "--scenario", name)
+		if code != exitUsage || !strings.Contains(errOut, `did you mean "TB-AB out"?`) {
+			t.Errorf("faults --scenario %q: exit %d, stderr %q", name, code, errOut)
+		}
 	}
 }
 

@@ -33,7 +33,7 @@ func inScenario(l loaded, name string, stderr io.Writer) (loaded, bool) {
 		return in, true
 	}
 	hint := ""
-	if near := study.Closest(name, append(names, coord.AsDrawn)); near != "" {
+	if near := closestScenario(name, names); near != "" {
 		hint = fmt.Sprintf("; did you mean %q?", near)
 	}
 	if len(l.study.Scenarios) == 0 {
@@ -56,4 +56,19 @@ func buildScenario(path string, sc coord.Scenario) (loaded, error) {
 	}
 	st.Name = fmt.Sprintf("%s, scenario %s (%s)", st.Name, sc.Name, sc.Changes)
 	return loaded{path: path, study: st, engine: eng, topo: topo}, nil
+}
+
+// closestScenario is the scenario name (or coord.AsDrawn) a mistyped name
+// most likely meant: the nearest in spelling, or the N-1 outage of an
+// element of that name ("TB-AB" for "TB-AB out").
+func closestScenario(name string, names []string) string {
+	if near := study.Closest(name, append(names, coord.AsDrawn)); near != "" {
+		return near
+	}
+	for _, n := range names {
+		if n == name+" out" {
+			return n
+		}
+	}
+	return ""
 }
