@@ -19,6 +19,9 @@ type Acceptance struct {
 	Other, Stage string
 	// Reason, By and Date say why, who and when; all are required.
 	Reason, By, Date string
+	// Scenario, when given, limits the entry to the findings of that
+	// scenario (AsDrawn for the study as drawn).
+	Scenario string
 	// Was is the verdict the finding had before it was accepted; Accept
 	// sets it on the copy it attaches to each finding.
 	Was Verdict
@@ -32,6 +35,9 @@ type Acceptance struct {
 // needs nothing here.
 func (a *Acceptance) Matches(f *Finding) bool {
 	if !CheckNamed(f.Check, a.Check) || f.Device != a.Device {
+		return false
+	}
+	if sc := f.Scenario; a.Scenario != "" && a.Scenario != sc && !(sc == "" && a.Scenario == AsDrawn) {
 		return false
 	}
 	return (a.Other == "" || a.Other == f.Other) && (a.Stage == "" || a.Stage == f.Stage)
@@ -50,6 +56,9 @@ func (a *Acceptance) What() string {
 	}
 	if a.Stage != "" {
 		s += fmt.Sprintf(", stage %q", a.Stage)
+	}
+	if a.Scenario != "" {
+		s += fmt.Sprintf(", scenario %q", a.Scenario)
 	}
 	return s
 }
@@ -78,29 +87,70 @@ func (e *StaleAcceptance) Error() string {
 // *StaleAcceptance for every entry that covers nothing, in entry order;
 // the result is changed even then.
 func Accept(r *Result, entries []Acceptance) []error {
-	var stale []error
-	for k := range entries {
-		e := &entries[k]
-		matched, covered := false, false
+	a := NewAcceptances(entries)
+	a.Apply(r)
+	return a.Stale()
+}
+
+// Acceptances applies a study's [[accept]] entries to the results of its
+// scenarios one at a time (as Accept does to one result) and remembers
+// which entries covered a failing or warning finding in any of them, and
+// which scenarios were applied.
+type Acceptances struct {
+	entries          []Acceptance
+	matched, covered []bool
+	checked          map[string]bool // scenarios applied, AsDrawn for a study without any
+}
+
+// NewAcceptances returns the entries, to apply.
+func NewAcceptances(entries []Acceptance) *Acceptances {
+	return &Acceptances{entries: entries, matched: make([]bool, len(entries)), covered: make([]bool, len(entries)), checked: map[string]bool{}}
+}
+
+// Apply marks every failing or warning finding of r that an entry names
+// as Accepted.
+func (a *Acceptances) Apply(r *Result) {
+	for _, f := range r.Findings {
+		if f.Scenario == "" {
+			a.checked[AsDrawn] = true
+		} else {
+			a.checked[f.Scenario] = true
+		}
+	}
+	for k := range a.entries {
+		e := &a.entries[k]
 		for i := range r.Findings {
 			f := &r.Findings[i]
 			if !e.Matches(f) {
 				continue
 			}
-			matched = true
+			a.matched[k] = true
 			if f.Verdict == Pass {
 				continue
 			}
-			covered = true
+			a.covered[k] = true
 			if f.Verdict == Accepted {
 				continue // an earlier entry took it
 			}
-			a := *e
-			a.Was = f.Verdict
-			f.Verdict, f.Acceptance = Accepted, &a
+			c := *e
+			c.Was = f.Verdict
+			f.Verdict, f.Acceptance = Accepted, &c
 		}
-		if !covered {
-			stale = append(stale, &StaleAcceptance{Entry: e, Passing: matched})
+	}
+}
+
+// Stale returns one *StaleAcceptance for every entry that covered no
+// failing or warning finding of any result applied, in entry order. An
+// entry limited to a scenario that was not applied (check --scenarios
+// left it out) is not judged.
+func (a *Acceptances) Stale() []error {
+	var stale []error
+	for k := range a.entries {
+		if sc := a.entries[k].Scenario; sc != "" && !a.checked[sc] {
+			continue
+		}
+		if !a.covered[k] {
+			stale = append(stale, &StaleAcceptance{Entry: &a.entries[k], Passing: a.matched[k]})
 		}
 	}
 	return stale

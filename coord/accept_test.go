@@ -64,3 +64,32 @@ func TestAccept(t *testing.T) {
 		t.Errorf("after accepting both failures: counts %d %d %d, failed %v", p, w, f, r.Failed())
 	}
 }
+
+// TestAcceptancesOfScenarios: an entry limited to a scenario accepts
+// that scenario's findings only, and is judged stale only when its
+// scenario was checked (check --scenarios may leave it out).
+func TestAcceptancesOfScenarios(t *testing.T) {
+	entry := Acceptance{Check: "grading", Device: "F1", Scenario: "T2 out", Reason: "r", By: "b", Date: "2026-01-01"}
+	fail := func(scenario string) *Result {
+		return &Result{Findings: []Finding{{Check: Grading, Device: "F1", Other: "INC", Verdict: Fail, Scenario: scenario}}}
+	}
+	a := NewAcceptances([]Acceptance{entry})
+	drawn := fail(AsDrawn)
+	a.Apply(drawn)
+	if drawn.Findings[0].Verdict != Fail {
+		t.Errorf("as drawn: %v, want FAIL (the entry is for T2 out)", drawn.Findings[0].Verdict)
+	}
+	if stale := a.Stale(); len(stale) != 0 {
+		t.Errorf("T2 out not checked: stale %v, want none", stale)
+	}
+	out := fail("T2 out")
+	a.Apply(out)
+	if out.Findings[0].Verdict != Accepted || len(a.Stale()) != 0 {
+		t.Errorf("T2 out: %v, stale %v; want ACCEPTED and none", out.Findings[0].Verdict, a.Stale())
+	}
+	b := NewAcceptances([]Acceptance{entry})
+	b.Apply(&Result{Findings: []Finding{{Check: Grading, Device: "F2", Verdict: Fail, Scenario: "T2 out"}}})
+	if len(b.Stale()) != 1 {
+		t.Errorf("T2 out checked, no finding of F1: stale %v, want the entry", b.Stale())
+	}
+}

@@ -15,11 +15,13 @@ type Snapshot struct {
 	Margin                      float64
 	HasMargin                   bool // false when the finding has no figure
 	Unit                        string
+	// Scenario is the finding's scenario ("" for a study without any).
+	Scenario string
 }
 
 // SnapshotOf takes the snapshot of a finding.
 func SnapshotOf(f Finding) Snapshot {
-	s := Snapshot{Check: f.Check.Slug(), Device: f.Device, Other: f.Other, Stage: f.Stage, Verdict: f.Verdict.String(), Unit: f.Unit}
+	s := Snapshot{Check: f.Check.Slug(), Device: f.Device, Other: f.Other, Stage: f.Stage, Verdict: f.Verdict.String(), Unit: f.Unit, Scenario: f.Scenario}
 	if f.Valid && !math.IsNaN(f.Margin) && !math.IsInf(f.Margin, 0) {
 		s.Margin, s.HasMargin = f.Margin, true
 	}
@@ -93,26 +95,45 @@ func rank(v string) int {
 
 // Compare matches the findings of a run (after) with those of a baseline
 // (before) by check, device, other device and stage (the n-th of equal
-// keys with the n-th), and says how each changed. Changes come in the
-// order of after, then the removed findings in the order of before.
+// keys with the n-th), and says how each changed. Findings of the same
+// scenario are matched first; a finding left over is then matched with
+// one of the same check, device, other device and stage in another
+// scenario, as when the scenario that gives the worst finding of a study
+// with scenarios has changed. Changes come in the order of after, then
+// the removed findings in the order of before.
 func Compare(before, after []Snapshot) []Change {
-	pool := map[string][]int{}
-	for i, s := range before {
-		pool[s.key()] = append(pool[s.key()], i)
-	}
+	match := make([]int, len(after))
 	used := make([]bool, len(before))
+	for _, key := range []func(Snapshot) string{
+		func(s Snapshot) string { return s.key() + fmt.Sprintf(" %q", s.Scenario) },
+		Snapshot.key,
+	} {
+		pool := map[string][]int{}
+		for i, s := range before {
+			if !used[i] {
+				pool[key(s)] = append(pool[key(s)], i)
+			}
+		}
+		for i, a := range after {
+			if match[i] > 0 {
+				continue
+			}
+			if k := key(a); len(pool[k]) > 0 {
+				j := pool[k][0]
+				pool[k] = pool[k][1:]
+				used[j] = true
+				match[i] = j + 1
+			}
+		}
+	}
 	var out []Change
 	for i := range after {
 		a := &after[i]
-		k := a.key()
-		if len(pool[k]) == 0 {
+		if match[i] == 0 {
 			out = append(out, Change{Kind: New, After: a})
 			continue
 		}
-		j := pool[k][0]
-		pool[k] = pool[k][1:]
-		used[j] = true
-		b := &before[j]
+		b := &before[match[i]-1]
 		out = append(out, Change{Kind: classify(b, a), Before: b, After: a})
 	}
 	for j := range before {

@@ -1,6 +1,7 @@
 package coord
 
 import (
+	"errors"
 	"fmt"
 	"math"
 
@@ -61,7 +62,15 @@ func (c *checker) damage() ([]Finding, error) {
 		sub := damageSubject{name: name}
 		if eq.Damage[0] != nil {
 			var err error
-			if sub, err = c.transformerSubject(b, eq, dev); err != nil {
+			var nc *noWithstand
+			sub, err = c.transformerSubject(b, eq, dev)
+			if errors.As(err, &nc) {
+				f := unchecked(Damage, nc.Error())
+				f.Device, f.Other = c.s.Devices[dev].Name, name
+				out = append(out, f)
+				continue
+			}
+			if err != nil {
 				return nil, err
 			}
 		} else {
@@ -88,6 +97,12 @@ func (c *checker) damage() ([]Finding, error) {
 	return out, nil
 }
 
+// noWithstand is a transformer with no through-fault withstand curve to
+// judge it by; its finding is "not checked".
+type noWithstand struct{ msg string }
+
+func (e *noWithstand) Error() string { return e.msg }
+
 // transformerSubject prepares a transformer for the damage check: its
 // withstand on the downstream side (for categories III and IV with the
 // source impedance of IEEE C57.109's mechanical part), measured at its
@@ -110,7 +125,11 @@ func (c *checker) transformerSubject(b int, eq *Equipment, dev int) (damageSubje
 		set.SourceZPct = zs
 		withSource, err := curves.NewThroughFault(set)
 		if err != nil {
-			return sub, fmt.Errorf("transformer %q: through-fault withstand with the source impedance: %w", sub.name, err)
+			// A weak supply (an outage scenario's long way round) can
+			// hold every through-fault below the curve's start: there is
+			// no curve to judge by, which is said, not passed.
+			return sub, &noWithstand{fmt.Sprintf("IEEE C57.109 category %s with the source impedance %.3g %% (maximum-case Thevenin impedance at %s): %v; no withstand curve to judge by",
+				eq.Category, zs, n.Buses[bus].Name, err)}
 		}
 		sub.withstand = withSource
 		sub.note += fmt.Sprintf(", source impedance %.3g %% on the rating (maximum-case Thevenin impedance at %s)", zs, n.Buses[bus].Name)

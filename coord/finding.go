@@ -88,6 +88,9 @@ type Finding struct {
 	// Acceptance is set when an [[accept]] entry covers the finding; the
 	// Verdict is then Accepted (see Accept).
 	Acceptance *Acceptance
+	// Scenario names the operating configuration the finding was made in
+	// (see Scenario); "" for a study checked without scenarios.
+	Scenario string
 }
 
 // FaultRef describes the fault behind a figure.
@@ -158,7 +161,7 @@ func (r *Result) Failed() bool {
 // not finite numbers cannot be compared: the finding is then WARN, and
 // settle gives the reason.
 func atLeast(c CheckKind, measured, required float64, unit string) Finding {
-	f := Finding{Check: c, Measured: measured, Required: required, Margin: measured - required,
+	f := Finding{Check: c, Measured: measured, Required: required, Margin: snapMargin(measured-required, measured, required),
 		Unit: unit, Relation: "≥", Valid: true}
 	f.Verdict = judge(f)
 	return f
@@ -167,11 +170,27 @@ func atLeast(c CheckKind, measured, required float64, unit string) Finding {
 // atMost builds a finding for "measured ≤ required", with atLeast's rule
 // for figures that are not finite.
 func atMost(c CheckKind, measured, required float64, unit string) Finding {
-	f := Finding{Check: c, Measured: measured, Required: required, Margin: required - measured,
+	f := Finding{Check: c, Measured: measured, Required: required, Margin: snapMargin(required-measured, measured, required),
 		Unit: unit, Relation: "≤", Valid: true}
 	f.Verdict = judge(f)
 	return f
 }
+
+// snapMargin returns margin, or 0 when it is rounding residue: no more
+// than roundingShare of the figures it is the difference of. Two
+// definite-time delays 0.3 s apart give 0.57 − 0.27 − 0.3 = 5.6e-17 s in
+// binary floating point, and the verdict must not hang on the last bit
+// (a nanosecond in a second is far below any relay's resolution).
+func snapMargin(margin, measured, required float64) float64 {
+	if math.Abs(margin) <= roundingShare*math.Max(1, math.Max(math.Abs(measured), math.Abs(required))) {
+		return 0
+	}
+	return margin
+}
+
+// roundingShare is the share of a finding's figures below which their
+// difference counts as none.
+const roundingShare = 1e-9
 
 // judge gives a valid finding's verdict from its margin: a negative margin
 // fails, a figure that is not a finite number (a NaN margin compares false

@@ -37,6 +37,11 @@ type Study struct {
 	// Inputs are the files the study was read from, the study file first,
 	// each with the digest of what was read.
 	Inputs []InputFile
+	// Scenarios are the study's operating configurations besides the one
+	// it draws (its own [[scenario]] tables, then the N-1 sweep's
+	// outages); ScenarioNotes say what the sweep left out and why.
+	Scenarios     []Scenario
+	ScenarioNotes []string
 }
 
 // Quantity is what a stage measures.

@@ -20,6 +20,7 @@ type seqState struct {
 	prog, progUp []float64
 	prog0        []float64 // prog at the start of the step being advanced
 	tripAt       []float64 // NaN until the device has tripped
+	upAt         []float64 // NaN until its upstream-time progress has reached one (a fuse melted)
 	open         []bool
 	firstA       []float64 // its current in the intact network
 	proj         []float64 // its upstream-time projection in the current state (+Inf: none)
@@ -30,7 +31,7 @@ type seqState struct {
 
 func (x *netIndex) newSeqState() *seqState {
 	nd := len(x.s.Devices)
-	return &seqState{prog: make([]float64, nd), prog0: make([]float64, nd), progUp: make([]float64, nd), tripAt: make([]float64, nd),
+	return &seqState{prog: make([]float64, nd), prog0: make([]float64, nd), progUp: make([]float64, nd), tripAt: make([]float64, nd), upAt: make([]float64, nd),
 		open: make([]bool, nd), firstA: make([]float64, nd), proj: make([]float64, nd), stamp: make([]uint32, nd)}
 }
 
@@ -50,7 +51,7 @@ func (st *seqState) touch(d int, firstA float64) {
 	}
 	st.stamp[d] = st.gen
 	st.ids = append(st.ids, d)
-	st.prog[d], st.progUp[d], st.tripAt[d], st.open[d], st.firstA[d], st.proj[d] = 0, 0, math.NaN(), false, firstA, math.Inf(1)
+	st.prog[d], st.progUp[d], st.tripAt[d], st.upAt[d], st.open[d], st.firstA[d], st.proj[d] = 0, 0, math.NaN(), math.NaN(), false, firstA, math.Inf(1)
 }
 
 // candidate reports whether a device is followed through a sequence: it
@@ -161,7 +162,14 @@ func (x *netIndex) sequence(ws *workspace, t *tally, crit Criteria, v0 *view, tt
 			}
 			tm := tt.get(d)
 			st.proj[d] = math.Inf(1)
-			if !math.IsInf(tm.up, 1) && !contains(must, d) {
+			switch {
+			case contains(must, d):
+			case !math.IsNaN(st.upAt[d]):
+				// It has reached its upstream time already (a fuse
+				// has melted): that is when it operated, whatever its
+				// current now.
+				st.proj[d] = st.upAt[d]
+			case !math.IsInf(tm.up, 1):
 				st.proj[d] = T + (1-st.progUp[d])*tm.up
 			}
 			if math.IsNaN(st.tripAt[d]) {
@@ -177,10 +185,17 @@ func (x *netIndex) sequence(ws *workspace, t *tally, crit Criteria, v0 *view, tt
 					st.prog[d] = p
 				}
 			}
-			if math.IsInf(tm.up, 1) {
+			switch {
+			case !math.IsNaN(st.upAt[d]):
+			case math.IsInf(tm.up, 1):
 				st.progUp[d] = 0
-			} else {
-				st.progUp[d] += (nextT - T) / tm.up
+			default:
+				if p := st.progUp[d] + (nextT-T)/tm.up; p >= 1-1e-12 {
+					st.upAt[d] = T + (1-st.progUp[d])*tm.up
+					st.progUp[d] = 1
+				} else {
+					st.progUp[d] = p
+				}
 			}
 		}
 		// Open what opens now.
@@ -213,7 +228,9 @@ func (x *netIndex) sequence(ws *workspace, t *tally, crit Criteria, v0 *view, tt
 		sortEvents(evs)
 		T = nextT
 		relieve := func(d int) {
-			if first < 0 || d == first || contains(must, d) || math.IsInf(st.proj[d], 1) {
+			// A device that has tripped already has its trip recorded
+			// (unwanted): nothing relieved it.
+			if first < 0 || d == first || contains(must, d) || math.IsInf(st.proj[d], 1) || !math.IsNaN(st.tripAt[d]) {
 				return
 			}
 			x.offerRelief(t, crit, d, first, st.proj[d], st.tripAt[first], tt, ne, key)

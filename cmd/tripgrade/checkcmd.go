@@ -8,6 +8,7 @@ import (
 
 	"tripgrade/coord"
 	"tripgrade/coord/report"
+	"tripgrade/coord/tcc"
 )
 
 // findingWriters are the formats of the findings table and the file
@@ -24,11 +25,12 @@ var findingWriters = map[string]struct {
 
 // checkOptions are the parsed flags of check and demo.
 type checkOptions struct {
-	formats []string
-	outDir  string
-	strict  bool
-	format  *string
-	review  *reviewOptions
+	formats   []string
+	outDir    string
+	strict    bool
+	format    *string
+	review    *reviewOptions
+	scenarios string
 }
 
 // addCheckFlags adds the flags check and demo share.
@@ -37,6 +39,7 @@ func addCheckFlags(c *cmdLine) *checkOptions {
 	o.format = c.fs.String("format", "text", "table `formats`, comma-separated: text, md, csv, json (the first is printed)")
 	c.fs.StringVar(&o.outDir, "out", "", "also write the table in every format, and the plots, to `DIR`")
 	c.fs.BoolVar(&o.strict, "strict", false, "exit 1 on warnings too (checks that could not be made, CT and damage warnings)")
+	c.fs.StringVar(&o.scenarios, "scenarios", "", "list the findings of `all` the study's scenarios, or of the NAMES given (comma-separated; \"as drawn\" is the study as drawn), each in turn, then the worst of each check, device and stage over them; by default every scenario is checked and only the worst are given")
 	o.review = addReviewFlags(c)
 	return o
 }
@@ -58,6 +61,7 @@ func (o *checkOptions) parseFormats() error {
 func runCheck(args []string, stdout, stderr io.Writer) int {
 	c := newCmdLine("check", `usage: tripgrade check STUDY.toml [--format text|md|csv|json[,...]] [--out DIR] [--strict]
                        [--scope NAMES] [--baseline FINDINGS.json [--fail-on new]] [--report FILE.html]
+                       [--scenarios all|NAMES]
 
 Checks grading margins of every backup pair over the whole fault range, primary and
 backup sensitivity, load margin, instantaneous reach, inrush, equipment damage and
@@ -77,31 +81,57 @@ the settings against their ranges and CTs. Exit 0: nothing fails; 1: a check fai
 	return checkLoaded(l, o, stdout, stderr)
 }
 
-// checkLoaded runs the checks on a prepared study and writes the results.
+// checkLoaded runs the checks on a prepared study, as drawn and in each
+// of its scenarios, and writes the results.
 func checkLoaded(l loaded, o *checkOptions, stdout, stderr io.Writer) int {
-	res, err := coord.Check(l.study, l.engine, l.topo)
-	if err != nil {
-		fmt.Fprintf(stderr, "tripgrade check: %v\n", err)
-		return exitUsage
-	}
-	if !accept(l, res, stderr) {
-		return exitUsage
-	}
-	sc, scope, err := o.review.narrow(l, res)
+	pick, err := o.pickScenarios(l.study)
 	if err != nil {
 		return fprintErr(stderr, err)
 	}
-	tab := report.NewFindings(l.study, res)
-	tab.Scope = scope
-	if tab.Baseline, err = o.review.compare(res, sc); err != nil {
+	var out *outFolder
+	if o.outDir != "" && o.listing() {
+		// The findings of every scenario are streamed into the folder.
+		if out, err = openOutFolder(o.outDir); err == nil {
+			err = out.plan(findingFiles(o))
+		}
+		if err != nil {
+			return fprintErr(stderr, err)
+		}
+	}
+	run, err := newScenarioRun(l, o, stdout, out)
+	if err != nil {
 		return fprintErr(stderr, err)
 	}
-	if err := findingWriters[o.formats[0]].write(tab, stdout); err != nil {
+	run.showProgress(stderr, pick)
+	err = coord.CheckScenarios(l.study, l.engine, l.topo, pick, run.visit)
+	run.endProgress()
+	if err != nil {
+		run.abort()
+		scenarioFailure(l, err, stderr)
+		return exitUsage
+	}
+	if !printStale(l, run.acc.Stale(), stderr) {
+		run.abort()
+		return exitUsage
+	}
+	res := run.result()
+	tab, err := run.table(res)
+	if err != nil {
+		run.abort()
+		return fprintErr(stderr, err)
+	}
+	if o.listing() {
+		wrote, err := run.finish(tab)
+		listWritten(stderr, wrote)
+		if err != nil {
+			return fprintErr(stderr, err)
+		}
+	} else if err := findingWriters[o.formats[0]].write(tab, stdout); err != nil {
 		fmt.Fprintf(stderr, "tripgrade check: %v\n", err)
 		return exitUsage
 	}
 	if o.outDir != "" {
-		wrote, removed, err := writeOutputs(l, res, tab, o)
+		wrote, removed, err := writeOutputs(l, run, tab, o, out)
 		listWritten(stderr, wrote)
 		for _, p := range removed {
 			fmt.Fprintf(stderr, "removed %s (written by an earlier run, not by this one)\n", p)
@@ -112,7 +142,7 @@ func checkLoaded(l loaded, o *checkOptions, stdout, stderr io.Writer) int {
 		}
 	}
 	if _, done := o.reportInOut(); o.review.report != "" && !done {
-		if err := writeReport(l, res, tab, o.review.report, o.review.gate(tab)); err != nil {
+		if err := writeReport(l, run, tab, o.review.report, o.review.gate(tab)); err != nil {
 			return fprintErr(stderr, err)
 		}
 		listWritten(stderr, []string{o.review.report})
@@ -120,26 +150,73 @@ func checkLoaded(l loaded, o *checkOptions, stdout, stderr io.Writer) int {
 	return o.review.exitCode(res, tab, o.strict)
 }
 
-// writeOutputs writes the table in every chosen format and the
-// time-current plots to the output folder, creating it when missing, and
-// the audit report when it is asked for in that folder; it removes the
-// files an earlier run wrote there that this one does not (outFolder).
-// It returns the paths written and those removed.
-func writeOutputs(l loaded, res *coord.Result, tab *report.Findings, o *checkOptions) (wrote, removed []string, err error) {
-	out, err := openOutFolder(o.outDir)
-	if err != nil {
-		return nil, nil, err
+// table makes the findings table of the worst findings: narrowed to the
+// scope, with the pairs only scenarios have and the baseline comparison.
+func (r *scenarioRun) table(res *coord.Result) (*report.Findings, error) {
+	var info *report.ScopeInfo
+	extra := r.worst.ExtraPairs()
+	if r.scope != nil {
+		left := r.scope.Apply(r.first, res)
+		info = report.NewScopeInfo(r.first, r.scope, left)
+		if r.asDrawn != nil {
+			r.scope.Apply(r.l.study, r.asDrawn)
+		}
+		kept := extra[:0:0]
+		for _, p := range extra {
+			if r.scope.Keeps(p.Downstream, p.Upstream) {
+				kept = append(kept, p)
+			}
+		}
+		extra = kept
 	}
-	charts, err := plotCharts(l, res)
-	if err != nil {
-		return nil, nil, err
+	r.res = res
+	tab := report.NewFindings(r.first, res)
+	tab.Study, tab.Cases, tab.Notes = r.l.study.Name, report.CaseLines(r.l.study), r.l.study.Notes
+	tab.Acceptances, tab.Scenarios, tab.ScenarioNotes = r.l.study.Accepts, report.NewScenarioLines(r.l.study), r.l.study.ScenarioNotes
+	if pick, _ := r.o.pickScenarios(r.l.study); pick != nil {
+		tab.KeepScenarios(pick) // the header names only the scenarios checked
 	}
+	tab.AddScenarioPairs(extra)
+	tab.Scope = info
+	var err error
+	tab.Baseline, err = r.o.review.compare(res, r.scope)
+	return tab, err
+}
+
+// findingFiles are the names of the findings tables in the output folder.
+func findingFiles(o *checkOptions) []string {
 	var names []string
 	for _, f := range o.formats {
 		names = append(names, "findings."+findingWriters[f].ext)
 	}
+	return names
+}
+
+// writeOutputs writes the table in every chosen format (unless check
+// --scenarios all streamed them already) and the time-current plots to
+// the output folder, creating it when missing, and the audit report when
+// it is asked for in that folder; it removes the files an earlier run
+// wrote there that this one does not (outFolder). It returns the paths
+// written and those removed.
+func writeOutputs(l loaded, run *scenarioRun, tab *report.Findings, o *checkOptions, out *outFolder) (wrote, removed []string, err error) {
+	if out == nil {
+		if out, err = openOutFolder(o.outDir); err != nil {
+			return nil, nil, err
+		}
+	}
+	var charts []*tcc.Chart
+	if run.asDrawn != nil {
+		if charts, err = plotCharts(l, run.asDrawn); err != nil {
+			return nil, nil, err
+		}
+	}
+	extra := run.pairCharts(run.res)
+	names := findingFiles(o)
 	for _, c := range charts {
 		names = append(names, chartFile(c))
+	}
+	for _, c := range extra {
+		names = append(names, c.name+"."+tcc.PNG.Ext())
 	}
 	reportName, reportHere := o.reportInOut()
 	if reportHere {
@@ -148,21 +225,30 @@ func writeOutputs(l loaded, res *coord.Result, tab *report.Findings, o *checkOpt
 	if err := out.plan(names); err != nil {
 		return nil, nil, err
 	}
-	for _, f := range o.formats {
-		w := findingWriters[f]
-		path, err := out.write("findings."+w.ext, func(b *bytes.Buffer) error { return w.write(tab, b) })
-		if err != nil {
-			return wrote, nil, err
+	if !o.listing() {
+		for _, f := range o.formats {
+			w := findingWriters[f]
+			path, err := out.write("findings."+w.ext, func(b *bytes.Buffer) error { return w.write(tab, b) })
+			if err != nil {
+				return wrote, nil, err
+			}
+			wrote = append(wrote, path)
 		}
-		wrote = append(wrote, path)
 	}
 	plots, err := writePlots(out, charts)
 	wrote = append(wrote, plots...)
 	if err != nil {
 		return wrote, nil, err
 	}
+	for _, c := range extra {
+		path, err := out.write(c.name+"."+tcc.PNG.Ext(), func(b *bytes.Buffer) error { _, err := b.Write(c.out); return err })
+		if err != nil {
+			return wrote, nil, err
+		}
+		wrote = append(wrote, path)
+	}
 	if reportHere {
-		a, err := auditReport(l, res, tab, o.review.gate(tab))
+		a, err := auditReport(l, run, tab, o.review.gate(tab))
 		if err != nil {
 			return wrote, nil, err
 		}

@@ -18,6 +18,8 @@ Lists what changed in the settings between two studies of the same network
 (per relay or fuse, and per stage by label), checks both, and compares every
 finding: new, worse, fixed, better, removed, with the margin before and after.
 [[accept]] entries are not applied: the comparison is of the plain verdicts.
+A study with scenarios is compared by the worst finding of each check, device
+and stage over its scenarios.
 Exit 0: no failing finding is new or worse in NEW; 1: some is; 2: bad input.`)
 	format := c.fs.String("format", "text", "output `format`: text, md or json")
 	if code, done := c.parse(args, 2, "two study files, OLD and NEW", stdout, stderr); done {
@@ -38,11 +40,18 @@ Exit 0: no failing finding is new or worse in NEW; 1: some is; 2: bad input.`)
 		if !ok {
 			return exitUsage
 		}
-		res, err := coord.Check(l.study, l.engine, l.topo)
+		// A study with scenarios gives the worst finding of each check,
+		// device and stage over them, naming its scenario.
+		worst := coord.NewWorst()
+		err := coord.CheckScenarios(l.study, l.engine, l.topo, nil, func(c coord.Checked) error {
+			worst.Add(c.Study, c.Result)
+			return nil
+		})
 		if err != nil {
-			return c.fail(stderr, exitUsage, "%s: %v", path, err)
+			scenarioFailure(l, err, stderr)
+			return exitUsage
 		}
-		runs[k], results[k] = l, res
+		runs[k], results[k] = l, worst.Result()
 	}
 	d := &report.SettingsDiff{
 		Old: runs[0].path, New: runs[1].path, OldStudy: runs[0].study.Name, NewStudy: runs[1].study.Name,

@@ -226,3 +226,69 @@ func (o *outFolder) writeList(names map[string]bool) error {
 	}
 	return writeFileAtomic(filepath.Join(o.dir, manifestName), b.Bytes())
 }
+
+// streamFile is a file of the output folder written piece by piece (the
+// findings of check --scenarios all, which are never held at once): into
+// a temporary file beside it, renamed to its name by commit, so a reader
+// never sees half of it.
+type streamFile struct {
+	o    *outFolder
+	name string
+	tmp  *os.File
+	err  error
+}
+
+// create starts writing the file name of the run.
+func (o *outFolder) create(name string) (*streamFile, error) {
+	path := filepath.Join(o.dir, name)
+	removeStaleTemps(o.dir, name)
+	tmp, err := os.CreateTemp(o.dir, "."+name+".*.tmp")
+	if err != nil {
+		return nil, writeError(path, err)
+	}
+	return &streamFile{o: o, name: name, tmp: tmp}, nil
+}
+
+func (s *streamFile) Write(p []byte) (int, error) {
+	if s.err != nil {
+		return 0, s.err
+	}
+	n, err := s.tmp.Write(p)
+	if err != nil {
+		s.err = writeError(filepath.Join(s.o.dir, s.name), err)
+	}
+	return n, s.err
+}
+
+// commit finishes the file and gives it its name; it returns the path.
+func (s *streamFile) commit() (string, error) {
+	path := filepath.Join(s.o.dir, s.name)
+	cerr := s.tmp.Close()
+	if s.err == nil && cerr != nil {
+		s.err = writeError(path, cerr)
+	}
+	if s.err == nil {
+		if err := os.Chmod(s.tmp.Name(), 0o644); err != nil {
+			s.err = writeError(path, err)
+		}
+	}
+	if s.err == nil {
+		if err := os.Rename(s.tmp.Name(), path); err != nil {
+			s.err = writeError(path, err)
+		}
+	}
+	if s.err != nil {
+		os.Remove(s.tmp.Name())
+		return "", s.err
+	}
+	s.o.mu.Lock()
+	s.o.wrote = append(s.o.wrote, s.name)
+	s.o.mu.Unlock()
+	return path, nil
+}
+
+// abort drops the file.
+func (s *streamFile) abort() {
+	s.tmp.Close()
+	os.Remove(s.tmp.Name())
+}

@@ -83,12 +83,9 @@ func prepare(path string, s *coord.Study, stderr io.Writer) (loaded, bool) {
 	return loaded{path: path, study: s, engine: eng, topo: topo}, true
 }
 
-// accept applies the study's [[accept]] entries to a check's result and
-// prints, with its line, every entry that covers no failing or warning
-// finding. ok is false when there is any: a stale acceptance is an error
-// in the study.
-func accept(l loaded, res *coord.Result, stderr io.Writer) (ok bool) {
-	stale := coord.Accept(res, l.study.Accepts)
+// printStale prints, with its line, every [[accept]] entry that covered
+// no failing or warning finding; ok is false when there is any.
+func printStale(l loaded, stale []error, stderr io.Writer) (ok bool) {
 	for _, err := range stale {
 		var sa *coord.StaleAcceptance
 		if errors.As(err, &sa) && sa.Entry.Line > 0 {

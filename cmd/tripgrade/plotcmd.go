@@ -16,7 +16,7 @@ import (
 // runPlot is "tripgrade plot STUDY.toml --device NAME": the time–current
 // charts of the coordination paths through one device.
 func runPlot(args []string, stdout, stderr io.Writer) int {
-	c := newCmdLine("plot", `usage: tripgrade plot STUDY.toml --device NAME [--out FILE] [--format png|svg]
+	c := newCmdLine("plot", `usage: tripgrade plot STUDY.toml --device NAME [--out FILE] [--format png|svg] [--scenario NAME]
 
 Draws the time-current charts of the coordination paths through a device: the
 curves of the devices from the most downstream one back to the source, the
@@ -29,11 +29,13 @@ FILE; several to FILE-phase and FILE-earth (FILE-phase-1, FILE-phase-2, ...
 when a device lies on several paths or parts), before the extension. The
 files written are listed on standard output. Without --out the file is the
 device's name, made safe, with the format's extension, in the current folder.
-SVG text is drawn as outlines, so it shows the same on any machine. Exit 0
+SVG text is drawn as outlines, so it shows the same on any machine. With
+--scenario, the charts of one of the study's operating scenarios. Exit 0
 when written; 2 when the study, the device or the command line is wrong.`)
 	device := c.fs.String("device", "", "draw the paths through the device `NAME` (required)")
 	out := c.fs.String("out", "", "write to `FILE` (default: the device name and the format's extension)")
 	format := c.fs.String("format", "", "image format, png or svg (default: from the extension of --out, else png)")
+	scenario := c.fs.String("scenario", "", scenarioFlagHelp)
 	if code, done := c.parse(args, 1, "exactly one study file", stdout, stderr); done {
 		return code
 	}
@@ -46,6 +48,9 @@ when written; 2 when the study, the device or the command line is wrong.`)
 	}
 	path := c.fs.Arg(0)
 	l, ok := loadStudy(path, stderr)
+	if ok {
+		l, ok = inScenario(l, *scenario, stderr)
+	}
 	if !ok {
 		return exitUsage
 	}

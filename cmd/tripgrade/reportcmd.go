@@ -17,28 +17,41 @@ import (
 // study to path, atomically: the findings, the digests of the input
 // files, the tool version, the date and every chart, each failing finding
 // linked to the chart its figure is drawn on.
-func writeReport(l loaded, res *coord.Result, tab *report.Findings, path string, gate string) error {
-	a, err := auditReport(l, res, tab, gate)
+func writeReport(l loaded, run *scenarioRun, tab *report.Findings, path string, gate string) error {
+	a, err := auditReport(l, run, tab, gate)
 	if err != nil {
 		return err
 	}
 	return writeTo(path, func(b *bytes.Buffer) error { return a.WriteHTML(b) })
 }
 
-// auditReport gathers the audit report of a checked study (writeReport).
-func auditReport(l loaded, res *coord.Result, tab *report.Findings, gate string) (*report.Audit, error) {
+// auditReport gathers the audit report of a checked study (writeReport):
+// the charts of the study as drawn, and those of the pairs that fail only
+// in a scenario, drawn in it.
+func auditReport(l loaded, run *scenarioRun, tab *report.Findings, gate string) (*report.Audit, error) {
 	date, err := reportDate()
 	if err != nil {
 		return nil, err
 	}
 	a := &report.Audit{Findings: tab, Version: toolVersion(), Date: date, Inputs: l.study.Inputs, Gate: gate}
-	atlas, err := newAtlas(l, res)
-	if err != nil {
-		return nil, fmt.Errorf("charts: %w", err)
+	var atlas *tcc.Atlas
+	var charts []*tcc.Chart
+	if run.asDrawn != nil {
+		if atlas, err = newAtlas(l, run.asDrawn); err != nil {
+			return nil, fmt.Errorf("charts: %w", err)
+		}
+		charts = atlas.Charts()
 	}
-	charts := atlas.Charts()
-	linked := chartOf(atlas, charts, tab.Rows)
-	chosen := chooseCharts(charts, linked, tab.Rows, maxReportCharts)
+	extra := run.pairCharts(run.res)
+	linked := chartOf(atlas, charts, extra, tab.Rows)
+	chosen := chooseCharts(charts, extra, linked, tab.Rows, maxReportCharts)
+	for _, c := range extra {
+		if !chosen[c.name] {
+			a.ChartsLeftOut++
+			continue
+		}
+		a.Charts = append(a.Charts, report.Chart{Name: c.name, Subtitle: c.subtitle, PNG: c.report})
+	}
 	for _, c := range charts {
 		if !chosen[c.Name] {
 			a.ChartsLeftOut++
@@ -67,12 +80,17 @@ const maxReportCharts = 40
 // chooseCharts picks the charts to embed: first those the failing and
 // accepted findings link to, in the order of the rows, then the others
 // (the coordination paths), up to limit.
-func chooseCharts(charts []*tcc.Chart, linked []string, rows []report.Row, limit int) map[string]bool {
+func chooseCharts(charts []*tcc.Chart, extra []*scenarioChart, linked []string, rows []report.Row, limit int) map[string]bool {
 	chosen := map[string]bool{}
 	for k, name := range linked {
 		v := rows[k].Finding.Verdict
 		if name != "" && len(chosen) < limit && (v == coord.Fail || v == coord.Accepted) {
 			chosen[name] = true
+		}
+	}
+	for _, c := range extra {
+		if len(chosen) < limit {
+			chosen[c.name] = true
 		}
 	}
 	for _, c := range charts {
@@ -84,9 +102,10 @@ func chooseCharts(charts []*tcc.Chart, linked []string, rows []report.Row, limit
 }
 
 // chartOf names, per findings row, the chart to look at: a failing
-// pair's own chart for its grading finding, otherwise the first chart of
-// a path through the finding's device.
-func chartOf(atlas *tcc.Atlas, charts []*tcc.Chart, rows []report.Row) []string {
+// pair's own chart for its grading finding (drawn in its scenario when it
+// fails only there), otherwise the first chart of a path through the
+// finding's device.
+func chartOf(atlas *tcc.Atlas, charts []*tcc.Chart, extra []*scenarioChart, rows []report.Row) []string {
 	// The first path chart through each device, and each failing pair's
 	// chart, from one pass over the charts (asking the atlas per row
 	// would rebuild every chart for every row).
@@ -106,9 +125,20 @@ func chartOf(atlas *tcc.Atlas, charts []*tcc.Chart, rows []report.Row) []string 
 			}
 		}
 	}
+	inScenario := map[[3]string]string{}
+	for _, c := range extra {
+		inScenario[[3]string{c.device, c.other, c.scenario}] = c.name
+	}
 	out := make([]string, len(rows))
 	for k, r := range rows {
 		x := r.Finding
+		if name, ok := inScenario[[3]string{x.Device, x.Other, x.Scenario}]; ok && x.Check == coord.Grading {
+			out[k] = name
+			continue
+		}
+		if atlas == nil {
+			continue
+		}
 		i := atlas.Device(x.Device)
 		if i < 0 {
 			continue

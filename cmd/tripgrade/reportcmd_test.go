@@ -333,11 +333,11 @@ func TestChooseCharts(t *testing.T) {
 	}
 	rows := []report.Row{{Finding: coord.Finding{Verdict: coord.Pass}}, {Finding: coord.Finding{Verdict: coord.Fail}}, {Finding: coord.Finding{Verdict: coord.Accepted}}}
 	linked := []string{"path-a", "pair-y", "pair-x"}
-	got := chooseCharts(charts, linked, rows, 2)
+	got := chooseCharts(charts, nil, linked, rows, 2)
 	if len(got) != 2 || !got["pair-y"] || !got["pair-x"] {
 		t.Errorf("chose %v, want the two linked from failing and accepted rows", got)
 	}
-	if got := chooseCharts(charts, linked, rows, 10); len(got) != 4 {
+	if got := chooseCharts(charts, nil, linked, rows, 10); len(got) != 4 {
 		t.Errorf("chose %v, want all four", got)
 	}
 }

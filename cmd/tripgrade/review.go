@@ -55,24 +55,6 @@ func (r *reviewOptions) scopeNames() []string {
 	return out
 }
 
-// narrow applies --scope to a result and returns the scope and what it
-// left out (nil when no scope was asked for).
-func (r *reviewOptions) narrow(l loaded, res *coord.Result) (*coord.Scope, *report.ScopeInfo, error) {
-	if r.scope == "" {
-		return nil, nil, nil
-	}
-	names := r.scopeNames()
-	if len(names) == 0 {
-		return nil, nil, fmt.Errorf("--scope: give at least one name")
-	}
-	sc, err := coord.NewScope(l.study, l.topo, res.Pairs, names)
-	if err != nil {
-		return nil, nil, err
-	}
-	left := sc.Apply(l.study, res)
-	return sc, report.NewScopeInfo(l.study, sc, left), nil
-}
-
 // compare reads --baseline and compares the (scoped) result with it.
 func (r *reviewOptions) compare(res *coord.Result, sc *coord.Scope) (*report.Comparison, error) {
 	if r.baseline == "" {

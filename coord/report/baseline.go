@@ -24,6 +24,7 @@ func ReadSnapshots(r io.Reader) ([]coord.Snapshot, error) {
 			Stage    string   `json:"stage"`
 			Margin   *float64 `json:"margin"`
 			Unit     string   `json:"unit"`
+			Scenario string   `json:"scenario"`
 			Accepted *struct {
 				Was string `json:"was"`
 			} `json:"accepted"`
@@ -43,7 +44,7 @@ func ReadSnapshots(r io.Reader) ([]coord.Snapshot, error) {
 		if f.Check == "" || f.Device == "" || f.Verdict == "" {
 			return nil, fmt.Errorf("finding %d: check, device and verdict are required", i+1)
 		}
-		s := coord.Snapshot{Check: f.Check, Device: f.Device, Other: f.Other, Stage: f.Stage, Verdict: f.Verdict, Unit: f.Unit}
+		s := coord.Snapshot{Check: f.Check, Device: f.Device, Other: f.Other, Stage: f.Stage, Verdict: f.Verdict, Unit: f.Unit, Scenario: f.Scenario}
 		if f.Margin != nil {
 			s.Margin, s.HasMargin = *f.Margin, true
 		}
@@ -159,12 +160,39 @@ func (c *Comparison) writeText(w io.Writer) {
 		return
 	}
 	t := &textTable{head: []string{"change", "check", "device", "other", "stage", "verdict", "margin"}}
+	scenarios := c.scenarios()
+	if scenarios {
+		t.head = append(t.head, "scenario")
+	}
 	for _, x := range ch {
 		s := either(x)
-		t.rows = append(t.rows, []string{x.Kind.String(), s.Check, s.Device, dash(s.Other), dash(s.Stage), verdictText(x), marginText(x)})
+		row := []string{x.Kind.String(), s.Check, s.Device, dash(s.Other), dash(s.Stage), verdictText(x), marginText(x)}
+		if scenarios {
+			row = append(row, scenarioText(x))
+		}
+		t.rows = append(t.rows, row)
 		t.under = append(t.under, "")
 	}
 	t.write(w)
+}
+
+// scenarios reports whether the findings compared name scenarios.
+func (c *Comparison) scenarios() bool {
+	for _, x := range c.Changes {
+		if (x.Before != nil && x.Before.Scenario != "") || (x.After != nil && x.After.Scenario != "") {
+			return true
+		}
+	}
+	return false
+}
+
+// scenarioText gives a change's scenario, "before → after" when it moved.
+func scenarioText(ch coord.Change) string {
+	sc := func(s *coord.Snapshot) string { return dash(s.Scenario) }
+	if ch.Before != nil && ch.After != nil && ch.Before.Scenario != ch.After.Scenario {
+		return sc(ch.Before) + " → " + sc(ch.After)
+	}
+	return sc(either(ch))
 }
 
 // writeMarkdown writes the comparison section of the Markdown report.
@@ -178,16 +206,26 @@ func (c *Comparison) writeMarkdown(w io.Writer) {
 		fmt.Fprintln(w, "\nNo finding changed.")
 		return
 	}
-	fmt.Fprintln(w, "\n| change | check | device | other | stage | verdict | margin |\n| --- | --- | --- | --- | --- | --- | ---: |")
+	scenarios := c.scenarios()
+	head, rule := "| change | check | device | other | stage | verdict | margin |", "| --- | --- | --- | --- | --- | --- | ---: |"
+	if scenarios {
+		head, rule = head+" scenario |", rule+" --- |"
+	}
+	fmt.Fprintf(w, "\n%s\n%s\n", head, rule)
 	for _, x := range ch {
 		s := either(x)
-		fmt.Fprintf(w, "| %s | %s | %s | %s | %s | %s | %s |\n", x.Kind, md(s.Check), md(s.Device), md(s.Other), md(s.Stage), verdictText(x), md(marginText(x)))
+		line := fmt.Sprintf("| %s | %s | %s | %s | %s | %s | %s |", x.Kind, md(s.Check), md(s.Device), md(s.Other), md(s.Stage), verdictText(x), md(marginText(x)))
+		if scenarios {
+			line += " " + md(scenarioText(x)) + " |"
+		}
+		fmt.Fprintln(w, line)
 	}
 }
 
 type jsonSide struct {
-	Verdict string   `json:"verdict"`
-	Margin  *float64 `json:"margin,omitempty"`
+	Verdict  string   `json:"verdict"`
+	Margin   *float64 `json:"margin,omitempty"`
+	Scenario string   `json:"scenario,omitempty"`
 }
 
 type jsonChange struct {
@@ -220,7 +258,7 @@ func (c *Comparison) json() *jsonComparison {
 		if s == nil {
 			return nil
 		}
-		out := &jsonSide{Verdict: s.Verdict}
+		out := &jsonSide{Verdict: s.Verdict, Scenario: s.Scenario}
 		if s.HasMargin {
 			m := s.Margin
 			out.Margin = &m

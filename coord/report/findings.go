@@ -14,6 +14,11 @@ type Findings struct {
 	Study    string
 	Cases    []string
 	Criteria []string
+	// CheckNotes are the lines the check added to the criteria (faults
+	// left to a source's own protection, parts no device clears): the
+	// tail of Criteria, which a scenario's section prints under its
+	// heading.
+	CheckNotes []string
 	// Notes are what loading the study assumed where its input left a
 	// choice (coord.Study.Notes).
 	Notes    []string
@@ -31,12 +36,59 @@ type Findings struct {
 	// earlier run.
 	Scope    *ScopeInfo
 	Baseline *Comparison
+	// Scenarios lists the study's scenarios, the study as drawn first,
+	// when it has any: each finding is then the worst of its check,
+	// device, other device and stage over them all, and names the
+	// scenario it comes from. ScenarioNotes say what the N-1 sweep left
+	// out. Section, when set, names the one scenario this table is of
+	// (check --scenarios all), whose header the full report gives.
+	Scenarios     []ScenarioLine
+	ScenarioNotes []string
+	Section       *ScenarioLine
+	// Picked is set when only some of the study's scenarios were checked
+	// (KeepScenarios).
+	Picked bool
 }
 
-// PairRow is one backup pair by name.
+// KeepScenarios leaves in Scenarios only those that keep picks: the
+// scenarios a run checked, when it did not check them all.
+func (f *Findings) KeepScenarios(keep func(name string) bool) {
+	var kept []ScenarioLine
+	for _, s := range f.Scenarios {
+		if keep(s.Name) {
+			kept = append(kept, s)
+		}
+	}
+	if len(kept) < len(f.Scenarios) {
+		f.Scenarios, f.Picked = kept, true
+	}
+}
+
+// ScenarioLine is one scenario in a report's header.
+type ScenarioLine struct {
+	Name, Changes string
+	Outage        bool
+}
+
+// NewScenarioLines lists a study's scenarios for a report, the study as
+// drawn first; nil when it has none.
+func NewScenarioLines(s *coord.Study) []ScenarioLine {
+	if len(s.Scenarios) == 0 {
+		return nil
+	}
+	out := []ScenarioLine{{Name: coord.AsDrawn, Changes: "every element in service, every switch as normally operated"}}
+	for _, sc := range s.Scenarios {
+		out = append(out, ScenarioLine{Name: sc.Name, Changes: sc.Changes, Outage: sc.Outage})
+	}
+	return out
+}
+
+// PairRow is one backup pair by name; Scenario names the scenario it was
+// first found in when the study as drawn does not have it.
 type PairRow struct {
 	Upstream, Downstream string
 	Manual               bool
+	Scenario             string
 }
 
 // Row is one finding with its figures formatted.
@@ -48,13 +100,13 @@ type Row struct {
 
 // NewFindings formats a check's result.
 func NewFindings(s *coord.Study, r *coord.Result) *Findings {
-	f := &Findings{Study: s.Name, Cases: CaseLines(s), Criteria: append(criteriaLines(s.Criteria), r.Notes...), Notes: s.Notes}
+	f := &Findings{Study: s.Name, Cases: CaseLines(s), Criteria: append(criteriaLines(s.Criteria), r.Notes...), CheckNotes: r.Notes, Notes: s.Notes}
 	name := func(i int) string { return s.Devices[i].Name }
 	for _, p := range r.Pairs {
-		f.Pairs = append(f.Pairs, PairRow{name(p.Upstream), name(p.Downstream), p.Manual})
+		f.Pairs = append(f.Pairs, PairRow{Upstream: name(p.Upstream), Downstream: name(p.Downstream), Manual: p.Manual})
 	}
 	for _, p := range r.Excluded {
-		f.Excluded = append(f.Excluded, PairRow{name(p.Upstream), name(p.Downstream), false})
+		f.Excluded = append(f.Excluded, PairRow{Upstream: name(p.Upstream), Downstream: name(p.Downstream)})
 	}
 	for _, x := range r.Findings {
 		f.Rows = append(f.Rows, newRow(x))
@@ -62,7 +114,17 @@ func NewFindings(s *coord.Study, r *coord.Result) *Findings {
 	f.Pass, f.Warn, f.Fail = r.Counts()
 	f.Accepted = r.Accepted()
 	f.Acceptances = s.Accepts
+	f.Scenarios = NewScenarioLines(s)
+	f.ScenarioNotes = s.ScenarioNotes
 	return f
+}
+
+// AddScenarioPairs adds the backup pairs that only scenarios other than
+// the study as drawn have.
+func (f *Findings) AddScenarioPairs(ps []coord.ScenarioPair) {
+	for _, p := range ps {
+		f.Pairs = append(f.Pairs, PairRow{Upstream: p.Upstream, Downstream: p.Downstream, Manual: p.Manual, Scenario: p.Scenario})
+	}
 }
 
 func newRow(x coord.Finding) Row {
@@ -199,6 +261,9 @@ func (f *Findings) Verdict() string {
 
 // groups returns the rows of each check in report order.
 func (f *Findings) groups() [][]Row {
+	if out, ok := f.runs(); ok {
+		return out
+	}
 	var out [][]Row
 	for _, c := range coord.CheckKinds {
 		var g []Row
@@ -212,6 +277,35 @@ func (f *Findings) groups() [][]Row {
 		}
 	}
 	return out
+}
+
+// runs returns the groups as parts of f.Rows, without copying them, when
+// the rows already come check by check in the order of coord.CheckKinds
+// (as a check's result gives them).
+func (f *Findings) runs() ([][]Row, bool) {
+	rank := map[coord.CheckKind]int{}
+	for i, c := range coord.CheckKinds {
+		rank[c] = i
+	}
+	var out [][]Row
+	start := 0
+	for i := 1; i <= len(f.Rows); i++ {
+		if i < len(f.Rows) && f.Rows[i].Finding.Check == f.Rows[start].Finding.Check {
+			continue
+		}
+		if i < len(f.Rows) {
+			a, oka := rank[f.Rows[start].Finding.Check]
+			b, okb := rank[f.Rows[i].Finding.Check]
+			if !oka || !okb || a >= b {
+				return nil, false
+			}
+		} else if _, ok := rank[f.Rows[start].Finding.Check]; !ok {
+			return nil, false
+		}
+		out = append(out, f.Rows[start:i:i])
+		start = i
+	}
+	return out, true
 }
 
 // withHeading names the "other" column for a check.
@@ -242,6 +336,9 @@ func pairText(p PairRow) string {
 	s := p.Upstream + " → " + p.Downstream
 	if p.Manual {
 		s += " (added by [[pair]])"
+	}
+	if p.Scenario != "" {
+		s += " (in scenario " + p.Scenario + ")"
 	}
 	return s
 }

@@ -100,13 +100,18 @@ var auditTemplate = template.Must(template.New("audit").Funcs(template.FuncMap{
 <ul>{{range .F.Cases}}<li>{{.}}</li>{{end}}</ul>
 <h3>Criteria</h3>
 <ul>{{range .F.Criteria}}<li>{{.}}</li>{{end}}</ul>
+{{- with .Scenarios}}
+<h3>Scenarios</h3>
+<p>Each finding is the worst of its check, device and stage over these operating configurations, and names the one it comes from.</p>
+<ul>{{range .}}<li>{{.}}</li>{{end}}</ul>
+{{- end}}
 {{- with .F.Notes}}
 <h3>Assumed in reading the input</h3>
 <ul>{{range .}}<li>{{.}}</li>{{end}}</ul>
 {{- end}}
 <h3>Backup pairs (upstream → downstream)</h3>
 <ul>
-{{- range .F.Pairs}}<li>{{.Upstream}} → {{.Downstream}}{{if .Manual}} (added by [[pair]]){{end}}</li>{{else}}<li>none</li>{{end}}
+{{- range .F.Pairs}}<li>{{.Upstream}} → {{.Downstream}}{{if .Manual}} (added by [[pair]]){{end}}{{with .Scenario}} (in scenario {{.}}){{end}}</li>{{else}}<li>none</li>{{end}}
 {{- range .F.Excluded}}<li>excluded by [[pair]]: {{.Upstream}} → {{.Downstream}}</li>{{end}}
 </ul>
 
@@ -140,9 +145,9 @@ var auditTemplate = template.Must(template.New("audit").Funcs(template.FuncMap{
 {{- range .Groups}}
 <h3>{{.Title}}</h3>
 <table>
-<tr><th>verdict</th><th>{{.Subject}}</th>{{if .With}}<th>{{.With}}</th>{{end}}<th>stage</th><th>measured</th><th>required</th><th>margin</th><th>fault</th><th>detail</th><th>note</th><th>chart</th></tr>
+<tr><th>verdict</th><th>{{.Subject}}</th>{{if .With}}<th>{{.With}}</th>{{end}}<th>stage</th><th>measured</th><th>required</th><th>margin</th>{{if $.ByScenario}}<th>scenario</th>{{end}}<th>fault</th><th>detail</th><th>note</th><th>chart</th></tr>
 {{- range .Rows}}
-<tr class="{{.Class}}"><td class="verdict">{{.Verdict}}</td><td>{{.Device}}</td>{{if .HasOther}}<td>{{.Other}}</td>{{end}}<td>{{.Stage}}</td><td class="num">{{.Measured}}</td><td class="num">{{.Required}}</td><td class="num">{{.Margin}}</td><td>{{.Fault}}</td><td>{{.Detail}}</td><td>{{.Note}}{{with .Accepted}}<br><strong>{{.}}</strong>{{end}}</td><td>{{if .Chart}}<a href="#chart-{{.Chart}}">chart</a>{{end}}</td></tr>
+<tr class="{{.Class}}"><td class="verdict">{{.Verdict}}</td><td>{{.Device}}</td>{{if .HasOther}}<td>{{.Other}}</td>{{end}}<td>{{.Stage}}</td><td class="num">{{.Measured}}</td><td class="num">{{.Required}}</td><td class="num">{{.Margin}}</td>{{if $.ByScenario}}<td>{{.Scenario}}</td>{{end}}<td>{{.Fault}}</td><td>{{.Detail}}</td><td>{{.Note}}{{with .Accepted}}<br><strong>{{.}}</strong>{{end}}</td><td>{{if .Chart}}<a href="#chart-{{.Chart}}">chart</a>{{end}}</td></tr>
 {{- end}}
 </table>
 {{- end}}
@@ -171,7 +176,7 @@ var auditTemplate = template.Must(template.New("audit").Funcs(template.FuncMap{
 type htmlRow struct {
 	Class, Verdict, Device, Other, Stage      string
 	Measured, Required, Margin, Fault, Detail string
-	Note, Accepted, Chart                     string
+	Note, Accepted, Chart, Scenario           string
 	HasOther                                  bool
 }
 
@@ -209,7 +214,13 @@ func (a *Audit) WriteHTML(w io.Writer) error {
 		Groups                            []htmlGroup
 		Charts                            []htmlChart
 		LeftOut                           int
-	}{LeftOut: a.ChartsLeftOut, CSP: contentSecurityPolicy(), Caution: Caution, Version: a.Version, Date: a.Date, Gate: a.Gate, F: f, Inputs: a.Inputs, Scope: f.Scope.lines()}
+		Scenarios                         []string
+		ByScenario                        bool
+	}{LeftOut: a.ChartsLeftOut, CSP: contentSecurityPolicy(), Caution: Caution, Version: a.Version, Date: a.Date, Gate: a.Gate, F: f, Inputs: a.Inputs, Scope: f.Scope.lines(),
+		ByScenario: f.Scenarios != nil}
+	for _, l := range f.scenarioLines()[min(1, len(f.Scenarios)):] {
+		data.Scenarios = append(data.Scenarios, strings.TrimSpace(l))
+	}
 	if b := f.Baseline; b != nil {
 		var rows []htmlChange
 		for _, x := range b.changed() {
@@ -232,7 +243,7 @@ func (a *Audit) WriteHTML(w io.Writer) error {
 			x := r.Finding
 			hr := htmlRow{Class: strings.ToLower(x.Verdict.String()), Verdict: x.Verdict.String(), Device: x.Device, Other: x.Other,
 				Stage: x.Stage, Measured: r.Measured, Required: r.Required, Margin: r.Margin, Fault: r.Fault, Detail: r.Detail,
-				Note: x.Note, HasOther: hg.With != ""}
+				Note: x.Note, HasOther: hg.With != "", Scenario: dash(x.Scenario)}
 			if x.Acceptance != nil {
 				hr.Accepted = acceptanceText(x.Acceptance)
 			}

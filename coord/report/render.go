@@ -2,7 +2,6 @@ package report
 
 import (
 	"encoding/csv"
-	"encoding/json"
 	"fmt"
 	"io"
 	"math"
@@ -15,12 +14,23 @@ import (
 // table per check, then the summary line and the caution.
 func (f *Findings) WriteText(w io.Writer) error {
 	ew := &errWriter{w: w}
-	fmt.Fprintf(ew, "tripgrade coordination check: %s\n", f.Study)
-	for _, c := range append(append(append([]string{}, f.Cases...), f.Criteria...), f.Scope.lines()...) {
-		fmt.Fprintf(ew, "  %s\n", wrap(c, TextWidth-2, "      "))
-	}
-	for _, n := range f.Notes {
-		fmt.Fprintf(ew, "  note: %s\n", n)
+	if f.Section != nil {
+		fmt.Fprintf(ew, "\n=== scenario %s: %s ===\n", f.Section.Name, f.Section.Changes)
+		for _, c := range f.CheckNotes {
+			fmt.Fprintf(ew, "  %s\n", wrap(c, TextWidth-2, "      "))
+		}
+	} else {
+		fmt.Fprintf(ew, "tripgrade coordination check: %s\n", f.Study)
+		for _, c := range append(append(append([]string{}, f.Cases...), f.Criteria...), f.Scope.lines()...) {
+			fmt.Fprintf(ew, "  %s\n", wrap(c, TextWidth-2, "      "))
+		}
+		for _, n := range f.Notes {
+			fmt.Fprintf(ew, "  note: %s\n", n)
+		}
+		for _, s := range f.scenarioLines() {
+			indent := strings.Repeat(" ", 2+len(s)-len(strings.TrimLeft(s, " ")))
+			fmt.Fprintf(ew, "%s%s\n", indent, wrap(s, TextWidth-len(indent), indent+"    "))
+		}
 	}
 	fmt.Fprintf(ew, "\nBackup pairs (upstream → downstream, from the topology and the fault-current direction):\n")
 	for _, p := range f.Pairs {
@@ -34,11 +44,46 @@ func (f *Findings) WriteText(w io.Writer) error {
 	}
 	for _, g := range f.groups() {
 		fmt.Fprintf(ew, "\n%s\n", strings.ToUpper(g[0].Finding.Check.String()))
-		findingsTable(g).write(ew)
+		findingsTable(g, f.Scenarios != nil).write(ew)
 	}
 	f.Baseline.writeText(ew)
+	if f.Section != nil {
+		fmt.Fprintf(ew, "\nscenario %s: %s\n", f.Section.Name, f.Verdict())
+		return ew.err
+	}
 	fmt.Fprintf(ew, "\n%s\n%s\n", f.Verdict(), Caution)
 	return ew.err
+}
+
+// scenarioLines describes the scenarios for a report's header: each of
+// the study's own, and the N-1 sweep in a line or two.
+func (f *Findings) scenarioLines() []string {
+	if f.Scenarios == nil {
+		return nil
+	}
+	out := []string{"scenarios (each finding is the worst of its check, device and stage over them all, and names the scenario it comes from):"}
+	if f.Picked {
+		out[0] = "scenarios checked, as --scenarios asked (each finding is the worst of its check, device and stage over them, and names the scenario it comes from):"
+	}
+	outages, first := 0, ""
+	for _, s := range f.Scenarios {
+		if s.Outage {
+			if outages == 0 {
+				first = s.Name
+			}
+			outages++
+			continue
+		}
+		out = append(out, fmt.Sprintf("  %s: %s", s.Name, s.Changes))
+	}
+	if outages > 0 {
+		what := fmt.Sprintf("%d N-1 outages, each", outages)
+		if outages == 1 {
+			what = "1 N-1 outage,"
+		}
+		out = append(out, fmt.Sprintf("  %s named after the element out of service (%q)", what, first))
+	}
+	return append(out, f.ScenarioNotes...)
 }
 
 func dash(s string) string {
@@ -51,12 +96,29 @@ func dash(s string) string {
 // WriteMarkdown writes the findings as Markdown: a table per check.
 func (f *Findings) WriteMarkdown(w io.Writer) error {
 	ew := &errWriter{w: w}
-	fmt.Fprintf(ew, "# Coordination check: %s\n\n> %s\n\n", md(f.Study), Caution)
-	for _, c := range append(append(append([]string{}, f.Cases...), f.Criteria...), f.Scope.lines()...) {
-		fmt.Fprintf(ew, "- %s\n", md(c))
-	}
-	for _, n := range f.Notes {
-		fmt.Fprintf(ew, "- note: %s\n", md(n))
+	if f.Section != nil {
+		fmt.Fprintf(ew, "\n# Scenario %s\n\n%s\n", md(f.Section.Name), md(f.Section.Changes))
+		if len(f.CheckNotes) > 0 {
+			fmt.Fprintln(ew)
+		}
+		for _, c := range f.CheckNotes {
+			fmt.Fprintf(ew, "- %s\n", md(c))
+		}
+	} else {
+		fmt.Fprintf(ew, "# Coordination check: %s\n\n> %s\n\n", md(f.Study), Caution)
+		for _, c := range append(append(append([]string{}, f.Cases...), f.Criteria...), f.Scope.lines()...) {
+			fmt.Fprintf(ew, "- %s\n", md(c))
+		}
+		for _, n := range f.Notes {
+			fmt.Fprintf(ew, "- note: %s\n", md(n))
+		}
+		for _, s := range f.scenarioLines() {
+			indent := ""
+			if strings.HasPrefix(s, "  ") {
+				indent = "  "
+			}
+			fmt.Fprintf(ew, "%s- %s\n", indent, md(strings.TrimSpace(s)))
+		}
 	}
 	fmt.Fprintf(ew, "\n**%s**\n\n## Backup pairs\n\n", f.Verdict())
 	for _, p := range f.Pairs {
@@ -73,7 +135,11 @@ func (f *Findings) WriteMarkdown(w io.Writer) error {
 		if with != "" {
 			head, rule = head+" "+with+" |", rule+" --- |"
 		}
-		fmt.Fprintf(ew, "%s stage | measured | required | margin | fault | detail | note |\n%s --- | ---: | ---: | ---: | --- | --- | --- |\n", head, rule)
+		head, rule = head+" stage | measured | required | margin |", rule+" --- | ---: | ---: | ---: |"
+		if f.Scenarios != nil {
+			head, rule = head+" scenario |", rule+" --- |"
+		}
+		fmt.Fprintf(ew, "%s fault | detail | note |\n%s --- | --- | --- |\n", head, rule)
 		for _, r := range g {
 			x := r.Finding
 			v := x.Verdict.String()
@@ -88,7 +154,11 @@ func (f *Findings) WriteMarkdown(w io.Writer) error {
 			if x.Acceptance != nil {
 				note = strings.TrimPrefix(note+"; "+acceptanceText(x.Acceptance), "; ")
 			}
-			fmt.Fprintf(ew, "%s %s | %s | %s | %s | %s | %s | %s |\n", line, md(x.Stage), md(r.Measured), md(r.Required), md(r.Margin), md(r.Fault), md(r.Detail), md(note))
+			line += fmt.Sprintf(" %s | %s | %s | %s |", md(x.Stage), md(r.Measured), md(r.Required), md(r.Margin))
+			if f.Scenarios != nil {
+				line += " " + md(x.Scenario) + " |"
+			}
+			fmt.Fprintf(ew, "%s %s | %s | %s |\n", line, md(r.Fault), md(r.Detail), md(note))
 		}
 	}
 	f.Baseline.writeMarkdown(ew)
@@ -123,9 +193,21 @@ func quantityName(a float64, q coord.Quantity) string {
 // finite number is written as NaN or ±Inf; the times of the checks that
 // time their devices are written whenever the finding has a fault, zero
 // included.
-func (f *Findings) WriteCSV(w io.Writer) error {
+func (f *Findings) WriteCSV(w io.Writer) error { return f.WriteCSVRows(w, true) }
+
+// WriteCSVRows writes WriteCSV's rows, with its header row when header is
+// set (check --scenarios all writes the rows of each scenario in turn
+// under one header). A table with scenarios has a last column, scenario.
+func (f *Findings) WriteCSVRows(w io.Writer, header bool) error {
 	cw := csv.NewWriter(w)
-	cw.Write(csvHeader)
+	scenarios := f.Scenarios != nil || f.Section != nil
+	if header {
+		h := csvHeader
+		if scenarios {
+			h = append(append([]string(nil), csvHeader...), "scenario")
+		}
+		cw.Write(h)
+	}
 	num := func(v float64, ok bool) string {
 		if !ok {
 			return ""
@@ -144,114 +226,12 @@ func (f *Findings) WriteCSV(w io.Writer) error {
 		} else {
 			rec = append(rec, "", "", "", "", "", "", "", "", "", "", "")
 		}
-		cw.Write(append(rec, textCell(x.Note)))
+		rec = append(rec, textCell(x.Note))
+		if scenarios {
+			rec = append(rec, textCell(x.Scenario))
+		}
+		cw.Write(rec)
 	}
 	cw.Flush()
 	return cw.Error()
-}
-
-// WriteJSON writes the findings as one JSON document.
-func (f *Findings) WriteJSON(w io.Writer) error {
-	type fault struct {
-		Kind         string      `json:"kind"`
-		Case         string      `json:"case"`
-		Place        string      `json:"place"`
-		Interpolated bool        `json:"interpolated"`
-		Scale        *jsonNumber `json:"sweep_scale,omitempty"`
-		DeviceA      *jsonNumber `json:"device_current_a,omitempty"`
-		DeviceQty    string      `json:"device_quantity,omitempty"`
-		OtherA       *jsonNumber `json:"other_current_a,omitempty"`
-		OtherQty     string      `json:"other_quantity,omitempty"`
-		DeviceS      *jsonNumber `json:"device_time_s,omitempty"`
-		OtherS       *jsonNumber `json:"other_time_s,omitempty"`
-	}
-	type finding struct {
-		Check    string      `json:"check"`
-		Verdict  string      `json:"verdict"`
-		Device   string      `json:"device"`
-		Other    string      `json:"other,omitempty"`
-		Stage    string      `json:"stage,omitempty"`
-		Measured *jsonNumber `json:"measured,omitempty"`
-		Required *jsonNumber `json:"required,omitempty"`
-		Margin   *jsonNumber `json:"margin,omitempty"`
-		Unit     string      `json:"unit,omitempty"`
-		Relation string      `json:"relation,omitempty"`
-		Fault    *fault      `json:"fault,omitempty"`
-		Note     string      `json:"note,omitempty"`
-		Accepted *accepted   `json:"accepted,omitempty"`
-	}
-	type pair struct {
-		Upstream   string `json:"upstream"`
-		Downstream string `json:"downstream"`
-		Manual     bool   `json:"added_by_study"`
-	}
-	doc := struct {
-		Schema   int        `json:"schema_version"`
-		Study    string     `json:"study"`
-		Caution  string     `json:"caution"`
-		Cases    []string   `json:"cases"`
-		Criteria []string   `json:"criteria"`
-		Notes    []string   `json:"notes,omitempty"`
-		Pairs    []pair     `json:"pairs"`
-		Excluded []pair     `json:"excluded_pairs"`
-		Findings []finding  `json:"findings"`
-		Accepts  []accepted `json:"acceptances"`
-		Summary  struct {
-			Pass     int    `json:"pass"`
-			Warn     int    `json:"warn"`
-			Fail     int    `json:"fail"`
-			Accepted int    `json:"accepted"`
-			Text     string `json:"text"`
-		} `json:"summary"`
-		Scope    *jsonScope      `json:"scope,omitempty"`
-		Baseline *jsonComparison `json:"baseline,omitempty"`
-	}{Schema: SchemaVersion, Study: f.Study, Accepts: []accepted{}, Caution: Caution, Cases: f.Cases, Criteria: f.Criteria, Notes: f.Notes,
-		Pairs: []pair{}, Excluded: []pair{}, Findings: []finding{}}
-	for _, p := range f.Pairs {
-		doc.Pairs = append(doc.Pairs, pair{p.Upstream, p.Downstream, p.Manual})
-	}
-	for _, p := range f.Excluded {
-		doc.Excluded = append(doc.Excluded, pair{p.Upstream, p.Downstream, false})
-	}
-	for _, r := range f.Rows {
-		x := r.Finding
-		j := finding{Check: x.Check.Slug(), Verdict: x.Verdict.String(), Device: x.Device, Other: x.Other, Stage: x.Stage,
-			Unit: x.Unit, Relation: x.Relation, Note: x.Note}
-		if x.Valid {
-			j.Measured, j.Required, j.Margin = num(x.Measured), num(x.Required), num(x.Margin)
-		}
-		if a := x.Acceptance; a != nil {
-			j.Accepted = &accepted{Reason: a.Reason, By: a.By, Date: a.Date, Was: a.Was.String()}
-		}
-		if ft := x.Fault; ft != nil {
-			jf := &fault{Kind: ft.Kind.String(), Case: ft.Case.String(), Place: ft.Place, Interpolated: ft.Interpolated,
-				DeviceQty: quantityName(ft.DeviceA, ft.DeviceQty), OtherQty: quantityName(ft.OtherA, ft.OtherQty)}
-			if ft.Interpolated {
-				jf.Scale = num(ft.Scale)
-			}
-			// A current of 0 is "none": the device carries no current of
-			// that quantity (the engine cuts rounding residue to exact 0).
-			if ft.DeviceA != 0 {
-				jf.DeviceA = num(ft.DeviceA)
-			}
-			if ft.OtherA != 0 {
-				jf.OtherA = num(ft.OtherA)
-			}
-			if x.Check.Timed() {
-				jf.DeviceS, jf.OtherS = num(ft.DeviceS), num(ft.OtherS)
-			}
-			j.Fault = jf
-		}
-		doc.Findings = append(doc.Findings, j)
-	}
-	for _, a := range f.Acceptances {
-		doc.Accepts = append(doc.Accepts, accepted{Check: a.Check, Device: a.Device, Other: a.Other, Stage: a.Stage, Reason: a.Reason, By: a.By, Date: a.Date})
-	}
-	doc.Summary.Pass, doc.Summary.Warn, doc.Summary.Fail, doc.Summary.Text = f.Pass, f.Warn, f.Fail, f.Verdict()
-	doc.Summary.Accepted = f.Accepted
-	doc.Scope = f.Scope.json()
-	doc.Baseline = f.Baseline.json()
-	enc := json.NewEncoder(w)
-	enc.SetIndent("", "  ")
-	return enc.Encode(doc)
 }

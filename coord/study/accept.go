@@ -18,6 +18,9 @@ type rawAccept struct {
 	Reason string `key:"reason"`
 	By     string `key:"by"`
 	Date   string `key:"date"`
+	// Scenario limits the entry to the findings of one scenario (the
+	// study as drawn is "as drawn"); empty: every scenario.
+	Scenario string `key:"scenario"`
 }
 
 // acceptDate is the form of an acceptance's date (ISO 8601, as TOML and
@@ -42,7 +45,9 @@ func (b *builder) buildAccepts() {
 		case !knownCheck(r.Check):
 			b.fail(w, "check", "check = %q: no such check (one of %s)%s", r.Check, verbatim(checkList()), suggest(r.Check, checks))
 		}
-		switch _, found := b.deviceSeen[r.Device]; {
+		_, found := b.deviceSeen[r.Device]
+		found = found || b.dropped[r.Device] // out of service in the scenario being built
+		switch {
 		case r.Device == "":
 			b.fail(w, "device", "device is missing (the relay or fuse the finding is about; of a pair, the downstream one)")
 		case !found && b.unread("relay", "fuse"):
@@ -54,7 +59,7 @@ func (b *builder) buildAccepts() {
 			_, dev := b.deviceSeen[r.Other]
 			_, br := b.branch[r.Other]
 			_, three := b.unit3[r.Other]
-			if !dev && !br && !three && !b.unread("relay", "fuse", "line", "transformer", "transformer3") {
+			if !dev && !br && !three && !b.dropped[r.Other] && !b.unread("relay", "fuse", "line", "transformer", "transformer3") {
 				b.fail(w, "other", "other = %q: no relay, fuse, line or transformer of that name%s", r.Other, b.closest(r.Other, b.deviceSeen))
 			}
 		}
@@ -69,7 +74,7 @@ func (b *builder) buildAccepts() {
 				b.fail(w, k.key, "%s is missing (%s): an acceptance must say why, who and when", k.key, k.what)
 			}
 		}
-		for _, k := range []struct{ key, val string }{{"other", r.Other}, {"stage", r.Stage}, {"reason", r.Reason}, {"by", r.By}, {"date", r.Date}} {
+		for _, k := range []struct{ key, val string }{{"other", r.Other}, {"stage", r.Stage}, {"reason", r.Reason}, {"by", r.By}, {"date", r.Date}, {"scenario", r.Scenario}} {
 			b.readable(w, k.key, k.val) // reports print them
 		}
 		if strings.TrimSpace(r.Date) != "" {
@@ -82,7 +87,7 @@ func (b *builder) buildAccepts() {
 		}
 		b.st.Accepts = append(b.st.Accepts, coord.Acceptance{
 			Check: r.Check, Device: r.Device, Other: r.Other, Stage: r.Stage,
-			Reason: strings.TrimSpace(r.Reason), By: strings.TrimSpace(r.By), Date: r.Date,
+			Reason: strings.TrimSpace(r.Reason), By: strings.TrimSpace(r.By), Date: r.Date, Scenario: r.Scenario,
 			Line: b.lines.table(path), Index: i + 1,
 		})
 	}

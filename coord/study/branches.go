@@ -10,14 +10,14 @@ import (
 
 func (b *builder) buildLines() {
 	for i, r := range b.raw.Lines {
-		w := at("line", i, r.Name)
+		w := b.at("line", i, r.Name)
 		ok := b.branchName(w, r.Name)
 		from, okF := b.busRef(w, "from", r.From)
 		to, okT := b.busRef(w, "to", r.To)
 		l := faults.Line{Name: r.Name, From: from, To: to}
 		if okF && okT {
 			if from == to {
-				b.fail(w, "to", "from and to are the same bus %q", r.From)
+				b.sameBus(w, "line", r.From, r.To)
 				b.badRef = true
 			} else if kf, kt := b.net.Buses[from].KV, b.net.Buses[to].KV; kf > 0 && kt > 0 && kf != kt {
 				b.fail(w, "to", "joins bus %q at %g kV to bus %q at %g kV; a line joins buses of one voltage (use a transformer)", r.From, kf, r.To, kt)
@@ -41,7 +41,9 @@ func (b *builder) buildLines() {
 		eq := &coord.Equipment{Cable: b.cableWithstand(w, r, cable)}
 		if ok {
 			b.branch[r.Name] = len(b.net.Lines)
+			b.branchPaths[r.Name] = w.path
 		}
+		b.endNames = append(b.endNames, [2]string{r.From, r.To})
 		b.net.Lines = append(b.net.Lines, l)
 		b.st.Equipment = append(b.st.Equipment, eq)
 	}
@@ -80,17 +82,18 @@ func (b *builder) branchName(w where, name string) bool {
 
 func (b *builder) buildTransformers() {
 	for i, r := range b.raw.Transformer {
-		w := at("transformer", i, r.Name)
+		w := b.at("transformer", i, r.Name)
 		ok := b.branchName(w, r.Name)
 		from, okF := b.busRef(w, "from", r.From)
 		to, okT := b.busRef(w, "to", r.To)
 		t := faults.Transformer{Name: r.Name, From: from, To: to}
 		if okF && okT && from == to {
-			b.fail(w, "to", "from and to are the same bus %q", r.From)
+			b.sameBus(w, "transformer", r.From, r.To)
 			b.badRef = true
 		}
+		k := len(b.net.Lines) + len(b.net.Transformers)
 		if !okF || !okT || from == to {
-			b.branchBad[len(b.raw.Lines)+i] = true
+			b.branchBad[k] = true
 		}
 		t.MVA = b.positive(w, "mva", r.MVA)
 		t.KVFrom = b.positive(w, "kv_from", r.KVFrom)
@@ -118,8 +121,10 @@ func (b *builder) buildTransformers() {
 			t.NeutralFrom, t.NeutralTo = b.neutrals(w, r, g)
 		}
 		if ok {
-			b.branch[r.Name] = len(b.raw.Lines) + i
+			b.branch[r.Name] = k
+			b.branchPaths[r.Name] = w.path
 		}
+		b.endNames = append(b.endNames, [2]string{r.From, r.To})
 		b.net.Transformers = append(b.net.Transformers, t)
 		b.st.Equipment = append(b.st.Equipment, b.transformerEquipment(w, r, t))
 	}

@@ -90,6 +90,9 @@ func (b *builder) readSettingsCSV(dir fs.FS, name string, studyLine int) {
 // settingsFile reads the table, refusing what is not a regular file of a
 // sensible size.
 func (b *builder) settingsFile(dir fs.FS, name, shown string, studyLine int) ([]byte, bool) {
+	if b.csvCache != nil {
+		return b.csvCache, true // a scenario's build: the table the study was read with
+	}
 	studyErr := func(format string, args ...any) {
 		b.errorf(studyLine, "[study]", "settings_csv = %q: %s", name, verbatim(fmt.Sprintf(format, args...)))
 	}
@@ -123,6 +126,7 @@ func (b *builder) settingsFile(dir fs.FS, name, shown string, studyLine int) ([]
 		studyErr("%v", unwrapPath(err))
 		return nil, false
 	}
+	b.csvCache = data
 	return data, true
 }
 
@@ -265,6 +269,9 @@ func (b *builder) csvRow(file string, line int, cols []csvColumn, rec []string, 
 		return
 	}
 	k, ok := relays[relay]
+	if !ok && b.dropped[relay] {
+		return // a relay out of service in the scenario being built
+	}
 	if !ok {
 		// The row was most likely meant for the relay it nearly names:
 		// that relay is not reported again for having no stages.

@@ -42,8 +42,9 @@ func (b *builder) point(w where, branch, at string) (faults.Point, bool) {
 	if b.branchBad[k] {
 		return faults.Point{}, false // its ends are reported with the branch
 	}
-	from, to := b.net.BranchEnds(k)
-	fromName, toName := b.net.Buses[from].Name, b.net.Buses[to].Name
+	// The ends as the file names them: with a closed switch two of them
+	// may be one bus of the model, but a device sits at the end it says.
+	fromName, toName := b.endNames[k][0], b.endNames[k][1]
 	switch at {
 	case "":
 		b.fail(w, "at", "at is missing: the bus at the device's end of %q (%q or %q)", branch, fromName, toName)
@@ -59,7 +60,7 @@ func (b *builder) point(w where, branch, at string) (faults.Point, bool) {
 
 func (b *builder) buildRelays() {
 	for i, r := range b.raw.Relays {
-		w := at("relay", i, r.Name)
+		w := b.at("relay", i, r.Name)
 		b.named(w, r.Name, b.deviceSeen, "relay or fuse")
 		d := coord.Device{Name: r.Name, Kind: coord.Relay}
 		d.Point, _ = b.point(w, r.Branch, r.At)

@@ -103,7 +103,6 @@ func (b *builder) starEnd(w where, key, atKey, branch, at string) (faults.Point,
 		return faults.Point{}, false
 	}
 	t := b.net.Transformer(k)
-	from, to := t.From, t.To
 	hvFrom := t.KVFrom >= t.KVTo
 	wFrom, wTo := t.Group.HV, t.Group.LV
 	if !hvFrom {
@@ -116,12 +115,7 @@ func (b *builder) starEnd(w where, key, atKey, branch, at string) (faults.Point,
 	if wTo == faults.EarthedStar {
 		ends = append(ends, faults.To)
 	}
-	name := func(e faults.End) string {
-		if e == faults.From {
-			return b.net.Buses[from].Name
-		}
-		return b.net.Buses[to].Name
-	}
+	name := func(e faults.End) string { return b.endNames[k][e] }
 	switch {
 	case len(ends) == 0:
 		b.fail(w, key, "%s = %q: a %s transformer has no earthed star point", key, branch, t.Group)

@@ -13,7 +13,7 @@ import (
 func (b *builder) buildEarthings() {
 	seen := map[string]int{}
 	for i, r := range b.raw.Earthings {
-		w := at("earthing", i, r.Name)
+		w := b.at("earthing", i, r.Name)
 		b.named(w, r.Name, seen, "earthing")
 		bus, _ := b.busRef(w, "bus", r.Bus)
 		switch r.Kind {
@@ -38,7 +38,7 @@ func (b *builder) buildEarthings() {
 func (b *builder) buildLoads() {
 	seen := map[string]int{}
 	for i, r := range b.raw.Loads {
-		w := at("load", i, r.Name)
+		w := b.at("load", i, r.Name)
 		if r.Name == "" {
 			w.element = fmt.Sprintf("load %d", i+1)
 		} else {
@@ -79,8 +79,11 @@ func (b *builder) checkTopology() {
 		}
 		first := isl[0]
 		line := 0
-		if k, ok := b.bus[first]; ok {
-			line = b.lines.table("bus[" + strconv.Itoa(k) + "]")
+		for k, bus := range b.net.Buses[:len(b.busOrigin)] {
+			if bus.Name == first {
+				line = b.lines.table("bus[" + strconv.Itoa(b.busOrigin[k]) + "]")
+				break
+			}
 		}
 		list := isl
 		more := ""
@@ -147,14 +150,7 @@ func (b *builder) branchPath(name string) string {
 	if p, ok := b.starPath[name]; ok {
 		return p
 	}
-	k, ok := b.branch[name]
-	if !ok {
-		return ""
-	}
-	if k < len(b.raw.Lines) {
-		return fmt.Sprintf("line[%d]", k)
-	}
-	return fmt.Sprintf("transformer[%d]", k-len(b.raw.Lines))
+	return b.branchPaths[name]
 }
 
 func quoteAll(s []string) []string {

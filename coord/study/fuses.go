@@ -9,7 +9,7 @@ import (
 
 func (b *builder) buildFuses() {
 	for i, r := range b.raw.Fuses {
-		w := at("fuse", i, r.Name)
+		w := b.at("fuse", i, r.Name)
 		b.named(w, r.Name, b.deviceSeen, "relay or fuse")
 		d := coord.Device{Name: r.Name, Kind: coord.Fuse}
 		d.Point, _ = b.point(w, r.Branch, r.At)
@@ -66,7 +66,7 @@ func (b *builder) isFuse(name string) bool {
 
 func (b *builder) buildPairs() {
 	for i, r := range b.raw.Pairs {
-		w := where{path: fmt.Sprintf("pair[%d]", i), element: fmt.Sprintf("pair %d", i+1)}
+		w := where{path: fmt.Sprintf("pair[%d]", b.orig("pair", i)), element: fmt.Sprintf("pair %d", b.orig("pair", i)+1)}
 		ok := true
 		for _, k := range []struct{ key, name string }{{"upstream", r.Upstream}, {"downstream", r.Downstream}} {
 			if k.name == "" {

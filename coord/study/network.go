@@ -34,6 +34,44 @@ type builder struct {
 	csvBlamed   map[string]bool // settings a misspelt column of the table was meant to give
 	suggestions int             // "did you mean" searches so far (closest)
 	namePaths   []string        // where each named element is; the seen maps hold indexes into it
+
+	// The file's own names and places, which a closed switch or a
+	// scenario's outage would otherwise hide: the bus names by their
+	// table's index, the end buses of each line and transformer as
+	// written (by branch index) and the winding buses of each
+	// three-winding transformer, and the table path of each branch.
+	busRaw       map[string]int
+	busOrigin    []int // per bus of the model, the table index of its first bus
+	endNames     [][2]string
+	windingNames [][3]string
+	branchPaths  map[string]string
+	switches     map[string]switchState // by name, as drawn
+	// cfg is the scenario the study is built in (nil: as drawn), and
+	// origins, per kind of table, the file's index of each table the
+	// scenario keeps (nil: all kept); see scenario.go.
+	cfg     *scenarioDef
+	origins map[string][]int
+	// csvCache holds the settings table as the first build read it, so
+	// every scenario is built from the same bytes.
+	csvCache []byte
+	// dropped names the elements and devices the scenario being built
+	// leaves out, which other tables may still name.
+	dropped map[string]bool
+}
+
+// at locates the i-th element of the array of tables key as the study
+// file has it, named name (see tableAt).
+func (b *builder) at(key string, i int, name string) where {
+	return tableAt(key, b.orig(key, i), name)
+}
+
+// orig returns the file's index of the i-th table of key that the
+// configuration being built keeps.
+func (b *builder) orig(key string, i int) int {
+	if o, ok := b.origins[key]; ok {
+		return o[i]
+	}
+	return i
 }
 
 // where locates an element for messages: the indexed table path in the
@@ -47,7 +85,7 @@ type where struct {
 
 // at locates the i-th element of the array of tables key (bus, line, …),
 // named name.
-func at(key string, i int, name string) where {
+func tableAt(key string, i int, name string) where {
 	return where{path: key + "[" + strconv.Itoa(i) + "]", element: key + " " + strconv.Quote(name)}
 }
 
@@ -175,29 +213,46 @@ func boolOr(p *bool, def bool) bool {
 	return *p
 }
 
+// buildBuses reads the buses and the switches, and gives the model one
+// bus for each group of buses that closed switches tie together (see
+// buildSwitches).
 func (b *builder) buildBuses() {
 	seen := map[string]int{}
+	kvs := make([]float64, len(b.raw.Buses))
 	for i, r := range b.raw.Buses {
-		w := at("bus", i, r.Name)
-		ok := b.named(w, r.Name, seen, "bus")
-		kv := b.positive(w, "kv", r.KV)
-		if kv > 2000 {
-			b.fail(w, "kv", "kv = %g is not a plausible nominal voltage (line-to-line kV)", kv)
+		w := b.at("bus", i, r.Name)
+		if b.named(w, r.Name, seen, "bus") {
+			b.busRaw[r.Name] = i
 		}
-		if ok {
-			b.bus[r.Name] = len(b.net.Buses)
+		kvs[i] = b.positive(w, "kv", r.KV)
+		if kvs[i] > 2000 {
+			b.fail(w, "kv", "kv = %g is not a plausible nominal voltage (line-to-line kV)", kvs[i])
 		}
-		b.net.Buses = append(b.net.Buses, faults.Bus{Name: r.Name, KV: kv})
 	}
 	if len(b.raw.Buses) == 0 && !b.blamed["bus"] {
 		b.errorf(0, "", "the study has no [[bus]]")
+	}
+	first := b.buildSwitches(kvs)
+	index := make([]int, len(b.raw.Buses))
+	for i, r := range b.raw.Buses {
+		if g := first[i]; g != i {
+			index[i] = index[g]
+			b.net.Buses[index[i]].Name += mergedSeparator + r.Name
+		} else {
+			index[i] = len(b.net.Buses)
+			b.net.Buses = append(b.net.Buses, faults.Bus{Name: r.Name, KV: kvs[i]})
+			b.busOrigin = append(b.busOrigin, i)
+		}
+		if k, ok := b.busRaw[r.Name]; ok && k == i {
+			b.bus[r.Name] = index[i]
+		}
 	}
 }
 
 func (b *builder) buildSources() {
 	seen := map[string]int{}
 	for i, r := range b.raw.Sources {
-		w := at("source", i, r.Name)
+		w := b.at("source", i, r.Name)
 		b.named(w, r.Name, seen, "source")
 		bus, _ := b.busRef(w, "bus", r.Bus)
 		s := faults.Source{Name: r.Name, Bus: bus}
@@ -271,7 +326,7 @@ func (b *builder) ohms(w where, rKey, xKey string, r, x *float64) complex128 {
 func (b *builder) buildGenerators() {
 	seen := map[string]int{}
 	for i, r := range b.raw.Generators {
-		w := at("generator", i, r.Name)
+		w := b.at("generator", i, r.Name)
 		b.named(w, r.Name, seen, "generator")
 		bus, ok := b.busRef(w, "bus", r.Bus)
 		g := faults.Generator{Name: r.Name, Bus: bus}

@@ -21,6 +21,8 @@ type rawFile struct {
 	Fuses       []rawFuse        `key:"fuse"`
 	Pairs       []rawPair        `key:"pair"`
 	Accepts     []rawAccept      `key:"accept"`
+	Switches    []rawSwitch      `key:"switch"`
+	Scenarios   []rawScenario    `key:"scenario"`
 }
 
 type rawStudy struct {
@@ -34,6 +36,7 @@ type rawStudy struct {
 	LinePositions  []float64 `key:"line_fault_positions"`
 	SettingsCSV    string    `key:"settings_csv"`
 	MinTimeDelayS  *float64  `key:"min_time_delay_s"`
+	NMinus1        []string  `key:"n_minus_1"`
 }
 
 type rawCriteria struct {

@@ -121,27 +121,40 @@ func Parse(name string, src []byte, dir fs.FS) (*coord.Study, error) {
 	d := newDecoder(name, root)
 	var raw rawFile
 	d.table(root, "", "", &raw)
-	b := &builder{
-		decoder:    d,
-		raw:        &raw,
-		net:        &faults.Network{},
-		st:         &coord.Study{},
-		bus:        map[string]int{},
-		branch:     map[string]int{},
-		unit3:      map[string]int{},
-		starPath:   map[string]string{},
-		starOf:     map[string]starRef{},
-		deviceSeen: map[string]int{},
-		branchBad:  map[int]bool{},
-		badNames:   map[string]bool{},
-	}
-	b.st.Network = b.net
+	b := newBuilder(d, &raw)
 	b.st.Inputs = []coord.InputFile{coord.NewInputFile(name, src)}
 	b.build(dir)
+	defs := b.buildScenarios()
+	b.acceptScenarios(defs)
 	if len(b.errs) > 0 {
 		return nil, b.errs.sorted(name)
 	}
+	if errs := b.scenarios(defs, dir); len(errs) > 0 {
+		return nil, errs.sorted(name)
+	}
 	return b.st, nil
+}
+
+// newBuilder returns a builder of the tables raw, which d decoded.
+func newBuilder(d *decoder, raw *rawFile) *builder {
+	b := &builder{
+		decoder:     d,
+		raw:         raw,
+		net:         &faults.Network{},
+		st:          &coord.Study{},
+		bus:         map[string]int{},
+		branch:      map[string]int{},
+		unit3:       map[string]int{},
+		starPath:    map[string]string{},
+		starOf:      map[string]starRef{},
+		deviceSeen:  map[string]int{},
+		branchBad:   map[int]bool{},
+		badNames:    map[string]bool{},
+		busRaw:      map[string]int{},
+		branchPaths: map[string]string{},
+	}
+	b.st.Network = b.net
+	return b
 }
 
 func (b *builder) build(dir fs.FS) {

@@ -1,7 +1,6 @@
 package study
 
 import (
-	"fmt"
 	"math"
 
 	"tripgrade/faults"
@@ -24,7 +23,7 @@ type starRef struct{ unit, winding string }
 // they sit on.
 func (b *builder) buildTransformers3() {
 	for i, r := range b.raw.Transf3 {
-		w := where{path: fmt.Sprintf("transformer3[%d]", i), element: fmt.Sprintf("transformer3 %q", r.Name)}
+		w := b.at("transformer3", i, r.Name)
 		named := b.branchName(w, r.Name)
 		t := faults.Transformer3{Name: r.Name}
 		buses := [3]string{r.HV, r.MV, r.LV}
@@ -58,6 +57,7 @@ func (b *builder) buildTransformers3() {
 			t.Neutral = b.neutrals3(w, r, g)
 		}
 		k := b.net.AddTransformer3(t)
+		b.windingNames = append(b.windingNames, buses)
 		for wd := range windingKeys {
 			br := b.net.StarBranch(k, wd)
 			if !good {
@@ -138,11 +138,7 @@ func (b *builder) neutrals3(w where, r rawTransf3, g faults.VectorGroup3) [3]fau
 // point3 resolves a device on a three-winding transformer: the winding
 // whose terminal is at bus at.
 func (b *builder) point3(w where, name, at string, k int) (faults.Point, bool) {
-	t := &b.net.Transformers3[k]
-	var names [3]string
-	for wd, bus := range t.Buses {
-		names[wd] = b.net.Buses[bus].Name
-	}
+	names := b.windingNames[k]
 	if at == "" {
 		b.fail(w, "at", "at is missing: the bus of the winding the device sits on (%q, %q or %q)", names[0], names[1], names[2])
 		return faults.Point{}, false
