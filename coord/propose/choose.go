@@ -43,7 +43,7 @@ func (e *NoPickupsError) Error() string {
 func (pr *Proposal) choosePickups(eng *faults.Engine, topo *coord.Topology, o Settings, index [][]int, ia []float64) error {
 	s := pr.Study
 	var err error
-	if pr.Before, err = coord.CheckWith(s, eng, topo, coord.Options{}); err != nil {
+	if pr.Before, err = checkEvery(s, s, eng, topo, nil); err != nil {
 		return err
 	}
 	keep := map[string]bool{}

@@ -298,9 +298,14 @@ func (p *problem) binding(x []float64) (edges []int, need []float64) {
 	return edges, need
 }
 
-// sourceLess orders two sources by check, devices, stage and fault.
+// sourceLess orders two sources by check, devices, stage and fault (its
+// scenario first), so that of equal constraints the same one is kept
+// whatever order the checker's workers hand them in. A nil source (none)
+// comes last.
 func sourceLess(a, b *Source) bool {
 	switch {
+	case a == nil || b == nil:
+		return a != nil && b == nil
 	case a.Check != b.Check:
 		return a.Check < b.Check
 	case a.Up != b.Up:
@@ -309,10 +314,24 @@ func sourceLess(a, b *Source) bool {
 		return a.Down < b.Down
 	case a.UpStage != b.UpStage:
 		return a.UpStage < b.UpStage
+	case a.Scenario != b.Scenario:
+		return a.Scenario < b.Scenario
 	case a.Kind != b.Kind:
 		return a.Kind < b.Kind
 	case a.Case != b.Case:
 		return a.Case < b.Case
+	case a.Where != b.Where:
+		return a.Where < b.Where
+	case a.Place.Branch != b.Place.Branch:
+		return a.Place.Branch < b.Place.Branch
+	case a.Place.Bus != b.Place.Bus:
+		return a.Place.Bus < b.Place.Bus
+	case a.Place.Frac != b.Place.Frac:
+		return a.Place.Frac < b.Place.Frac
+	case a.Sequence != b.Sequence:
+		return !a.Sequence
+	case a.Scale != b.Scale:
+		return a.Scale < b.Scale
 	}
-	return a.Scale < b.Scale
+	return a.RequiredS < b.RequiredS
 }

@@ -85,7 +85,7 @@ func Propose(s *coord.Study, eng *faults.Engine, topo *coord.Topology, o Setting
 	}
 	col := newCollector(newLinearizer(s, index, multipliers(s, vars)), vars)
 	col.inrush(s, ia)
-	pr.Before, err = coord.CheckWith(s, eng, topo, coord.Options{Margins: col.margin})
+	pr.Before, err = checkEvery(s, s, eng, topo, col)
 	if err != nil {
 		return nil, err
 	}
@@ -120,7 +120,7 @@ func (pr *Proposal) solve(base *coord.Study, eng *faults.Engine, index [][]int, 
 		}
 		next := newCollector(newLinearizer(pr.Proposed, index, xr), vars)
 		next.inrush(pr.Proposed, ia)
-		pr.After, err = coord.CheckWith(pr.Proposed, eng, t2, coord.Options{Margins: next.margin})
+		pr.After, err = checkEvery(pr.Study, pr.Proposed, eng, t2, next)
 		if err != nil {
 			return err
 		}
@@ -132,6 +132,69 @@ func (pr *Proposal) solve(base *coord.Study, eng *faults.Engine, index [][]int, 
 		col.merge(next)
 	}
 	return nil
+}
+
+// checkEvery checks st, the study s at other settings (its engine and
+// topology given), and each scenario of s with st's settings, handing
+// every margin to col (nil: none), and returns the worst findings over
+// them all, each naming its scenario; a study without scenarios is
+// checked as drawn alone. The constraints of every scenario so enter the
+// search, and a proposal is verified in every scenario the checker
+// checks.
+func checkEvery(s, st *coord.Study, eng *faults.Engine, topo *coord.Topology, col *collector) (*coord.Result, error) {
+	opts := func(name string, in *coord.Study) coord.Options {
+		if col == nil {
+			return coord.Options{}
+		}
+		if name == coord.AsDrawn {
+			return coord.Options{Margins: col.margin}
+		}
+		return coord.Options{Margins: col.marginIn(name, in, st)}
+	}
+	if len(s.Scenarios) == 0 {
+		return coord.CheckWith(st, eng, topo, opts(coord.AsDrawn, st))
+	}
+	at := *st
+	at.Scenarios = make([]coord.Scenario, len(s.Scenarios))
+	for i, sc := range s.Scenarios {
+		build := sc.Build
+		sc.Build = func() (*coord.Study, error) {
+			in, err := build()
+			if err != nil {
+				return nil, err
+			}
+			return withSettingsOf(in, st), nil
+		}
+		at.Scenarios[i] = sc
+	}
+	w := coord.NewWorst()
+	err := coord.CheckScenariosWith(&at, eng, topo, nil, opts, func(c coord.Checked) error {
+		w.Add(c.Study, c.Result)
+		return nil
+	})
+	if err != nil {
+		return nil, err
+	}
+	return w.Result(), nil
+}
+
+// withSettingsOf returns a copy of a scenario's study in whose devices
+// the stages are those of the device of the same name in st: the
+// scenario at the settings being tried (a scenario changes the network,
+// never a device's settings).
+func withSettingsOf(in, st *coord.Study) *coord.Study {
+	at := map[string]int{}
+	for i := range st.Devices {
+		at[st.Devices[i].Name] = i
+	}
+	out := *in
+	out.Devices = append([]coord.Device(nil), in.Devices...)
+	for i := range out.Devices {
+		if j, ok := at[out.Devices[i].Name]; ok {
+			out.Devices[i].Stages = append([]coord.Stage(nil), st.Devices[j].Stages...)
+		}
+	}
+	return &out
 }
 
 // size counts the constraints of a problem: the edges and the bounds.
@@ -287,7 +350,14 @@ func Describe(s *coord.Study, src *Source) string {
 		return fmt.Sprintf("inrush: %s does not operate within %.3g s at %s A (%g × the full-load current of the transformers it energises)",
 			s.Devices[src.Down].Name, src.RequiredS, fmtA(src.CurrentA), s.Criteria.InrushMultiple)
 	}
-	fault := fmt.Sprintf("%s %s @ %s", src.Kind, src.Case, coord.PlaceName(s.Network, src.Place))
+	where := src.Where
+	if src.Scenario == "" {
+		where = coord.PlaceName(s.Network, src.Place)
+	}
+	fault := fmt.Sprintf("%s %s @ %s", src.Kind, src.Case, where)
+	if src.Scenario != "" {
+		fault += " in scenario " + src.Scenario
+	}
 	if src.Scale != 1 && src.Scale > 0 {
 		fault += fmt.Sprintf(" (sweep, %.0f %%)", src.Scale*100)
 	}
