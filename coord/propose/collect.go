@@ -195,8 +195,18 @@ func (c *collector) addLine(u, d int, l line, src func() *Source) {
 	lo, hi := c.vars[d].Range.Min, c.vars[d].Range.Max
 	at := func(m line, x float64) float64 { return m.k*x + m.b }
 	ls := c.lines[key]
-	for _, m := range ls {
+	for i, m := range ls {
 		if at(m, lo) >= at(l, lo) && at(m, hi) >= at(l, hi) {
+			// Of two equal lines the one of the lesser source stays,
+			// whatever order the checker's workers hand them in.
+			if at(m, lo) == at(l, lo) && at(m, hi) == at(l, hi) {
+				if l.src == nil {
+					l.src = src()
+				}
+				if sourceLess(l.src, m.src) {
+					ls[i] = l
+				}
+			}
 			return
 		}
 	}
