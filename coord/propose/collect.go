@@ -114,7 +114,7 @@ func (c *collector) add(k constraint, ms *coord.MarginSample) {
 	case hasU && hasD:
 		c.addLine(k.u, k.d, line{k: k.b / k.a, b: k.c / k.a}, func() *Source { return source(ms, k.upStage) })
 	case hasU:
-		if v := k.c / k.a; v > c.lower[k.u].v {
+		if v := k.c / k.a; v > c.lower[k.u].v || v == c.lower[k.u].v && firstSource(source(ms, k.upStage), c.lower[k.u].src) {
 			c.lower[k.u] = bound{v, source(ms, k.upStage)}
 		}
 	case hasD:
@@ -124,7 +124,7 @@ func (c *collector) add(k constraint, ms *coord.MarginSample) {
 		// Every source's lowest bound is kept: which of them the range
 		// (and the lower bounds) can meet is known only when all are in.
 		v, key := -k.c/k.b, upperKey{ms.Check, ms.Up, k.upStage}
-		if old, ok := c.upper[k.d][key]; !ok || v < old.v {
+		if old, ok := c.upper[k.d][key]; !ok || v < old.v || v == old.v && firstSource(source(ms, k.upStage), old.src) {
 			if c.upper[k.d] == nil {
 				c.upper[k.d] = map[upperKey]bound{}
 			}
@@ -132,7 +132,7 @@ func (c *collector) add(k constraint, ms *coord.MarginSample) {
 		}
 	case k.c > feasTol:
 		key := fixedKey{ms.Check, ms.Up, ms.Down}
-		if m, ok := c.fixed[key]; !ok || k.c > m.shortS {
+		if m, ok := c.fixed[key]; !ok || k.c > m.shortS || k.c == m.shortS && firstSource(source(ms, k.upStage), m.src) {
 			c.fixed[key] = fixedMiss{k.c, source(ms, k.upStage)}
 		}
 	}
@@ -145,7 +145,18 @@ func (c *collector) addLine(u, d int, l line, src func() *Source) {
 	lo, hi := c.vars[d].Range.Min, c.vars[d].Range.Max
 	at := func(m line, x float64) float64 { return m.k*x + m.b }
 	ls := c.lines[key]
-	for _, m := range ls {
+	for i, m := range ls {
+		if at(m, lo) == at(l, lo) && at(m, hi) == at(l, hi) {
+			// The same line from two margins: the one named is the first
+			// in a fixed order, not the first the checker handed out.
+			if l.src == nil {
+				l.src = src()
+			}
+			if firstSource(l.src, m.src) {
+				ls[i].src = l.src
+			}
+			return
+		}
 		if at(m, lo) >= at(l, lo) && at(m, hi) >= at(l, hi) {
 			return
 		}
@@ -171,11 +182,11 @@ func (c *collector) merge(o *collector) {
 		}
 	}
 	for i := range o.lower {
-		if o.lower[i].v > c.lower[i].v {
+		if o.lower[i].v > c.lower[i].v || o.lower[i].v == c.lower[i].v && firstSource(o.lower[i].src, c.lower[i].src) {
 			c.lower[i] = o.lower[i]
 		}
 		for key, b := range o.upper[i] {
-			if old, ok := c.upper[i][key]; !ok || b.v < old.v {
+			if old, ok := c.upper[i][key]; !ok || b.v < old.v || b.v == old.v && firstSource(b.src, old.src) {
 				if c.upper[i] == nil {
 					c.upper[i] = map[upperKey]bound{}
 				}
@@ -184,9 +195,23 @@ func (c *collector) merge(o *collector) {
 		}
 	}
 	for key, m := range o.fixed {
-		if old, ok := c.fixed[key]; !ok || m.shortS > old.shortS {
+		if old, ok := c.fixed[key]; !ok || m.shortS > old.shortS || m.shortS == old.shortS && firstSource(m.src, old.src) {
 			c.fixed[key] = m
 		}
 	}
 	c.n += o.n
+}
+
+// firstSource reports whether a comes before b in the fixed order of
+// sourceLess (a nil source last), so that of two margins that ask the
+// same, the one a proposal names does not depend on the order the
+// checker's goroutines handed them out.
+func firstSource(a, b *Source) bool {
+	switch {
+	case a == nil:
+		return false
+	case b == nil:
+		return true
+	}
+	return sourceLess(a, b)
 }

@@ -4,6 +4,8 @@ import (
 	"errors"
 	"math"
 	"sort"
+
+	"tripgrade/faults"
 )
 
 // The least multipliers.
@@ -313,6 +315,28 @@ func sourceLess(a, b *Source) bool {
 		return a.Kind < b.Kind
 	case a.Case != b.Case:
 		return a.Case < b.Case
+	case a.Place != b.Place:
+		return placeLess(a.Place, b.Place)
+	case a.Scale != b.Scale:
+		return a.Scale < b.Scale
+	case a.Sequence != b.Sequence:
+		return !a.Sequence
+	case a.RequiredS != b.RequiredS:
+		return a.RequiredS < b.RequiredS
+	case a.MarginS != b.MarginS:
+		return a.MarginS < b.MarginS
 	}
-	return a.Scale < b.Scale
+	return a.CurrentA < b.CurrentA
+}
+
+// placeLess orders fault places: buses before branches, then by index
+// and position.
+func placeLess(a, b faults.Place) bool {
+	switch {
+	case a.Branch != b.Branch:
+		return a.Branch < b.Branch
+	case a.Bus != b.Bus:
+		return a.Bus < b.Bus
+	}
+	return a.Frac < b.Frac
 }
