@@ -72,7 +72,7 @@ func NewProposal(pr *propose.Proposal) *Proposal {
 	if pr.Pickups != nil || pr.KeptPickups != nil {
 		out.ChosePickups = true
 		out.Pickups, out.KeptPickups = newPickups(pr)
-		out.Method = fmt.Sprintf("pickups: %d stages set from their declared ranges between the load and sensitivity limits, the lowest admissible unless a higher one lets more margins be met within the multiplier ranges (%d candidate sets scored); then the ",
+		out.Method = fmt.Sprintf("pickups: %d stages set from their declared ranges between the load and sensitivity limits, the lowest admissible unless a higher one lets more margins be met within the multiplier ranges (%d candidate settings scored); then the ",
 			len(pr.Pickups), pr.PickupEvals) + out.Method
 	}
 	for i, v := range pr.Vars {
