@@ -126,6 +126,53 @@ func (g *group) sortLines() {
 	sort.Slice(g.highs, func(i, j int) bool { return g.highs[i].v < g.highs[j].v })
 }
 
+// evaluate sets a group's current lines and bounds: its constraints
+// rescaled to the current pickups.
+func (sr *search) evaluate(g *group) {
+	g.lines, g.lows, g.highs = nil, nil, nil
+	for _, k := range g.cons {
+		if r, ok := sr.rescale(k); ok {
+			g.add(r, sr.vars)
+		}
+	}
+	g.sortLines()
+}
+
+// rescale returns a probe's constraint at the current pickups, and false
+// when one of its stages does not operate there.
+func (sr *search) rescale(k scon) (scon, bool) {
+	ratio := func(v int, a, p0, g0 float64) (float64, bool) {
+		if v < 0 || sr.ofVar[v] < 0 {
+			return 1, true
+		}
+		x := sr.vars[v]
+		st := sr.s.Devices[x.Device].Stages[x.Stage]
+		if st.PickupA == p0 {
+			return 1, g0 > 0
+		}
+		g, ok := unitTime(st, st.PickupA, a)
+		if !ok || g0 <= 0 {
+			return 0, false
+		}
+		return g / g0, true
+	}
+	ru, ok := ratio(k.u, k.ua, k.pu, k.gu0)
+	if !ok && k.u >= 0 && k.a > 0 {
+		return k, false
+	}
+	rd, ok := ratio(k.d, k.da, k.pd, k.gd0)
+	if !ok && k.d >= 0 && k.b > 0 {
+		return k, false
+	}
+	if ru == 1 && rd == 1 {
+		return k, true
+	}
+	k.c += k.cu*(ru-1) + k.cd*(rd-1)
+	k.a *= ru
+	k.b *= rd
+	return k, true
+}
+
 // probe gathers, per group, the constraints that bind in one run of the
 // checker: the envelope of the lines between two multipliers and the
 // highest lower and lowest upper bound of each multiplier.
