@@ -47,75 +47,17 @@ func (e *NoPickupsError) Error() string {
 // concern are set back likewise and the rounds run again (at most
 // maxReverts times).
 func (pr *Proposal) choosePickups(eng *faults.Engine, topo *coord.Topology, o Settings, index [][]int, ia []float64) error {
-	s := pr.Study
-	var err error
-	if pr.Before, err = coord.CheckWith(s, eng, topo, coord.Options{}); err != nil {
+	if err := pr.pickupLimits(eng, topo, o); err != nil {
 		return err
 	}
-	keep := map[string]bool{}
-	for _, n := range o.Keep {
-		keep[n] = true
-	}
-	pr.Pickups, pr.KeptPickups = pickupVars(s, topo, pr.Before, pr.Vars, keep)
-	if len(pr.Pickups) == 0 {
-		e := &NoPickupsError{}
-		for _, k := range pr.KeptPickups {
-			d := s.Devices[k.Device]
-			e.Kept = append(e.Kept, fmt.Sprintf("relay %q stage %s: %s", d.Name, d.Stages[k.Stage].Label, k.Why))
-		}
-		return e
-	}
-	low := lows(pr.Pickups)
-	s0 := withPickups(s, pr.Pickups, low)
-	t0, err := coord.NewTopology(s0, eng)
+	col, err := pr.searchPickups(eng, index, ia)
 	if err != nil {
 		return err
 	}
-	// The margins at the lowest admissible pickups: the first round's
-	// constraints, and the search's by pair of devices.
-	col := newCollector(newLinearizer(s0, index, multipliers(s0, pr.Vars)), pr.Vars)
-	col.inrush(s0, ia)
-	pcLow := newPairCollector(col, newLinearizer(s0, index, multipliers(s0, pr.Vars)), pr.Vars)
-	r0, err := coord.CheckWith(s0, eng, t0, coord.Options{Margins: pcLow.margin})
-	if err != nil {
-		return err
-	}
-	sr := newSearch(s0, pr.Vars, pr.Pickups, pcLow, ia)
-	pr.PickupBy = make([]Limit, len(pr.Pickups))
-	faulted := pr.regressions(r0.Findings)
-	for k, v := range pr.Pickups {
-		if f, ok := faulted.of(pr.Study, v); ok {
-			sr.fix(k, v.Was)
-			pr.PickupBy[k] = Limit{Kind: LimitChecker, A: v.Was, Note: fmt.Sprintf(
-				"the study's pickup: at the lowest admissible, %s A, the checker fails the %s finding (%s), which the study passes (a lower pickup widens the zone to faults it cannot detect with the margin)",
-				fmtA(v.Low), f.Check, f.Note)}
-		}
-	}
-	pr.P = sr.pickups()
-	atLow, atChosen := make([]int, len(low)), make([]int, len(low))
-	if len(sr.raisable()) > 0 {
-		// The constraints that bind at the highest admissible pickups.
-		high := make([]float64, len(pr.Pickups))
-		for k, v := range pr.Pickups {
-			high[k] = v.High
-		}
-		sHigh := withPickups(s, pr.Pickups, high)
-		tHigh, err := coord.NewTopology(sHigh, eng)
-		if err != nil {
-			return err
-		}
-		pcHigh := newPairCollector(nil, newLinearizer(sHigh, index, multipliers(sHigh, pr.Vars)), pr.Vars)
-		if _, err := coord.CheckWith(sHigh, eng, tHigh, coord.Options{Margins: pcHigh.margin}); err != nil {
-			return err
-		}
-		sr.addProbe(pcHigh)
-		pr.P, atLow, atChosen = sr.run()
-	}
-	pr.PickupEvals = sr.evals + sr.tries
-	pr.pickupBinding(atLow, atChosen)
 	for attempt := 0; ; attempt++ {
-		base := withPickups(s, pr.Pickups, pr.P)
-		if attempt > 0 || !equal(pr.P, low) {
+		base := withPickups(pr.Study, pr.Pickups, pr.P)
+		if attempt > 0 || !equal(pr.P, lows(pr.Pickups)) {
+			// The first round's constraints at the chosen pickups.
 			tb, err := coord.NewTopology(base, eng)
 			if err != nil {
 				return err
@@ -134,6 +76,86 @@ func (pr *Proposal) choosePickups(eng *faults.Engine, topo *coord.Topology, o Se
 			return nil
 		}
 	}
+}
+
+// pickupLimits checks the study as given and sets the stages to search
+// with their admissible intervals, or says why there are none.
+func (pr *Proposal) pickupLimits(eng *faults.Engine, topo *coord.Topology, o Settings) error {
+	s := pr.Study
+	var err error
+	if pr.Before, err = coord.CheckWith(s, eng, topo, coord.Options{}); err != nil {
+		return err
+	}
+	keep := map[string]bool{}
+	for _, n := range o.Keep {
+		keep[n] = true
+	}
+	pr.Pickups, pr.KeptPickups = pickupVars(s, topo, pr.Before, pr.Vars, keep)
+	if len(pr.Pickups) > 0 {
+		return nil
+	}
+	e := &NoPickupsError{}
+	for _, k := range pr.KeptPickups {
+		d := s.Devices[k.Device]
+		e.Kept = append(e.Kept, fmt.Sprintf("relay %q stage %s: %s", d.Name, d.Stages[k.Stage].Label, k.Why))
+	}
+	return e
+}
+
+// searchPickups checks the study at the lowest admissible pickups, keeps
+// the study's pickups where that widens a zone past what the stage
+// detects, and, when a stage that fails a margin may rise, checks it at
+// the highest and searches. It returns the collector of the check at the
+// lowest pickups (the first round's, when they are the ones chosen).
+func (pr *Proposal) searchPickups(eng *faults.Engine, index [][]int, ia []float64) (*collector, error) {
+	s := pr.Study
+	low := lows(pr.Pickups)
+	s0 := withPickups(s, pr.Pickups, low)
+	t0, err := coord.NewTopology(s0, eng)
+	if err != nil {
+		return nil, err
+	}
+	col := newCollector(newLinearizer(s0, index, multipliers(s0, pr.Vars)), pr.Vars)
+	col.inrush(s0, ia)
+	pcLow := newPairCollector(col, newLinearizer(s0, index, multipliers(s0, pr.Vars)), pr.Vars)
+	r0, err := coord.CheckWith(s0, eng, t0, coord.Options{Margins: pcLow.margin})
+	if err != nil {
+		return nil, err
+	}
+	sr := newSearch(s0, pr.Vars, pr.Pickups, pcLow, ia)
+	pr.PickupBy = make([]Limit, len(pr.Pickups))
+	faulted := pr.regressions(r0.Findings)
+	for k, v := range pr.Pickups {
+		if f, ok := faulted.of(s, v); ok {
+			sr.fix(k, v.Was)
+			pr.PickupBy[k] = Limit{Kind: LimitChecker, A: v.Was, Note: fmt.Sprintf(
+				"the study's pickup: at the lowest admissible, %s A, the checker fails the %s finding (%s), which the study passes (a lower pickup widens the zone to faults it cannot detect with the margin)",
+				fmtA(v.Low), f.Check, f.Note)}
+		}
+	}
+	pr.P = sr.pickups()
+	atLow, atChosen := make([]int, len(low)), make([]int, len(low))
+	if len(sr.raisable()) > 0 {
+		// The constraints that bind at the highest admissible pickups.
+		high := make([]float64, len(pr.Pickups))
+		for k, v := range pr.Pickups {
+			high[k] = v.High
+		}
+		sHigh := withPickups(s, pr.Pickups, high)
+		tHigh, err := coord.NewTopology(sHigh, eng)
+		if err != nil {
+			return nil, err
+		}
+		pcHigh := newPairCollector(nil, newLinearizer(sHigh, index, multipliers(sHigh, pr.Vars)), pr.Vars)
+		if _, err := coord.CheckWith(sHigh, eng, tHigh, coord.Options{Margins: pcHigh.margin}); err != nil {
+			return nil, err
+		}
+		sr.addProbe(pcHigh)
+		pr.P, atLow, atChosen = sr.run()
+	}
+	pr.PickupEvals = sr.evals + sr.tries
+	pr.pickupBinding(atLow, atChosen)
+	return col, nil
 }
 
 // equal reports whether two lists of pickups are the same.
