@@ -1,6 +1,7 @@
 package main
 
 import (
+	"fmt"
 	"os"
 	"path/filepath"
 	"regexp"
@@ -12,8 +13,7 @@ import (
 // withoutStages returns a study's text with its [[relay.stage]] tables
 // removed (each runs from its header to the next blank line) and its
 // settings read from the table csv instead.
-func withoutStages(t *testing.T, src, csv string) string {
-	t.Helper()
+func withoutStages(src, csv string) string {
 	var out []string
 	skip := false
 	for _, line := range strings.Split(src, "\n") {
@@ -28,7 +28,7 @@ func withoutStages(t *testing.T, src, csv string) string {
 		}
 		out = append(out, line)
 		if line == "[study]" {
-			out = append(out, "settings_csv = "+`"`+csv+`"`)
+			out = append(out, fmt.Sprintf("settings_csv = %q", csv))
 		}
 	}
 	return strings.Join(out, "\n")
@@ -61,7 +61,7 @@ func TestProposeHoldsInEveryScenario(t *testing.T) {
 				t.Fatal(err)
 			}
 			applied := filepath.Join(dir, name+".toml")
-			if err := os.WriteFile(applied, []byte(withoutStages(t, string(src), "proposed.csv")), 0o644); err != nil {
+			if err := os.WriteFile(applied, []byte(withoutStages(string(src), "proposed.csv")), 0o644); err != nil {
 				t.Fatal(err)
 			}
 			code, out, errOut = runArgs("check", applied)

@@ -4,6 +4,8 @@ import (
 	"errors"
 	"math"
 	"sort"
+
+	"tripgrade/faults"
 )
 
 // The least multipliers.
@@ -322,16 +324,28 @@ func sourceLess(a, b *Source) bool {
 		return a.Case < b.Case
 	case a.Where != b.Where:
 		return a.Where < b.Where
-	case a.Place.Branch != b.Place.Branch:
-		return a.Place.Branch < b.Place.Branch
-	case a.Place.Bus != b.Place.Bus:
-		return a.Place.Bus < b.Place.Bus
-	case a.Place.Frac != b.Place.Frac:
-		return a.Place.Frac < b.Place.Frac
-	case a.Sequence != b.Sequence:
-		return !a.Sequence
+	case a.Place != b.Place:
+		return placeLess(a.Place, b.Place)
 	case a.Scale != b.Scale:
 		return a.Scale < b.Scale
+	case a.Sequence != b.Sequence:
+		return !a.Sequence
+	case a.RequiredS != b.RequiredS:
+		return a.RequiredS < b.RequiredS
+	case a.MarginS != b.MarginS:
+		return a.MarginS < b.MarginS
 	}
-	return a.RequiredS < b.RequiredS
+	return a.CurrentA < b.CurrentA
+}
+
+// placeLess orders fault places: buses before branches, then by index
+// and position.
+func placeLess(a, b faults.Place) bool {
+	switch {
+	case a.Branch != b.Branch:
+		return a.Branch < b.Branch
+	case a.Bus != b.Bus:
+		return a.Bus < b.Bus
+	}
+	return a.Frac < b.Frac
 }

@@ -72,7 +72,7 @@ func NewProposal(pr *propose.Proposal) *Proposal {
 	if pr.Pickups != nil || pr.KeptPickups != nil {
 		out.ChosePickups = true
 		out.Pickups, out.KeptPickups = newPickups(pr)
-		out.Method = fmt.Sprintf("pickups: %d stages set from their declared ranges between the load and sensitivity limits, the lowest admissible unless a higher one lets more margins be met within the multiplier ranges (%d candidate sets scored); then the ",
+		out.Method = fmt.Sprintf("pickups: %d stages set from their declared ranges between the load and sensitivity limits, the lowest admissible unless a higher one lets more margins be met within the multiplier ranges (%d candidate settings scored); then the ",
 			len(pr.Pickups), pr.PickupEvals) + out.Method
 	}
 	for i, v := range pr.Vars {
@@ -178,9 +178,17 @@ func (p *Proposal) summary() string {
 		line += fmt.Sprintf("; %d conflicts no multiplier can resolve (listed), %d findings still fail by them", len(p.Conflicts), len(p.Conflicting))
 	}
 	if len(p.Unchanged) > 0 {
-		line += fmt.Sprintf("; %d findings fail before and after, unmoved by multipliers", len(p.Unchanged))
+		line += fmt.Sprintf("; %d findings fail before and after, unmoved by %s", len(p.Unchanged), p.moved())
 	}
 	return line
+}
+
+// moved names what the proposal sets.
+func (p *Proposal) moved() string {
+	if p.ChosePickups {
+		return "pickups or multipliers"
+	}
+	return "multipliers"
 }
 
 func marginCell(f *coord.Finding) string {
@@ -224,7 +232,7 @@ func (p *Proposal) WriteText(w io.Writer) error {
 	}
 	p.writeConflictsText(ew)
 	p.writeFindingsText(ew, "STILL FAILING, BY THE CONFLICTS", p.Conflicting)
-	p.writeFindingsText(ew, "STILL FAILING, UNMOVED BY MULTIPLIERS", p.Unchanged)
+	p.writeFindingsText(ew, "STILL FAILING, UNMOVED BY "+strings.ToUpper(p.moved()), p.Unchanged)
 	p.writeFindingsText(ew, "STILL FAILING, NOT ACCOUNTED FOR", p.Unresolved)
 	fmt.Fprintf(ew, "\n%s\n%s\n", p.summary(), Caution)
 	return ew.err
@@ -312,7 +320,7 @@ func (p *Proposal) WriteMarkdown(w io.Writer) error {
 	for _, part := range []struct {
 		title string
 		fs    []coord.Finding
-	}{{"Still failing, by the conflicts", p.Conflicting}, {"Still failing, unmoved by multipliers", p.Unchanged}, {"Still failing, not accounted for", p.Unresolved}} {
+	}{{"Still failing, by the conflicts", p.Conflicting}, {"Still failing, unmoved by " + p.moved(), p.Unchanged}, {"Still failing, not accounted for", p.Unresolved}} {
 		if len(part.fs) == 0 {
 			continue
 		}
