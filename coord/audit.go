@@ -85,8 +85,21 @@ func (c *checker) settingsAudit(i int) ([]Finding, error) {
 	return out, nil
 }
 
+// CTPickupLimits returns the pickups of stage st that the settings
+// audit finds within the CT's range, lowA ≤ pickup ≤ highA (primary
+// amperes): at least 5 % of the CT's rating, at most 20 × it, and for an
+// inverse-time phase stage at most its continuous thermal rating (common
+// practice; a pickup outside is a WARN).
+func CTPickupLimits(ct CT, st Stage) (lowA, highA float64) {
+	lowA, highA = ctLowestPickupFraction*ct.PrimaryA, ctAccuracyLimitFactor*ct.PrimaryA
+	if st.Shape.Dependent() && st.Measures == Phase {
+		highA = math.Min(highA, ct.ThermalFactor*ct.PrimaryA)
+	}
+	return lowA, highA
+}
+
 // ctRange checks every pickup against the CT's accuracy and thermal
-// range.
+// range (the limits CTPickupLimits gives).
 func (c *checker) ctRange(d *Device) Finding {
 	ct := d.CT
 	var problems []string

@@ -65,9 +65,21 @@ func (e *ScenarioError) Unwrap() error { return e.Err }
 // them all. When the study has scenarios, every finding is tagged with
 // the name of the one it was made in.
 func CheckScenarios(s *Study, eng *faults.Engine, t *Topology, pick func(name string) bool, visit func(Checked) error) error {
+	return CheckScenariosWith(s, eng, t, pick, nil, visit)
+}
+
+// CheckScenariosWith is CheckScenarios with the options of each check:
+// opts, when not nil, gives them for a scenario's name and its study.
+func CheckScenariosWith(s *Study, eng *faults.Engine, t *Topology, pick func(name string) bool, opts func(name string, st *Study) Options, visit func(Checked) error) error {
+	optsOf := func(name string, st *Study) Options {
+		if opts == nil {
+			return Options{}
+		}
+		return opts(name, st)
+	}
 	tag := len(s.Scenarios) > 0
 	if pick == nil || pick(AsDrawn) {
-		r, err := Check(s, eng, t)
+		r, err := CheckWith(s, eng, t, optsOf(AsDrawn, s))
 		if err != nil {
 			return err
 		}
@@ -84,7 +96,7 @@ func CheckScenarios(s *Study, eng *faults.Engine, t *Topology, pick func(name st
 			list = append(list, sc)
 		}
 	}
-	return pipeline(list, visit)
+	return pipeline(list, optsOf, visit)
 }
 
 // pipeline checks the scenarios of list on every CPU, several at a time,
@@ -92,7 +104,7 @@ func CheckScenarios(s *Study, eng *faults.Engine, t *Topology, pick func(name st
 // until visit has taken it, and no more than one per CPU are under way or
 // waiting, so memory does not grow with the number of scenarios. The
 // first error, in list order, stops it.
-func pipeline(list []Scenario, visit func(Checked) error) error {
+func pipeline(list []Scenario, opts func(string, *Study) Options, visit func(Checked) error) error {
 	type outcome struct {
 		c   Checked
 		err error
@@ -118,7 +130,7 @@ func pipeline(list []Scenario, visit func(Checked) error) error {
 			wg.Add(1)
 			go func() {
 				defer wg.Done()
-				c, err := checkScenario(sc)
+				c, err := checkScenario(sc, opts)
 				if err != nil {
 					err = &ScenarioError{Scenario: sc.Name, Err: err}
 				} else {
@@ -142,7 +154,7 @@ func pipeline(list []Scenario, visit func(Checked) error) error {
 }
 
 // checkScenario builds, prepares and checks one scenario.
-func checkScenario(sc Scenario) (Checked, error) {
+func checkScenario(sc Scenario, opts func(string, *Study) Options) (Checked, error) {
 	st, err := sc.Build()
 	if err != nil {
 		return Checked{}, err
@@ -151,7 +163,7 @@ func checkScenario(sc Scenario) (Checked, error) {
 	if err != nil {
 		return Checked{}, err
 	}
-	r, err := Check(st, eng, t)
+	r, err := CheckWith(st, eng, t, opts(sc.Name, st))
 	if err != nil {
 		return Checked{}, err
 	}

@@ -30,6 +30,7 @@ func run(args []string, stdout, stderr io.Writer) int {
 	fs.IntVar(&o.Buses, "buses", 1000, "number of `buses`")
 	fs.Uint64Var(&o.Seed, "seed", 1, "random `seed`")
 	fs.BoolVar(&o.Fuses, "fuses", false, "fuses instead of relays on the 11 kV spurs")
+	fs.BoolVar(&o.Ranges, "ranges", false, "pickup and multiplier ranges on the relays' inverse-time stages (for propose --pickups)")
 	if err := fs.Parse(args); err != nil {
 		return 2
 	}

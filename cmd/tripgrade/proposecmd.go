@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"errors"
 	"fmt"
 	"io"
 	"strconv"
@@ -16,21 +17,25 @@ import (
 // multipliers that meet every margin, verified by the checker.
 func runPropose(args []string, stdout, stderr io.Writer) int {
 	c := newCmdLine("propose", `usage: tripgrade propose STUDY.toml [--out FILE.csv] [--format text|md|csv|json] [--keep NAMES]
-                         [--tms-range MIN:MAX:STEP] [--td-range MIN:MAX:STEP]
+                         [--tms-range MIN:MAX:STEP] [--td-range MIN:MAX:STEP] [--pickups]
 
 Finds, for every inverse-time stage, the least time multiplier within its range
 such that every grading, discrimination and clearing margin the checker judges
 holds, rounds it up to the range's step and verifies the result with the
 checker. Prints the proposal (old → new, what binds each multiplier, the margins
 before and after, the conflicts no multiplier resolves); --out writes the
-proposed settings as a settings table the study can read. Exit 0: verified, no
-conflict; 1: conflicts remain or the proposal could not be verified; 2: the
-study or the command line is wrong.`)
+proposed settings as a settings table the study can read. With --pickups it
+first chooses the pickup of every inverse-time stage that declares a
+pickup_range_a, between the load and sensitivity limits the checker applies:
+the lowest admissible, raised only where that lets more margins be met. Exit 0:
+verified, no conflict; 1: conflicts remain or the proposal could not be
+verified; 2: the study or the command line is wrong.`)
 	out := c.fs.String("out", "", "write the proposed settings as a settings table (CSV) to `FILE`")
 	format := c.fs.String("format", "text", "output `format`: text, md, csv or json")
 	keep := c.fs.String("keep", "", "devices whose settings stay as they are, comma-separated `NAMES`")
 	tms := c.fs.String("tms-range", rangeText(propose.DefaultTMSRange), "the TMS range of IEC stages that declare no multiplier_range, `MIN:MAX:STEP`")
 	td := c.fs.String("td-range", rangeText(propose.DefaultTDRange), "the TD range of IEEE stages that declare no multiplier_range, `MIN:MAX:STEP`")
+	pickups := c.fs.Bool("pickups", false, "also choose the pickups of inverse-time stages from their declared pickup_range_a")
 	if code, done := c.parse(args, 1, "exactly one study file", stdout, stderr); done {
 		return code
 	}
@@ -43,7 +48,7 @@ study or the command line is wrong.`)
 	if !ok {
 		return c.fail(stderr, exitUsage, "--format %q: want text, md, csv or json", *format)
 	}
-	var set propose.Settings
+	set := propose.Settings{Pickups: *pickups}
 	var err error
 	if set.DefaultTMS, err = parseRange("--tms-range", *tms); err != nil {
 		return c.fail(stderr, exitUsage, "%v", err)
@@ -65,6 +70,10 @@ study or the command line is wrong.`)
 		}
 	}
 	pr, err := propose.Propose(l.study, l.engine, l.topo, set)
+	var none *propose.NoPickupsError
+	if errors.As(err, &none) {
+		return c.fail(stderr, exitUsage, "--pickups: %s: %v", l.path, err)
+	}
 	if err != nil {
 		return c.fail(stderr, exitUsage, "%v", err)
 	}

@@ -15,11 +15,21 @@ import (
 // with an inverse phase stage and a definite-time ground stage at every
 // line end), the study prepared once:
 // go test -run X -bench Propose -benchtime 1x ./coord/propose/
+//
+// With pickups, every phase stage declares a pickup range (gen.Options
+// Ranges) and the search chooses the pickups first.
 func BenchmarkPropose(b *testing.B) {
-	for _, n := range []int{1000} {
-		b.Run(fmt.Sprintf("buses=%d", n), func(b *testing.B) {
+	for _, c := range []struct {
+		n       int
+		pickups bool
+	}{{1000, false}, {1000, true}} {
+		name := fmt.Sprintf("buses=%d", c.n)
+		if c.pickups {
+			name += "/pickups"
+		}
+		b.Run(name, func(b *testing.B) {
 			var src bytes.Buffer
-			if err := gen.Write(&src, gen.Options{Buses: n, Seed: 1}); err != nil {
+			if err := gen.Write(&src, gen.Options{Buses: c.n, Seed: 1, Ranges: c.pickups}); err != nil {
 				b.Fatal(err)
 			}
 			s, err := study.Parse("gen.toml", src.Bytes(), nil)
@@ -32,12 +42,15 @@ func BenchmarkPropose(b *testing.B) {
 			}
 			b.ResetTimer()
 			for b.Loop() {
-				pr, err := Propose(s, eng, topo, Settings{})
+				pr, err := Propose(s, eng, topo, Settings{Pickups: c.pickups})
 				if err != nil {
 					b.Fatal(err)
 				}
 				b.ReportMetric(float64(pr.Rounds), "rounds")
 				b.ReportMetric(float64(pr.Constraints), "constraints")
+				if c.pickups {
+					b.ReportMetric(float64(pr.PickupEvals), "pickup-sets")
+				}
 			}
 		})
 	}

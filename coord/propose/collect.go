@@ -23,6 +23,19 @@ type Source struct {
 	// clearing bound); MarginS the margin the checker found where the
 	// constraint was linearised.
 	RequiredS, MarginS float64
+	// CurrentA is the inrush current of an inrush bound (Check Inrush).
+	CurrentA float64
+	// Scenario names the operating scenario the margin was judged in (""
+	// for the study as drawn); Where then names the fault's place, which
+	// Place cannot (it indexes the scenario's own network), and Up and
+	// Down are the study's device indices.
+	Scenario, Where string
+}
+
+// origin says where a margin handed to a collector was judged: in which
+// scenario, and the place of its fault by name. nil: the study as drawn.
+type origin struct {
+	scenario, where string
 }
 
 // line is x_U ≥ K·x_D + B between two variables.
@@ -83,7 +96,42 @@ func newCollector(lin *linearizer, vars []Variable) *collector {
 }
 
 // margin receives one margin from the checker (coord.Options.Margins).
-func (c *collector) margin(ms *coord.MarginSample) {
+func (c *collector) margin(ms *coord.MarginSample) { c.marginFrom(ms, nil) }
+
+// marginIn returns the receiver of the margins of the study's scenario
+// named name, whose own study is st: its devices are the study's (s) of
+// the same name (a scenario has the study's settings and no devices of
+// its own), so each margin is taken as one between the study's devices,
+// with its scenario and its fault's place by name.
+func (c *collector) marginIn(name string, st, s *coord.Study) func(*coord.MarginSample) {
+	at := map[string]int{}
+	for i := range s.Devices {
+		at[s.Devices[i].Name] = i
+	}
+	dev := make([]int, len(st.Devices))
+	for i := range st.Devices {
+		j, ok := at[st.Devices[i].Name]
+		if !ok {
+			j = -1
+		}
+		dev[i] = j
+	}
+	return func(ms *coord.MarginSample) {
+		m := *ms
+		if m.Down = dev[ms.Down]; m.Down < 0 {
+			return
+		}
+		if ms.Up >= 0 {
+			if m.Up = dev[ms.Up]; m.Up < 0 {
+				return
+			}
+		}
+		c.marginFrom(&m, &origin{scenario: name, where: coord.PlaceName(st.Network, ms.Place)})
+	}
+}
+
+// marginFrom receives one margin judged where o says.
+func (c *collector) marginFrom(ms *coord.MarginSample, o *origin) {
 	var buf [16]constraint
 	cons := buf[:0]
 	c.lin.constraints(ms, func(k constraint) { cons = append(cons, k) })
@@ -91,14 +139,18 @@ func (c *collector) margin(ms *coord.MarginSample) {
 	defer c.mu.Unlock()
 	c.n++
 	for _, k := range cons {
-		c.add(k, ms)
+		c.add(k, ms, o)
 	}
 }
 
 // source describes the margin a kept constraint comes from.
-func source(ms *coord.MarginSample, upStage int) *Source {
-	return &Source{Check: ms.Check, Up: ms.Up, Down: ms.Down, UpStage: upStage, Kind: ms.Kind, Case: ms.Case, Place: ms.Place,
+func source(ms *coord.MarginSample, upStage int, o *origin) *Source {
+	src := &Source{Check: ms.Check, Up: ms.Up, Down: ms.Down, UpStage: upStage, Kind: ms.Kind, Case: ms.Case, Place: ms.Place,
 		Scale: ms.Scale, Sequence: ms.Sequence, RequiredS: ms.RequiredS, MarginS: ms.MarginS}
+	if o != nil {
+		src.Scenario, src.Where = o.scenario, o.where
+	}
+	return src
 }
 
 // feasTol is the slack below which a constraint counts as met: the
@@ -106,14 +158,14 @@ func source(ms *coord.MarginSample, upStage int) *Source {
 const feasTol = 1e-9
 
 // add files one constraint A·x_U − B·x_D ≥ C of margin ms.
-func (c *collector) add(k constraint, ms *coord.MarginSample) {
+func (c *collector) add(k constraint, ms *coord.MarginSample, o *origin) {
 	hasU, hasD := k.u >= 0 && k.a > 0, k.d >= 0 && k.b > 0
 	switch {
 	case hasU && hasD:
-		c.addLine(k.u, k.d, line{k: k.b / k.a, b: k.c / k.a}, func() *Source { return source(ms, k.upStage) })
+		c.addLine(k.u, k.d, line{k: k.b / k.a, b: k.c / k.a}, func() *Source { return source(ms, k.upStage, o) })
 	case hasU:
-		if v := k.c / k.a; v > c.lower[k.u].v {
-			c.lower[k.u] = bound{v, source(ms, k.upStage)}
+		if v := k.c / k.a; v > c.lower[k.u].v || v == c.lower[k.u].v && sourceLess(source(ms, k.upStage, o), c.lower[k.u].src) {
+			c.lower[k.u] = bound{v, source(ms, k.upStage, o)}
 		}
 	case hasD:
 		// Bounds below the range cannot be met: the lowest of them is kept
@@ -122,16 +174,16 @@ func (c *collector) add(k constraint, ms *coord.MarginSample) {
 		// Every source's lowest bound is kept: which of them the range
 		// (and the lower bounds) can meet is known only when all are in.
 		v, key := -k.c/k.b, upperKey{ms.Check, ms.Up, k.upStage}
-		if old, ok := c.upper[k.d][key]; !ok || v < old.v {
+		if old, ok := c.upper[k.d][key]; !ok || v < old.v || v == old.v && sourceLess(source(ms, k.upStage, o), old.src) {
 			if c.upper[k.d] == nil {
 				c.upper[k.d] = map[upperKey]bound{}
 			}
-			c.upper[k.d][key] = bound{v, source(ms, k.upStage)}
+			c.upper[k.d][key] = bound{v, source(ms, k.upStage, o)}
 		}
 	case k.c > feasTol:
 		key := fixedKey{ms.Check, ms.Up, ms.Down}
-		if m, ok := c.fixed[key]; !ok || k.c > m.shortS {
-			c.fixed[key] = fixedMiss{k.c, source(ms, k.upStage)}
+		if m, ok := c.fixed[key]; !ok || k.c > m.shortS || k.c == m.shortS && sourceLess(source(ms, k.upStage, o), m.src) {
+			c.fixed[key] = fixedMiss{k.c, source(ms, k.upStage, o)}
 		}
 	}
 }
@@ -143,8 +195,18 @@ func (c *collector) addLine(u, d int, l line, src func() *Source) {
 	lo, hi := c.vars[d].Range.Min, c.vars[d].Range.Max
 	at := func(m line, x float64) float64 { return m.k*x + m.b }
 	ls := c.lines[key]
-	for _, m := range ls {
+	for i, m := range ls {
 		if at(m, lo) >= at(l, lo) && at(m, hi) >= at(l, hi) {
+			// Of two equal lines the one of the lesser source stays,
+			// whatever order the checker's workers hand them in.
+			if at(m, lo) == at(l, lo) && at(m, hi) == at(l, hi) {
+				if l.src == nil {
+					l.src = src()
+				}
+				if sourceLess(l.src, m.src) {
+					ls[i] = l
+				}
+			}
 			return
 		}
 	}
@@ -169,11 +231,11 @@ func (c *collector) merge(o *collector) {
 		}
 	}
 	for i := range o.lower {
-		if o.lower[i].v > c.lower[i].v {
+		if o.lower[i].v > c.lower[i].v || o.lower[i].v == c.lower[i].v && sourceLess(o.lower[i].src, c.lower[i].src) {
 			c.lower[i] = o.lower[i]
 		}
 		for key, b := range o.upper[i] {
-			if old, ok := c.upper[i][key]; !ok || b.v < old.v {
+			if old, ok := c.upper[i][key]; !ok || b.v < old.v || b.v == old.v && sourceLess(b.src, old.src) {
 				if c.upper[i] == nil {
 					c.upper[i] = map[upperKey]bound{}
 				}
@@ -182,7 +244,7 @@ func (c *collector) merge(o *collector) {
 		}
 	}
 	for key, m := range o.fixed {
-		if old, ok := c.fixed[key]; !ok || m.shortS > old.shortS {
+		if old, ok := c.fixed[key]; !ok || m.shortS > old.shortS || m.shortS == old.shortS && sourceLess(m.src, old.src) {
 			c.fixed[key] = m
 		}
 	}

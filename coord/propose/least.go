@@ -4,6 +4,8 @@ import (
 	"errors"
 	"math"
 	"sort"
+
+	"tripgrade/faults"
 )
 
 // The least multipliers.
@@ -298,9 +300,14 @@ func (p *problem) binding(x []float64) (edges []int, need []float64) {
 	return edges, need
 }
 
-// sourceLess orders two sources by check, devices, stage and fault.
+// sourceLess orders two sources by check, devices, stage and fault (its
+// scenario first), so that of equal constraints the same one is kept
+// whatever order the checker's workers hand them in. A nil source (none)
+// comes last.
 func sourceLess(a, b *Source) bool {
 	switch {
+	case a == nil || b == nil:
+		return a != nil && b == nil
 	case a.Check != b.Check:
 		return a.Check < b.Check
 	case a.Up != b.Up:
@@ -309,10 +316,36 @@ func sourceLess(a, b *Source) bool {
 		return a.Down < b.Down
 	case a.UpStage != b.UpStage:
 		return a.UpStage < b.UpStage
+	case a.Scenario != b.Scenario:
+		return a.Scenario < b.Scenario
 	case a.Kind != b.Kind:
 		return a.Kind < b.Kind
 	case a.Case != b.Case:
 		return a.Case < b.Case
+	case a.Where != b.Where:
+		return a.Where < b.Where
+	case a.Place != b.Place:
+		return placeLess(a.Place, b.Place)
+	case a.Scale != b.Scale:
+		return a.Scale < b.Scale
+	case a.Sequence != b.Sequence:
+		return !a.Sequence
+	case a.RequiredS != b.RequiredS:
+		return a.RequiredS < b.RequiredS
+	case a.MarginS != b.MarginS:
+		return a.MarginS < b.MarginS
 	}
-	return a.Scale < b.Scale
+	return a.CurrentA < b.CurrentA
+}
+
+// placeLess orders fault places: buses before branches, then by index
+// and position.
+func placeLess(a, b faults.Place) bool {
+	switch {
+	case a.Branch != b.Branch:
+		return a.Branch < b.Branch
+	case a.Bus != b.Bus:
+		return a.Bus < b.Bus
+	}
+	return a.Frac < b.Frac
 }

@@ -43,8 +43,9 @@ type piece struct{ slope, off float64 }
 type linearizer struct {
 	s      *coord.Study
 	timers []*coord.Timer
-	index  [][]int   // variable of each (device, stage), −1 when fixed
-	x      []float64 // the multipliers of the study being linearised, per variable
+	index  [][]int    // variable of each (device, stage), −1 when fixed
+	x      []float64  // the multipliers of the study being linearised, per variable
+	vars   []Variable // the variables (for the pickup search; nil otherwise)
 }
 
 func newLinearizer(s *coord.Study, index [][]int, x []float64) *linearizer {
@@ -87,6 +88,28 @@ func stageTime(d *coord.Device, st coord.Stage, a float64, b coord.Band) (float6
 	}
 	t, status := c.Time(a)
 	return t, status == curves.Operates && !math.IsInf(t, 1) && !math.IsNaN(t)
+}
+
+// stageTimeG is stageTime that also returns, for an inverse-time stage
+// timed nominally, its time at multiplier 1 (0 otherwise), computed once:
+// the stage's time is then its multiplier times it, or its minimum time
+// (curves.InverseTime.Time, the same arithmetic).
+func stageTimeG(d *coord.Device, st coord.Stage, a float64, b coord.Band) (t, g float64, ok bool) {
+	c, inverse := st.Curve.(curves.InverseTime)
+	if !inverse || b != coord.Nominal && d.Accuracy.ClassPct > 0 {
+		t, ok = stageTime(d, st, a, b)
+		return t, 0, ok
+	}
+	c.Multiplier, c.MinTimeS = 1, 0
+	g, status := c.Time(a)
+	if status != curves.Operates {
+		return 0, 0, false
+	}
+	t = st.Curve.(curves.InverseTime).Multiplier * g
+	if tmin := st.Curve.(curves.InverseTime).MinTimeS; t < tmin {
+		t = tmin
+	}
+	return t, g, !math.IsInf(t, 1) && !math.IsNaN(t)
 }
 
 // upPieces returns, for each stage of the upstream device that operates,
@@ -139,10 +162,11 @@ func (l *linearizer) downPieces(dev int, at coord.Operating, b coord.Band) (int,
 		t, st := tm.OperateDir(at.PhaseA, at.GroundA, at.Dirs, b)
 		return -1, []piece{{0, t}}, st == curves.Operates
 	}
-	best, bestS := -1, math.Inf(1)
+	best, bestS, bestG, bestA := -1, math.Inf(1), 0.0, 0.0
 	for i, st := range d.Stages {
-		if t, ok := stageTime(d, st, tm.StageCurrentA(i, at), b); ok && t < bestS {
-			best, bestS = i, t
+		a := tm.StageCurrentA(i, at)
+		if t, g, ok := stageTimeG(d, st, a, b); ok && t < bestS {
+			best, bestS, bestG, bestA = i, t, g, a
 		}
 	}
 	if best < 0 {
@@ -153,8 +177,10 @@ func (l *linearizer) downPieces(dev int, at coord.Operating, b coord.Band) (int,
 		return -1, []piece{{0, bestS}}, true
 	}
 	st := d.Stages[best]
-	a := tm.StageCurrentA(best, at)
-	g, _ := unit(st, a)
+	a, g := bestA, bestG
+	if g == 0 {
+		g, _ = unit(st, a)
+	}
 	tmin := st.Curve.(curves.InverseTime).MinTimeS
 	ps := []piece{{g, 0}}
 	if tmin > 0 {
@@ -180,17 +206,17 @@ func (l *linearizer) slope(dev int, at coord.Operating) (int, float64) {
 		return -1, 0
 	}
 	tm := l.timers[dev]
-	best, bestS := -1, math.Inf(1)
+	best, bestS, g := -1, math.Inf(1), 0.0
 	for i, st := range d.Stages {
-		if t, ok := stageTime(d, st, tm.StageCurrentA(i, at), coord.Nominal); ok && t < bestS {
-			best, bestS = i, t
+		if t, gi, ok := stageTimeG(d, st, tm.StageCurrentA(i, at), coord.Nominal); ok && t < bestS {
+			best, bestS, g = i, t, gi
 		}
 	}
 	if best < 0 || l.index[dev][best] < 0 {
 		return -1, 0
 	}
 	st := d.Stages[best]
-	g, ok := unit(st, tm.StageCurrentA(best, at))
+	ok := g > 0 && !math.IsInf(g, 1)
 	if !ok || bestS <= st.Curve.(curves.InverseTime).MinTimeS && st.Curve.(curves.InverseTime).MinTimeS > 0 {
 		return -1, 0
 	}
@@ -199,10 +225,16 @@ func (l *linearizer) slope(dev int, at coord.Operating) (int, float64) {
 
 // constraint is A·x_U − B·x_D ≥ C, U or D −1 when the term is fixed,
 // from stage upStage (−1: the device as a whole) of the upstream device.
+// For the pickup search it also records the currents ua and da at which
+// the two variable stages were timed (A and B are proportional to their
+// times at multiplier 1 there) and the parts cu and cd of C that scale
+// with those times (a margin of a sequence: its integrated times).
 type constraint struct {
 	u, d    int
 	a, b, c float64
 	upStage int
+	ua, da  float64
+	cu, cd  float64
 }
 
 // constraints linearises one margin.
@@ -215,22 +247,34 @@ func (l *linearizer) constraints(ms *coord.MarginSample, emit func(constraint)) 
 	if !ok {
 		return
 	}
+	da := l.varCurrent(dv, ms.DownAt)
 	if ms.Up < 0 {
 		// A clearing bound: −β·t_D ≥ γ.
 		for _, q := range dps {
-			emit(constraint{u: -1, d: dv, a: 0, b: ms.Beta * q.slope, c: ms.Gamma + ms.Beta*q.off, upStage: -1})
+			emit(constraint{u: -1, d: dv, a: 0, b: ms.Beta * q.slope, c: ms.Gamma + ms.Beta*q.off, upStage: -1, da: da})
 		}
 		return
 	}
 	uvars, ups, stages := l.upPieces(ms.Up, ms.UpAt, ms.UpBand)
 	for i, uv := range uvars {
+		ua := l.varCurrent(uv, ms.UpAt)
 		for _, p := range ups[i] {
 			for _, q := range dps {
 				emit(constraint{u: uv, d: dv, a: ms.Alpha * p.slope, b: ms.Beta * q.slope,
-					c: ms.Gamma - ms.Alpha*p.off + ms.Beta*q.off, upStage: stages[i]})
+					c: ms.Gamma - ms.Alpha*p.off + ms.Beta*q.off, upStage: stages[i], ua: ua, da: da})
 			}
 		}
 	}
+}
+
+// varCurrent returns the current the stage of variable v responds to at
+// a fault (0 for −1).
+func (l *linearizer) varCurrent(v int, at coord.Operating) float64 {
+	if v < 0 || l.vars == nil {
+		return 0
+	}
+	x := l.vars[v]
+	return l.timers[x.Device].StageCurrentA(x.Stage, at)
 }
 
 // sequenceConstraint linearises a margin of an opening sequence in the
@@ -241,12 +285,23 @@ func (l *linearizer) sequenceConstraint(ms *coord.MarginSample, emit func(constr
 		uv, gu = l.slope(ms.Up, ms.UpAt)
 	}
 	dv, gd := l.slope(ms.Down, ms.DownAt)
-	c := ms.Gamma - ms.Alpha*ms.UpS + ms.Beta*ms.DownS
+	upS, downS := ms.UpS, ms.DownS
+	// C = γ − α·t_U + β·t_D + α·g_U·x_U − β·g_D·x_D, the times of the
+	// variable stages' devices split off as the parts that scale with
+	// them.
+	k := constraint{u: uv, d: dv, a: ms.Alpha * gu, b: ms.Beta * gd, c: ms.Gamma, upStage: -1}
 	if uv >= 0 {
-		c += ms.Alpha * gu * l.x[uv]
+		k.cu = ms.Alpha * (gu*l.x[uv] - upS)
+		k.ua = l.varCurrent(uv, ms.UpAt)
+	} else {
+		k.c -= ms.Alpha * upS
 	}
 	if dv >= 0 {
-		c -= ms.Beta * gd * l.x[dv]
+		k.cd = ms.Beta * (downS - gd*l.x[dv])
+		k.da = l.varCurrent(dv, ms.DownAt)
+	} else {
+		k.c += ms.Beta * downS
 	}
-	emit(constraint{u: uv, d: dv, a: ms.Alpha * gu, b: ms.Beta * gd, c: c, upStage: -1})
+	k.c += k.cu + k.cd
+	emit(k)
 }

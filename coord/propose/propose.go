@@ -36,6 +36,15 @@ type Proposal struct {
 	// conflict accounts for and that the multipliers changed: the search
 	// did not converge on them. A proposal with any is not verified.
 	Unresolved []coord.Finding
+	// Pickups are the stages whose pickups were chosen (Settings.Pickups),
+	// P the chosen pickups and PickupBy what holds each; KeptPickups the
+	// stages whose pickups were left as given, and why. PickupEvals counts
+	// the candidate sets of pickups the search scored.
+	Pickups     []PickupVar
+	P           []float64
+	PickupBy    []Limit
+	KeptPickups []KeptPickup
+	PickupEvals int
 	// Rounds is the number of solve-and-verify rounds run.
 	Rounds int
 	// Margins counts the margins linearised in the first round;
@@ -62,42 +71,58 @@ var timedChecks = map[coord.CheckKind]bool{coord.Grading: true, coord.Discrimina
 // Propose searches for the least multipliers of the study's inverse-time
 // stages that meet every margin the checker judges, rounds them up to
 // their steps, and verifies them with the checker, linearising again at
-// the new settings until the checker agrees or the rounds run out.
+// the new settings until the checker agrees or the rounds run out. With
+// Settings.Pickups it first chooses the pickups (pickups.go, search.go).
 func Propose(s *coord.Study, eng *faults.Engine, topo *coord.Topology, o Settings) (*Proposal, error) {
 	vars, index, err := variables(s, o)
 	if err != nil {
 		return nil, err
 	}
 	pr := &Proposal{Study: s, Vars: vars}
+	ia := inrushCurrents(s, topo)
+	if o.Pickups {
+		return pr, pr.choosePickups(eng, topo, o, index, ia)
+	}
 	col := newCollector(newLinearizer(s, index, multipliers(s, vars)), vars)
-	pr.Before, err = coord.CheckWith(s, eng, topo, coord.Options{Margins: col.margin})
+	col.inrush(s, ia)
+	pr.Before, err = checkEvery(s, s, eng, topo, col)
 	if err != nil {
 		return nil, err
 	}
 	pr.Margins = col.n
+	return pr, pr.solve(s, eng, index, col, o, ia)
+}
+
+// solve runs the rounds: the least multipliers of the collected
+// constraints, rounded, applied to base (the study at the pickups
+// proposed) and verified by the checker, whose margins at the new
+// settings join the constraints for the next round.
+func (pr *Proposal) solve(base *coord.Study, eng *faults.Engine, index [][]int, col *collector, o Settings, ia []float64) error {
+	vars := pr.Vars
 	for round := 1; round <= o.rounds(); round++ {
 		pr.Rounds = round
 		p := build(col)
 		xc, lpGroups, err := p.solve()
 		if err != nil {
-			return nil, err
+			return err
 		}
 		xr, err := p.rounded(xc)
 		if err != nil {
-			return nil, err
+			return err
 		}
 		pr.Continuous, pr.X, pr.Conflicts = xc, xr, p.conflicts
 		pr.Constraints, pr.Groups, pr.LPGroups = p.size(), len(p.components()), lpGroups
 		pr.binding(p)
-		pr.Proposed = Apply(s, vars, xr)
+		pr.Proposed = Apply(base, vars, xr)
 		t2, err := coord.NewTopology(pr.Proposed, eng)
 		if err != nil {
-			return nil, err
+			return err
 		}
 		next := newCollector(newLinearizer(pr.Proposed, index, xr), vars)
-		pr.After, err = coord.CheckWith(pr.Proposed, eng, t2, coord.Options{Margins: next.margin})
+		next.inrush(pr.Proposed, ia)
+		pr.After, err = checkEvery(pr.Study, pr.Proposed, eng, t2, next)
 		if err != nil {
-			return nil, err
+			return err
 		}
 		last := len(pr.Unresolved)
 		pr.sortOut()
@@ -106,7 +131,70 @@ func Propose(s *coord.Study, eng *faults.Engine, topo *coord.Topology, o Setting
 		}
 		col.merge(next)
 	}
-	return pr, nil
+	return nil
+}
+
+// checkEvery checks st, the study s at other settings (its engine and
+// topology given), and each scenario of s with st's settings, handing
+// every margin to col (nil: none), and returns the worst findings over
+// them all, each naming its scenario; a study without scenarios is
+// checked as drawn alone. The constraints of every scenario so enter the
+// search, and a proposal is verified in every scenario the checker
+// checks.
+func checkEvery(s, st *coord.Study, eng *faults.Engine, topo *coord.Topology, col *collector) (*coord.Result, error) {
+	opts := func(name string, in *coord.Study) coord.Options {
+		if col == nil {
+			return coord.Options{}
+		}
+		if name == coord.AsDrawn {
+			return coord.Options{Margins: col.margin}
+		}
+		return coord.Options{Margins: col.marginIn(name, in, st)}
+	}
+	if len(s.Scenarios) == 0 {
+		return coord.CheckWith(st, eng, topo, opts(coord.AsDrawn, st))
+	}
+	at := *st
+	at.Scenarios = make([]coord.Scenario, len(s.Scenarios))
+	for i, sc := range s.Scenarios {
+		build := sc.Build
+		sc.Build = func() (*coord.Study, error) {
+			in, err := build()
+			if err != nil {
+				return nil, err
+			}
+			return withSettingsOf(in, st), nil
+		}
+		at.Scenarios[i] = sc
+	}
+	w := coord.NewWorst()
+	err := coord.CheckScenariosWith(&at, eng, topo, nil, opts, func(c coord.Checked) error {
+		w.Add(c.Study, c.Result)
+		return nil
+	})
+	if err != nil {
+		return nil, err
+	}
+	return w.Result(), nil
+}
+
+// withSettingsOf returns a copy of a scenario's study in whose devices
+// the stages are those of the device of the same name in st: the
+// scenario at the settings being tried (a scenario changes the network,
+// never a device's settings).
+func withSettingsOf(in, st *coord.Study) *coord.Study {
+	at := map[string]int{}
+	for i := range st.Devices {
+		at[st.Devices[i].Name] = i
+	}
+	out := *in
+	out.Devices = append([]coord.Device(nil), in.Devices...)
+	for i := range out.Devices {
+		if j, ok := at[out.Devices[i].Name]; ok {
+			out.Devices[i].Stages = append([]coord.Stage(nil), st.Devices[j].Stages...)
+		}
+	}
+	return &out
 }
 
 // size counts the constraints of a problem: the edges and the bounds.
@@ -155,7 +243,20 @@ func (pr *Proposal) sortOut() {
 	pr.Unchanged, pr.Unresolved, pr.Conflicting = nil, nil, nil
 	in := pr.conflictIndex()
 	for _, f := range pr.After.Findings {
-		if f.Verdict != coord.Fail || !timedChecks[f.Check] {
+		if f.Verdict != coord.Fail {
+			continue
+		}
+		if pr.Pickups != nil && pickupChecks[f.Check] {
+			// A pickup moved: the finding fails by the proposal unless it
+			// failed on the study too.
+			if failed(before[keyOf(f)]) {
+				pr.Unchanged = append(pr.Unchanged, f)
+			} else {
+				pr.Unresolved = append(pr.Unresolved, f)
+			}
+			continue
+		}
+		if !timedChecks[f.Check] {
 			continue
 		}
 		if pr.explains(f, in) {
@@ -170,6 +271,16 @@ func (pr *Proposal) sortOut() {
 		}
 		pr.Unresolved = append(pr.Unresolved, f)
 	}
+}
+
+// failed reports whether one of the findings fails.
+func failed(fs []coord.Finding) bool {
+	for _, f := range fs {
+		if f.Verdict == coord.Fail {
+			return true
+		}
+	}
+	return false
 }
 
 // sameFailure reports whether one of the earlier findings failed with
@@ -218,7 +329,7 @@ func (pr *Proposal) conflictIndex() conflictIndex {
 		}
 		for _, src := range c.Chain {
 			switch {
-			case src == nil:
+			case src == nil, isInrush(src):
 			case src.Up < 0:
 				in.clearing[pr.Study.Devices[src.Down].Name] = true
 			default:
@@ -235,7 +346,18 @@ func Describe(s *coord.Study, src *Source) string {
 	if src == nil {
 		return "bottom of the range"
 	}
-	fault := fmt.Sprintf("%s %s @ %s", src.Kind, src.Case, coord.PlaceName(s.Network, src.Place))
+	if isInrush(src) {
+		return fmt.Sprintf("inrush: %s does not operate within %.3g s at %s A (%g × the full-load current of the transformers it energises)",
+			s.Devices[src.Down].Name, src.RequiredS, fmtA(src.CurrentA), s.Criteria.InrushMultiple)
+	}
+	where := src.Where
+	if src.Scenario == "" {
+		where = coord.PlaceName(s.Network, src.Place)
+	}
+	fault := fmt.Sprintf("%s %s @ %s", src.Kind, src.Case, where)
+	if src.Scenario != "" {
+		fault += " in scenario " + src.Scenario
+	}
 	if src.Scale != 1 && src.Scale > 0 {
 		fault += fmt.Sprintf(" (sweep, %.0f %%)", src.Scale*100)
 	}

@@ -21,7 +21,13 @@ type Proposal struct {
 	Method   string   // how the multipliers were found, in words
 	Notes    []string // defaults used, devices kept
 	Settings []ProposedSetting
-	Margins  []MarginChange
+	// ChosePickups is true for a proposal made with --pickups: Pickups
+	// are then the chosen pickups and KeptPickups the stages it left as
+	// given.
+	ChosePickups bool
+	Pickups      []ProposedPickup
+	KeptPickups  []KeptPickupRow
+	Margins      []MarginChange
 	// Conflicts describe the margins no multipliers within their ranges
 	// meet; Unchanged and Unresolved are the failing findings of the
 	// proposal (see propose.Proposal).
@@ -63,6 +69,12 @@ func NewProposal(pr *propose.Proposal) *Proposal {
 		Conflicting: pr.Conflicting, Unchanged: pr.Unchanged, Unresolved: pr.Unresolved}
 	out.Method = fmt.Sprintf("least multipliers meeting every margin the checker judges: %d margins linearised, %d constraints kept after removing dominated ones, %d groups of linked multipliers (%d solved by gonum's simplex, the rest by label correcting); rounded up to each range's step and verified by the checker (%d round(s))",
 		pr.Margins, pr.Constraints, pr.Groups, pr.LPGroups, pr.Rounds)
+	if pr.Pickups != nil || pr.KeptPickups != nil {
+		out.ChosePickups = true
+		out.Pickups, out.KeptPickups = newPickups(pr)
+		out.Method = fmt.Sprintf("pickups: %d stages set from their declared ranges between the load and sensitivity limits, the lowest admissible unless a higher one lets more margins be met within the multiplier ranges (%d candidate settings scored); then the ",
+			len(pr.Pickups), pr.PickupEvals) + out.Method
+	}
 	for i, v := range pr.Vars {
 		d := s.Devices[v.Device]
 		st := d.Stages[v.Stage]
@@ -159,13 +171,24 @@ func (p *Proposal) summary() string {
 		return fmt.Sprintf("NOT VERIFIED: the checker still fails %d findings on the proposal that no conflict accounts for; no settings are proposed", len(p.Unresolved))
 	}
 	line := fmt.Sprintf("verified by the checker: %d of %d multipliers changed", changed, len(p.Settings))
+	if p.ChosePickups {
+		line += fmt.Sprintf(", %d of %d pickups", p.pickupsChanged(), len(p.Pickups))
+	}
 	if len(p.Conflicts) > 0 {
 		line += fmt.Sprintf("; %d conflicts no multiplier can resolve (listed), %d findings still fail by them", len(p.Conflicts), len(p.Conflicting))
 	}
 	if len(p.Unchanged) > 0 {
-		line += fmt.Sprintf("; %d findings fail before and after, unmoved by multipliers", len(p.Unchanged))
+		line += fmt.Sprintf("; %d findings fail before and after, unmoved by %s", len(p.Unchanged), p.moved())
 	}
 	return line
+}
+
+// moved names what the proposal sets.
+func (p *Proposal) moved() string {
+	if p.ChosePickups {
+		return "pickups or multipliers"
+	}
+	return "multipliers"
 }
 
 func marginCell(f *coord.Finding) string {
@@ -186,6 +209,7 @@ func (p *Proposal) WriteText(w io.Writer) error {
 		fmt.Fprintf(ew, "%s\n", n)
 	}
 	if p.Verified {
+		p.writePickupsText(ew)
 		fmt.Fprintf(ew, "\nMULTIPLIERS\n")
 		t := &textTable{head: []string{"relay", "stage", "setting", "old", "new", "least", "range"}}
 		for _, s := range p.Settings {
@@ -203,9 +227,12 @@ func (p *Proposal) WriteText(w io.Writer) error {
 			t.write(ew)
 		}
 	}
+	if !p.Verified && len(p.KeptPickups) > 0 {
+		(&Proposal{KeptPickups: p.KeptPickups}).writePickupsText(ew)
+	}
 	p.writeConflictsText(ew)
 	p.writeFindingsText(ew, "STILL FAILING, BY THE CONFLICTS", p.Conflicting)
-	p.writeFindingsText(ew, "STILL FAILING, UNMOVED BY MULTIPLIERS", p.Unchanged)
+	p.writeFindingsText(ew, "STILL FAILING, UNMOVED BY "+strings.ToUpper(p.moved()), p.Unchanged)
 	p.writeFindingsText(ew, "STILL FAILING, NOT ACCOUNTED FOR", p.Unresolved)
 	fmt.Fprintf(ew, "\n%s\n%s\n", p.summary(), Caution)
 	return ew.err
@@ -257,6 +284,11 @@ func (p *Proposal) WriteMarkdown(w io.Writer) error {
 		fmt.Fprintf(ew, "\n%s\n", md(n))
 	}
 	if p.Verified {
+		p.writePickupsMarkdown(ew)
+	} else if len(p.KeptPickups) > 0 {
+		(&Proposal{KeptPickups: p.KeptPickups}).writePickupsMarkdown(ew)
+	}
+	if p.Verified {
 		fmt.Fprintf(ew, "\n## Multipliers\n\n| relay | stage | setting | old | new | least | range | bound by |\n| --- | --- | --- | --- | --- | --- | --- | --- |\n")
 		for _, s := range p.Settings {
 			fmt.Fprintf(ew, "| %s | %s | %s | %s | %s | %s | %s | %s |\n", md(s.Device), md(s.Stage), s.Name, fmtX(s.Old), fmtX(s.New), fmtX(s.Least), fmtRange(s.Range, s.Declared), md(s.Binding))
@@ -288,7 +320,7 @@ func (p *Proposal) WriteMarkdown(w io.Writer) error {
 	for _, part := range []struct {
 		title string
 		fs    []coord.Finding
-	}{{"Still failing, by the conflicts", p.Conflicting}, {"Still failing, unmoved by multipliers", p.Unchanged}, {"Still failing, not accounted for", p.Unresolved}} {
+	}{{"Still failing, by the conflicts", p.Conflicting}, {"Still failing, unmoved by " + p.moved(), p.Unchanged}, {"Still failing, not accounted for", p.Unresolved}} {
 		if len(part.fs) == 0 {
 			continue
 		}
@@ -306,6 +338,11 @@ func (p *Proposal) WriteMarkdown(w io.Writer) error {
 func (p *Proposal) WriteCSV(w io.Writer) error {
 	cw := csv.NewWriter(w)
 	_ = cw.Write([]string{"row", "device", "stage", "other", "setting", "old", "new", "least", "range", "before_margin_s", "after_margin_s", "required_s", "verdict_before", "verdict_after", "note"})
+	if p.Verified {
+		p.writePickupsCSV(cw)
+	} else {
+		(&Proposal{KeptPickups: p.KeptPickups}).writePickupsCSV(cw)
+	}
 	if p.Verified {
 		for _, s := range p.Settings {
 			_ = cw.Write([]string{"multiplier", textCell(s.Device), textCell(s.Stage), "", s.Name, numberCell(s.Old), numberCell(s.New), numberCell(s.Least),
@@ -375,20 +412,26 @@ func (p *Proposal) WriteJSON(w io.Writer) error {
 		Note   string      `json:"note"`
 	}
 	doc := struct {
-		Study       string        `json:"study"`
-		Caution     string        `json:"caution"`
-		Verified    bool          `json:"verified"`
-		Summary     string        `json:"summary"`
-		Method      string        `json:"method"`
-		Notes       []string      `json:"notes,omitempty"`
-		Settings    []setting     `json:"multipliers"`
-		Margins     []margin      `json:"margins"`
-		Conflicts   []ConflictRow `json:"conflicts"`
-		Conflicting []finding     `json:"conflict_failures"`
-		Unchanged   []finding     `json:"unchanged_failures"`
-		Unresolved  []finding     `json:"unresolved_failures"`
+		Study       string           `json:"study"`
+		Caution     string           `json:"caution"`
+		Verified    bool             `json:"verified"`
+		Summary     string           `json:"summary"`
+		Method      string           `json:"method"`
+		Notes       []string         `json:"notes,omitempty"`
+		Pickups     *[]pickupJSON    `json:"pickups,omitempty"`
+		KeptPickups *[]KeptPickupRow `json:"pickups_kept,omitempty"`
+		Settings    []setting        `json:"multipliers"`
+		Margins     []margin         `json:"margins"`
+		Conflicts   []ConflictRow    `json:"conflicts"`
+		Conflicting []finding        `json:"conflict_failures"`
+		Unchanged   []finding        `json:"unchanged_failures"`
+		Unresolved  []finding        `json:"unresolved_failures"`
 	}{Study: p.Study, Caution: Caution, Verified: p.Verified, Summary: p.summary(), Method: p.Method, Notes: p.Notes,
 		Settings: []setting{}, Margins: []margin{}, Conflicts: p.Conflicts, Conflicting: []finding{}, Unchanged: []finding{}, Unresolved: []finding{}}
+	if p.ChosePickups {
+		ps, kept := p.pickupsJSON()
+		doc.Pickups, doc.KeptPickups = &ps, &kept
+	}
 	if doc.Conflicts == nil {
 		doc.Conflicts = []ConflictRow{}
 	}

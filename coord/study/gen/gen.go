@@ -29,6 +29,9 @@ type Options struct {
 	// Fuses puts a fuse at the sending end of the 11 kV spurs instead of
 	// relays at both ends.
 	Fuses bool
+	// Ranges declares a pickup range and a multiplier range on every
+	// relay's inverse-time stage (for tripgrade propose --pickups).
+	Ranges bool
 }
 
 // MinBuses is the smallest study Write generates: one 33 kV ring of three
@@ -211,6 +214,11 @@ func (g *generator) relay(l line, at int) {
 		g.name("R"), l.name, g.buses[at].name, num(ct))
 	g.printf("  [[relay.stage]]\n  measures = \"phase\"\n  curve = \"iec-si\"\n  pickup_a = %s\n  tms = %s\n",
 		num(pickup), num(round(g.uniform(0.05, 0.5), 2)))
+	if g.o.Ranges {
+		// 0.1–2 × the CT's rating in steps of 0.025 × it; TMS 0.05–1 in
+		// steps of 0.01 (a numerical relay's usual ranges, invented).
+		g.printf("  pickup_range_a = [%s, %s, %s]\n  multiplier_range = [0.05, 1, 0.01]\n", num(0.1*ct), num(2*ct), num(0.025*ct))
+	}
 	g.printf("  [[relay.stage]]\n  measures = \"ground\"\n  curve = \"definite\"\n  pickup_a = %s\n  delay_s = %s\n\n",
 		num(ground), num(round(g.uniform(0.2, 1.0), 2)))
 }
