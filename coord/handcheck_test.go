@@ -56,18 +56,26 @@ func agrees(got, want float64) bool {
 // TestHandcheckScript runs testdata/discrimination/handcheck.py and checks
 // that it gives exactly the figures handfigures_test.go embeds.
 func TestHandcheckScript(t *testing.T) {
+	crossRun(t, handScript, handFigures, "handfigures_test.go")
+}
+
+// crossRun runs a hand-figure script with numpy's interpreter and checks
+// that it gives exactly the figures embedded (from file), no more and no
+// fewer.
+func crossRun(t *testing.T, script string, embedded map[string]float64, file string) {
+	t.Helper()
 	py := numpyPython(t)
-	out, err := exec.Command(py, handScript).Output()
+	out, err := exec.Command(py, script).Output()
 	if err != nil {
 		msg := ""
 		if ee, ok := err.(*exec.ExitError); ok {
 			msg = string(ee.Stderr)
 		}
-		t.Fatalf("%s %s: %v\n%s", py, handScript, err, msg)
+		t.Fatalf("%s %s: %v\n%s", py, script, err, msg)
 	}
 	var got map[string]float64
 	if err := json.Unmarshal(out, &got); err != nil {
-		t.Fatalf("handcheck.py output: %v", err)
+		t.Fatalf("%s output: %v", script, err)
 	}
 	keys := make([]string, 0, len(got))
 	for k := range got {
@@ -75,15 +83,15 @@ func TestHandcheckScript(t *testing.T) {
 	}
 	sort.Strings(keys)
 	for _, k := range keys {
-		want, ok := handFigures[k]
+		want, ok := embedded[k]
 		switch {
 		case !ok:
-			t.Errorf("%s: the script gives %g, the embedded table nothing (regenerate handfigures_test.go with handcheck.py --go)", k, got[k])
+			t.Errorf("%s: the script gives %g, the embedded table nothing (regenerate %s with %s --go)", k, got[k], file, script)
 		case !agrees(got[k], want):
 			t.Errorf("%s: the script gives %.12g, the embedded table %.12g", k, got[k], want)
 		}
 	}
-	for k := range handFigures {
+	for k := range embedded {
 		if _, ok := got[k]; !ok {
 			t.Errorf("%s: embedded but the script no longer gives it", k)
 		}

@@ -1,10 +1,7 @@
 package coord_test
 
 import (
-	"encoding/json"
 	"math"
-	"os/exec"
-	"sort"
 	"testing"
 
 	"tripgrade/coord"
@@ -40,34 +37,7 @@ func scenarioHand(t *testing.T, key string) float64 {
 // TestScenarioHandcheckScript runs testdata/scenarios/handcheck.py and
 // checks that it gives exactly the figures scenariofigures_test.go embeds.
 func TestScenarioHandcheckScript(t *testing.T) {
-	py := numpyPython(t)
-	out, err := exec.Command(py, scenarioScript).Output()
-	if err != nil {
-		t.Fatalf("%s %s: %v", py, scenarioScript, err)
-	}
-	var got map[string]float64
-	if err := json.Unmarshal(out, &got); err != nil {
-		t.Fatalf("handcheck.py output: %v", err)
-	}
-	keys := make([]string, 0, len(got))
-	for k := range got {
-		keys = append(keys, k)
-	}
-	sort.Strings(keys)
-	for _, k := range keys {
-		want, ok := scenarioFigures[k]
-		switch {
-		case !ok:
-			t.Errorf("%s: the script gives %g, the embedded table nothing (regenerate scenariofigures_test.go with handcheck.py --go)", k, got[k])
-		case !agrees(got[k], want):
-			t.Errorf("%s: the script gives %.12g, the embedded table %.12g", k, got[k], want)
-		}
-	}
-	for k := range scenarioFigures {
-		if _, ok := got[k]; !ok {
-			t.Errorf("%s: embedded but the script no longer gives it", k)
-		}
-	}
+	crossRun(t, scenarioScript, scenarioFigures, "scenariofigures_test.go")
 }
 
 // checkedScenarios loads a study and checks it as drawn and in every
