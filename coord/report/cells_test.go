@@ -155,3 +155,14 @@ func TestTestSheetCSVNeutralisesFormulas(t *testing.T) {
 		t.Errorf("the text sheet does not carry the loader's note:\n%s", b.String())
 	}
 }
+
+// A time of over a day (a relay barely above its pickup) keeps four
+// significant digits instead of stretching the column with milliseconds;
+// shorter times keep the millisecond.
+func TestSecondsText(t *testing.T) {
+	for v, want := range map[float64]string{0.3: "0.300", 99999.9994: "99999.999", 3500000.229: "3.5e+06", -2.87e7: "-2.87e+07", 12.0: "12.000"} {
+		if got := secondsText(v); got != want {
+			t.Errorf("secondsText(%g) = %q, want %q", v, got, want)
+		}
+	}
+}

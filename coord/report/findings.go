@@ -184,7 +184,18 @@ func seconds(s float64) string {
 	if math.IsInf(s, 1) || math.IsNaN(s) {
 		return "does not operate"
 	}
-	return fixed(s, 3) + " s"
+	return secondsText(s) + " s"
+}
+
+// secondsText formats a time to the millisecond, or with four significant
+// digits from 100,000 s (over a day: a relay barely above its pickup),
+// where milliseconds would only stretch the column (3.5e+06, not
+// 3500000.229).
+func secondsText(s float64) string {
+	if math.Abs(s) >= 1e5 && !math.IsInf(s, 0) {
+		return strconv.FormatFloat(s, 'g', 4, 64)
+	}
+	return fixed(s, 3)
 }
 
 // quantity formats a figure with its unit, with a typographic minus like
@@ -195,7 +206,7 @@ func quantity(v float64, unit string) string {
 	case math.IsNaN(v) || math.IsInf(v, 0):
 		s = strconv.FormatFloat(v, 'g', -1, 64) + " " + unit
 	case unit == "s":
-		s = fixed(v, 3) + " s"
+		s = secondsText(v) + " s"
 	case unit == "A":
 		s = amps(v) + " A"
 	case unit == "×":
