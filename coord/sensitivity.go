@@ -180,8 +180,11 @@ func (c *checker) sensitivityFinding(ck CheckKind, m minimum, factor, pickup flo
 	d := &c.s.Devices[dev]
 	if !m.found {
 		note := fmt.Sprintf("no %s fault current reaches the device in the minimum case", q)
-		if m.declared > 0 {
+		switch {
+		case m.declared > 0:
 			note += fmt.Sprintf(" but the earth faults beyond a delta winding, which it leaves to \"%s\" (declared by the study)", d.EarthFaultsBy)
+		case ck == PrimarySensitivity:
+			note += " at the far end of its zone (fed only from elsewhere, as for a ring relay facing its source, or only by generators the minimum case leaves out); whether the faults it must clear are cleared, with the openings that send current to it, is the fault-clearing check's finding"
 		}
 		return unchecked(ck, note), nil
 	}
