@@ -134,15 +134,21 @@ func (b *builder) unread(keys ...string) bool {
 
 // busRef resolves a bus name given under key.
 func (b *builder) busRef(w where, key, name string) (int, bool) {
+	return b.busIn(b.bus, w, key, name)
+}
+
+// busIn resolves a bus name given under key in one of the maps of bus
+// names (the model's buses, or the file's tables).
+func (b *builder) busIn(buses map[string]int, w where, key, name string) (int, bool) {
 	if name == "" {
 		b.fail(w, key, "%s is missing (the name of a bus)", key)
 		b.badRef = true
 		return 0, false
 	}
-	k, ok := b.bus[name]
+	k, ok := buses[name]
 	if !ok {
 		if !b.unread("bus") {
-			b.fail(w, key, "%s = %q: no bus of that name%s", key, name, b.closest(name, b.bus))
+			b.fail(w, key, "%s = %q: no bus of that name%s", key, name, b.closest(name, buses))
 		}
 		b.badRef = true
 	}

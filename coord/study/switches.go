@@ -91,19 +91,7 @@ func (b *builder) buildSwitches(kvs []float64) []int {
 // rawBusRef resolves a bus name to its table's index (busRef resolves it
 // to the bus of the model).
 func (b *builder) rawBusRef(w where, key, name string) (int, bool) {
-	if name == "" {
-		b.fail(w, key, "%s is missing (the name of a bus)", key)
-		b.badRef = true
-		return 0, false
-	}
-	k, ok := b.busRaw[name]
-	if !ok {
-		if !b.unread("bus") {
-			b.fail(w, key, "%s = %q: no bus of that name%s", key, name, b.closest(name, b.busRaw))
-		}
-		b.badRef = true
-	}
-	return k, ok
+	return b.busIn(b.busRaw, w, key, name)
 }
 
 // tiedBy names the closed switches that tie the buses named x and y
