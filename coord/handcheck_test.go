@@ -13,6 +13,7 @@ import (
 	"tripgrade/coord"
 	"tripgrade/coord/study"
 	"tripgrade/faults"
+	"tripgrade/faults/numpytest"
 )
 
 // The direction and discrimination tests take their expected figures
@@ -64,7 +65,7 @@ func TestHandcheckScript(t *testing.T) {
 // fewer.
 func crossRun(t *testing.T, script string, embedded map[string]float64, file string) {
 	t.Helper()
-	py := numpyPython(t)
+	py := numpytest.Interpreter(t, filepath.Base(script), "numpy")
 	out, err := exec.Command(py, script).Output()
 	if err != nil {
 		msg := ""
@@ -96,36 +97,6 @@ func crossRun(t *testing.T, script string, embedded map[string]float64, file str
 			t.Errorf("%s: embedded but the script no longer gives it", k)
 		}
 	}
-}
-
-// numpyPython returns an interpreter that can import numpy:
-// $TRIPGRADE_PYTHON, python3 on PATH, /usr/bin/python3. Without one the
-// test is skipped, unless TRIPGRADE_REQUIRE_PYTHON=1 (as in CI).
-func numpyPython(t *testing.T) string {
-	t.Helper()
-	var tried []string
-	for _, c := range []string{os.Getenv("TRIPGRADE_PYTHON"), "python3", "/usr/bin/python3"} {
-		if c == "" {
-			continue
-		}
-		path, err := exec.LookPath(c)
-		if err != nil {
-			tried = append(tried, c+" (not found)")
-			continue
-		}
-		if err := exec.Command(path, "-c", "import numpy").Run(); err != nil {
-			tried = append(tried, path+" (no numpy)")
-			continue
-		}
-		return path
-	}
-	msg := "no Python interpreter with numpy for " + filepath.Base(handScript) + "; tried " +
-		strings.Join(tried, ", ") + "; install python3-numpy or set TRIPGRADE_PYTHON"
-	if os.Getenv("TRIPGRADE_REQUIRE_PYTHON") == "1" {
-		t.Fatal(msg)
-	}
-	t.Skip(msg)
-	return ""
 }
 
 // loadVariant loads a study file with some text replaced (each old text

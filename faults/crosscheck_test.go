@@ -9,10 +9,10 @@ import (
 	"os"
 	"os/exec"
 	"path/filepath"
-	"strings"
 	"testing"
 
 	"tripgrade/faults"
+	"tripgrade/faults/numpytest"
 )
 
 // The cross-check compares the engine with an independent numpy/scipy
@@ -55,7 +55,7 @@ const (
 // motors and power station units added, and compares every fault current
 // and relay-point current with the engine's.
 func TestCrossCheckNumpy(t *testing.T) {
-	py := findPython(t)
+	py := numpytest.Interpreter(t, "the independent cross-check", "numpy", "scipy")
 	net, pts := generateMachineNetwork(2024, crossBuses)
 	units := 0
 	for _, g := range net.Generators {
@@ -90,36 +90,6 @@ func TestCrossCheckNumpy(t *testing.T) {
 			compareCrossCheck(t, eng, pts, places, res)
 		})
 	}
-}
-
-// findPython returns the first interpreter that can import numpy and
-// scipy: $TRIPGRADE_PYTHON, python3 on PATH, /usr/bin/python3. Without
-// one the test is skipped, unless TRIPGRADE_REQUIRE_PYTHON=1 (as in CI).
-func findPython(t *testing.T) string {
-	t.Helper()
-	var tried []string
-	for _, c := range []string{os.Getenv("TRIPGRADE_PYTHON"), "python3", "/usr/bin/python3"} {
-		if c == "" {
-			continue
-		}
-		path, err := exec.LookPath(c)
-		if err != nil {
-			tried = append(tried, c+" (not found)")
-			continue
-		}
-		if err := exec.Command(path, "-c", "import numpy, scipy").Run(); err != nil {
-			tried = append(tried, path+" (no numpy/scipy)")
-			continue
-		}
-		return path
-	}
-	msg := "no Python interpreter with numpy and scipy for the independent cross-check; tried " +
-		strings.Join(tried, ", ") + "; install python3-numpy and python3-scipy or set TRIPGRADE_PYTHON"
-	if os.Getenv("TRIPGRADE_REQUIRE_PYTHON") == "1" {
-		t.Fatal(msg)
-	}
-	t.Skip(msg)
-	return ""
 }
 
 // crossPlace is one fault place and the measuring points compared for it.

@@ -4,12 +4,11 @@ import (
 	"bytes"
 	"encoding/json"
 	"math"
-	"os"
 	"os/exec"
-	"strings"
 	"testing"
 
 	"tripgrade/coord/study/gen"
+	"tripgrade/faults/numpytest"
 )
 
 // lpTolerance is the agreement asked of the label-correcting search,
@@ -24,7 +23,7 @@ const lpTolerance = 1e-6
 // constraints by scipy.optimize.linprog (HiGHS; Debian python3-scipy),
 // run by testdata/linprog.py.
 func TestLeastMatchesLinprog(t *testing.T) {
-	py := findPython(t)
+	py := numpytest.Interpreter(t, "the linprog cross-check", "numpy", "scipy.optimize")
 	var meshed, small bytes.Buffer
 	if err := gen.Write(&meshed, gen.Options{Buses: 40, Seed: 3}); err != nil {
 		t.Fatal(err)
@@ -128,27 +127,4 @@ func linprog(t *testing.T, py string, p *problem) []float64 {
 		t.Fatalf("linprog status %d with %d values for %d multipliers", res.Status, len(res.X), len(p.lo))
 	}
 	return res.X
-}
-
-// findPython returns an interpreter that imports numpy and scipy:
-// $TRIPGRADE_PYTHON, python3 on PATH, /usr/bin/python3. Without one the
-// test is skipped, unless TRIPGRADE_REQUIRE_PYTHON=1 (as in CI).
-func findPython(t *testing.T) string {
-	t.Helper()
-	var tried []string
-	for _, c := range []string{os.Getenv("TRIPGRADE_PYTHON"), "python3", "/usr/bin/python3"} {
-		if c == "" {
-			continue
-		}
-		path, err := exec.LookPath(c)
-		if err == nil && exec.Command(path, "-c", "import numpy, scipy.optimize").Run() == nil {
-			return path
-		}
-		tried = append(tried, c)
-	}
-	if os.Getenv("TRIPGRADE_REQUIRE_PYTHON") != "" {
-		t.Fatalf("no python with numpy and scipy (tried %s)", strings.Join(tried, ", "))
-	}
-	t.Skipf("no python with numpy and scipy (tried %s); set TRIPGRADE_REQUIRE_PYTHON=1 to fail instead", strings.Join(tried, ", "))
-	return ""
 }
