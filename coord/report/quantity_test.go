@@ -2,7 +2,6 @@ package report
 
 import (
 	"bytes"
-	"encoding/csv"
 	"encoding/json"
 	"regexp"
 	"testing"
@@ -47,18 +46,7 @@ func TestEveryCurrentNamesItsDevice(t *testing.T) {
 // out (no current), never written as a number.
 func TestQuantitiesInCSVAndJSON(t *testing.T) {
 	f := backupRows()
-	var c bytes.Buffer
-	if err := f.WriteCSV(&c); err != nil {
-		t.Fatal(err)
-	}
-	rows, err := csv.NewReader(&c).ReadAll()
-	if err != nil {
-		t.Fatal(err)
-	}
-	col := map[string]int{}
-	for i, h := range rows[0] {
-		col[h] = i
-	}
+	rows, col := findingsCSV(t, f)
 	get := func(r int, name string) string {
 		i, ok := col[name]
 		if !ok {

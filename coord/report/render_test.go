@@ -43,18 +43,7 @@ func TestMarkdownEscapesUserText(t *testing.T) {
 // as the text, with units in the field names.
 func TestMachineFormatsCarryTheFigures(t *testing.T) {
 	f := sample()
-	var c bytes.Buffer
-	if err := f.WriteCSV(&c); err != nil {
-		t.Fatal(err)
-	}
-	rows, err := csv.NewReader(&c).ReadAll()
-	if err != nil {
-		t.Fatal(err)
-	}
-	col := map[string]int{}
-	for i, h := range rows[0] {
-		col[h] = i
-	}
+	rows, col := findingsCSV(t, f)
 	if len(rows) != 3 || rows[1][0] != "grading" || rows[1][1] != "FAIL" || rows[1][5] != "0.21" || rows[1][col["device_current_a"]] != "5000" {
 		t.Errorf("CSV rows %q", rows)
 	}
@@ -94,4 +83,23 @@ func TestTextEndsWithVerdictAndCaution(t *testing.T) {
 	if lines[len(lines)-1] != Caution {
 		t.Errorf("last line %q, want the caution", lines[len(lines)-1])
 	}
+}
+
+// findingsCSV writes f's findings as CSV and reads them back: the rows,
+// and each column's index by its header.
+func findingsCSV(t *testing.T, f *Findings) ([][]string, map[string]int) {
+	t.Helper()
+	var c bytes.Buffer
+	if err := f.WriteCSV(&c); err != nil {
+		t.Fatal(err)
+	}
+	rows, err := csv.NewReader(&c).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	col := map[string]int{}
+	for i, h := range rows[0] {
+		col[h] = i
+	}
+	return rows, col
 }
