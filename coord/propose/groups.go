@@ -259,6 +259,21 @@ type pairCollector struct {
 	caps   []float64
 }
 
+// pairs returns the (upper, lower) device pairs of the probes, in order.
+func (pc *pairCollector) pairs() [][2]int {
+	keys := make([][2]int, 0, len(pc.probes))
+	for key := range pc.probes {
+		keys = append(keys, key)
+	}
+	sort.Slice(keys, func(i, j int) bool {
+		if keys[i][0] != keys[j][0] {
+			return keys[i][0] < keys[j][0]
+		}
+		return keys[i][1] < keys[j][1]
+	})
+	return keys
+}
+
 func newPairCollector(col *collector, lin *linearizer, vars []Variable) *pairCollector {
 	lin.vars = vars
 	pc := &pairCollector{col: col, lin: lin, vars: vars, probes: map[[2]int]*probe{}}

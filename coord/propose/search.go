@@ -2,7 +2,6 @@ package propose
 
 import (
 	"math"
-	"sort"
 
 	"tripgrade/coord"
 )
@@ -81,17 +80,7 @@ func newSearch(s0 *coord.Study, vars []Variable, pv []PickupVar, pc *pairCollect
 		sr.k[k] = v.index(v.Low)
 		sr.ofVar[v.Var] = k
 	}
-	keys := make([][2]int, 0, len(pc.probes))
-	for key := range pc.probes {
-		keys = append(keys, key)
-	}
-	sort.Slice(keys, func(i, j int) bool {
-		if keys[i][0] != keys[j][0] {
-			return keys[i][0] < keys[j][0]
-		}
-		return keys[i][1] < keys[j][1]
-	})
-	for _, key := range keys {
+	for _, key := range pc.pairs() {
 		g := &group{up: key[0], down: key[1]}
 		gi := len(sr.groups)
 		sr.groups = append(sr.groups, g)
@@ -114,17 +103,7 @@ func (sr *search) addProbe(pc *pairCollector) {
 	for gi, g := range sr.groups {
 		index[[2]int{g.up, g.down}] = gi
 	}
-	keys := make([][2]int, 0, len(pc.probes))
-	for key := range pc.probes {
-		keys = append(keys, key)
-	}
-	sort.Slice(keys, func(i, j int) bool {
-		if keys[i][0] != keys[j][0] {
-			return keys[i][0] < keys[j][0]
-		}
-		return keys[i][1] < keys[j][1]
-	})
-	for _, key := range keys {
+	for _, key := range pc.pairs() {
 		gi, ok := index[key]
 		if !ok {
 			gi = len(sr.groups)
