@@ -74,23 +74,27 @@ func (f *Factor) PathTo(dst *Path, k int, ws *Workspace) {
 }
 
 // Dot returns aᵀ D⁻¹ b, which is (A⁻¹)ᵢₖ when a and b are the Paths of i
-// and k. It merges the two sorted position lists, so it costs at most
-// a.Len()+b.Len(); only the common part of the paths, from their lowest
-// common ancestor to the root, contributes.
+// and k. Only the common part of the two paths contributes: it runs from
+// their lowest common ancestor to the root, so it is the same tail of
+// both position lists (each path climbs parent by parent). The length of
+// that tail is found by bisection (a node two paths share has its parent
+// in common too), and the sum runs along it from the ancestor upwards, in
+// ascending positions.
 func (f *Factor) Dot(a, b Path) complex128 {
-	var s complex128
-	i, j := 0, 0
-	for i < len(a.pos) && j < len(b.pos) {
-		switch pa, pb := a.pos[i], b.pos[j]; {
-		case pa < pb:
-			i++
-		case pa > pb:
-			j++
-		default:
-			s += a.val[i] * b.val[j] * f.dinv[pa]
-			i++
-			j++
+	la, lb := len(a.pos), len(b.pos)
+	lo, hi := 0, min(la, lb) // the common tail is at least lo and at most hi long
+	for lo < hi {
+		mid := (lo + hi + 1) / 2
+		if a.pos[la-mid] == b.pos[lb-mid] {
+			lo = mid
+		} else {
+			hi = mid - 1
 		}
+	}
+	av, bv, pos := a.val[la-lo:], b.val[lb-lo:lb], a.pos[la-lo:]
+	var s complex128
+	for t := range av {
+		s += av[t] * bv[t] * f.dinv[pos[t]]
 	}
 	return s
 }

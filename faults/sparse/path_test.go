@@ -134,3 +134,43 @@ func caseNamed(t *testing.T, name string) testCase {
 	t.Fatalf("no test case %q", name)
 	return testCase{}
 }
+
+// Dot takes the common tail of two paths by bisection; it must give,
+// bit for bit, the sum over the positions the two paths share taken in
+// ascending order (the merge of the two sorted lists), for every pair of
+// a network's indices, in forests and isolated buses too.
+func TestDotIsTheSumOverSharedPositions(t *testing.T) {
+	for _, tc := range testCases {
+		t.Run(tc.name, func(t *testing.T) {
+			f, _ := tc.build(t, 23)
+			ws := f.NewWorkspace()
+			paths := make([]Path, tc.n)
+			for k := range paths {
+				paths[k] = f.Path(k, ws)
+			}
+			for i := range paths {
+				for k := range paths {
+					a, b := paths[i], paths[k]
+					var want complex128
+					shared := 0
+					for p, q := 0, 0; p < a.Len() && q < b.Len(); {
+						switch {
+						case a.pos[p] < b.pos[q]:
+							p++
+						case a.pos[p] > b.pos[q]:
+							q++
+						default:
+							want += a.val[p] * b.val[q] * f.dinv[a.pos[p]]
+							shared++
+							p++
+							q++
+						}
+					}
+					if got := f.Dot(a, b); got != want {
+						t.Fatalf("Dot(Path(%d), Path(%d)) = %v, want %v (%d shared positions)", i, k, got, want, shared)
+					}
+				}
+			}
+		})
+	}
+}
