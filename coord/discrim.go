@@ -336,7 +336,8 @@ func (x *netIndex) judgeNode(ws *workspace, t *tally, crit Criteria, ni int, nd 
 	p := x.newProbe(&ws.intact, sol, nil)
 	i, j, _ := sol.Node()
 	p.explore(i, j)
-	devs := p.devices()
+	devs := p.devices(ws.devs[:0])
+	ws.devs = devs
 	nv := &view{p: p, buf: ws.search, el: nd.elems[0].el, cs: cs}
 	for _, k := range faults.Kinds {
 		nv.kinds[k] = sol.WithKind(k, eng.CaseFault(nd.place, k, cs).ZOhm)
@@ -411,10 +412,9 @@ func (x *netIndex) elementView(ws *workspace, p *probe, sol faults.Solution, ne 
 // faultSize is the largest phase current into a fault.
 func faultSize(s faults.Solution) float64 { return s.FaultCurrents().PhaseMaxA() }
 
-// devices lists the devices at the points the probe computed.
-func (p *probe) devices() []int {
-	var out []int
-	for _, pi := range p.explored {
+// devices appends to out the devices at the points the probe computed.
+func (p *probe) devices(out []int) []int {
+	for _, pi := range p.w.explored {
 		out = append(out, p.x.devAt[pi/2][pi%2]...)
 	}
 	return out

@@ -212,25 +212,26 @@ type probe struct {
 	sol  faults.Solution
 	open []faults.Point
 	off  faults.Opening // what the network state has taken out
-	// The responses, by point index, valid where stamp equals gen; the
+	// w holds the responses, by point index, valid where its stamp equals
+	// gen, the points computed and the buses the exploration reached; its
 	// arrays belong to the worker and are reused from probe to probe.
-	stamp *[]uint32
-	resp  *[]faults.Response
-	gen   uint32
-	// explored lists the points whose responses the exploration computed.
-	explored []int
-	seenBus  map[int]bool
+	w   *slots
+	gen uint32
 	// seqMax bounds each sequence's fault current over the kinds, per unit
 	// (the response coefficients are amperes per unit of fault current).
 	seqMax [3]float64
 }
 
 // slots hold a probe's responses by point index, valid where stamp equals
-// gen; they are reused from probe to probe.
+// gen, the points computed (in the order computed) and the buses the
+// exploration reached (where busStamp equals gen); they are reused from
+// probe to probe.
 type slots struct {
-	stamp []uint32
-	resp  []faults.Response
-	gen   uint32
+	stamp    []uint32
+	resp     []faults.Response
+	explored []int
+	busStamp []uint32
+	gen      uint32
 }
 
 // workspace is one worker's reusable memory: one cache and one set of
@@ -251,6 +252,8 @@ type workspace struct {
 	swept  map[sweepKey]bool
 	seq    *seqState
 	search *searchBuf
+	// devs holds the devices of the node being judged.
+	devs []int
 	// states remember the network states (open branch ends) the sequences
 	// of one element's faults reach: the four fault kinds usually open the
 	// same devices, and a state's responses serve them all.
@@ -329,7 +332,9 @@ func (x *netIndex) state(ws *workspace, pl faults.Place, cs faults.Case, o fault
 
 func (x *netIndex) newWorkspace() *workspace {
 	np := 2 * x.n.BranchCount()
-	mk := func() slots { return slots{stamp: make([]uint32, np), resp: make([]faults.Response, np)} }
+	mk := func() slots {
+		return slots{stamp: make([]uint32, np), resp: make([]faults.Response, np), busStamp: make([]uint32, len(x.n.Buses))}
+	}
 	ws := &workspace{sc: x.eng.NewScratch(), cols: x.eng.NewColumns(columnCacheSize), intact: mk(), seq: x.newSeqState(), search: x.newSearchBuf(), swept: map[sweepKey]bool{}}
 	for i := range ws.tables {
 		ws.tables[i] = x.newTimeTable()
@@ -349,9 +354,11 @@ func (x *netIndex) newProbe(w *slots, sol faults.Solution, open []faults.Point) 
 	w.gen++
 	if w.gen == 0 {
 		clear(w.stamp)
+		clear(w.busStamp)
 		w.gen = 1
 	}
-	p := &probe{x: x, sol: sol, open: open, stamp: &w.stamp, resp: &w.resp, gen: w.gen, seenBus: map[int]bool{}}
+	w.explored = w.explored[:0]
+	p := &probe{x: x, sol: sol, open: open, w: w, gen: w.gen}
 	for _, k := range faults.Kinds {
 		s := sol.WithKind(k, x.eng.CaseFault(sol.Fault().Place, k, sol.Fault().Case).ZOhm)
 		fc := s.FaultCurrents()
@@ -366,12 +373,13 @@ func (x *netIndex) newProbe(w *slots, sol faults.Solution, open []faults.Point) 
 // at returns the response of point pt.
 func (p *probe) at(pt faults.Point) faults.Response {
 	i := pointIndex(pt)
-	if (*p.stamp)[i] != p.gen {
-		(*p.resp)[i] = p.sol.Response(pt)
-		(*p.stamp)[i] = p.gen
-		p.explored = append(p.explored, i)
+	w := p.w
+	if w.stamp[i] != p.gen {
+		w.resp[i] = p.sol.Response(pt)
+		w.stamp[i] = p.gen
+		w.explored = append(w.explored, i)
 	}
-	return (*p.resp)[i]
+	return w.resp[i]
 }
 
 // bounds are upper bounds on a point's phase and residual currents over
@@ -417,8 +425,9 @@ func (p *probe) explore(start ...int) {
 	x := p.x
 	n := x.n
 	queue := append([]int(nil), start...)
+	seen := p.w.busStamp
 	for _, k := range start {
-		p.seenBus[k] = true
+		seen[k] = p.gen
 	}
 	for len(queue) > 0 {
 		k := queue[0]
@@ -427,7 +436,7 @@ func (p *probe) explore(start ...int) {
 			y := farBus(n, b, k)
 			rn := p.at(faults.Point{Branch: b, End: endAt(n, b, k)})
 			rf := p.at(faults.Point{Branch: b, End: endAt(n, b, y)})
-			if p.seenBus[y] {
+			if seen[y] == p.gen {
 				continue
 			}
 			phN, resN := p.bounds(rn)
@@ -435,7 +444,7 @@ func (p *probe) explore(start ...int) {
 			ph := math.Max(phN*x.ratio[k], phF*x.ratio[y])
 			res := math.Max(resN*x.ratio[k], resF*x.ratio[y])
 			if ph >= x.tauPhase[y] || res >= x.tauGround[y] {
-				p.seenBus[y] = true
+				seen[y] = p.gen
 				queue = append(queue, y)
 			}
 		}

@@ -44,6 +44,9 @@ func (st *seqState) reset() {
 	}
 }
 
+// tracked reports whether device d is tracked already.
+func (st *seqState) tracked(d int) bool { return st.stamp[d] == st.gen }
+
 // touch starts tracking device d (firstA its intact current).
 func (st *seqState) touch(d int, firstA float64) {
 	if st.stamp[d] == st.gen {
@@ -112,7 +115,9 @@ func (x *netIndex) sequence(ws *workspace, t *tally, crit Criteria, v0 *view, tt
 		}
 	}
 	for _, d := range cl0.must {
-		st.touch(d, x.governA(d, tt0.get(d).seen))
+		if !st.tracked(d) {
+			st.touch(d, x.governA(d, tt0.get(d).seen))
+		}
 	}
 	var opening faults.Opening
 	var evs []event
@@ -274,7 +279,7 @@ func (x *netIndex) sequence(ws *workspace, t *tally, crit Criteria, v0 *view, tt
 		cl := v.search(func(d int) bool { return !st.isOpen(d) && nt.operates(d) }, nil)
 		tt, must, failed, own = nt, cl.must, cl.failed, cl.own
 		for i, d := range nt.ids {
-			if x.candidate(d, &nt.rows[i]) && (contains(must, d) || nt.rows[i].up <= T+horizon) {
+			if !st.tracked(d) && x.candidate(d, &nt.rows[i]) && (contains(must, d) || nt.rows[i].up <= T+horizon) {
 				st.touch(d, x.governA(d, tt0.get(d).seen))
 			}
 		}
