@@ -12,7 +12,8 @@ import "tripgrade/faults/sparse"
 // UseColumns.
 type Columns struct {
 	per  int
-	sets map[*seqNet]*columnSet
+	nets []*seqNet // the sequence networks with columns, their sets beside
+	sets []*columnSet
 }
 
 // columnSet is one sequence network's columns, reused round robin.
@@ -24,7 +25,7 @@ type columnSet struct {
 
 // NewColumns returns a cache of up to n columns per sequence network.
 func (e *Engine) NewColumns(n int) *Columns {
-	return &Columns{per: max(n, 1), sets: map[*seqNet]*columnSet{}}
+	return &Columns{per: max(n, 1)}
 }
 
 // z returns Z(x, u) of sequence network sn.
@@ -36,13 +37,19 @@ func (c *Columns) z(sn *seqNet, x, u int) complex128 {
 	if rx < 0 || ru < 0 {
 		return 0
 	}
-	set := c.sets[sn]
+	var set *columnSet
+	for i, n := range c.nets { // a handful: the sequences of the cases and states in use
+		if n == sn {
+			set = c.sets[i]
+			break
+		}
+	}
 	if set == nil {
 		set = &columnSet{bus: make([]int, c.per), cols: make([]*sparse.Column, c.per)}
 		for i := range set.bus {
 			set.bus[i] = -1
 		}
-		c.sets[sn] = set
+		c.nets, c.sets = append(c.nets, sn), append(c.sets, set)
 	}
 	slot := -1
 	for i, b := range set.bus {
