@@ -286,12 +286,48 @@ func (x *netIndex) runPass(crit Criteria) (*tally, error) {
 	return total, nil
 }
 
+// visitOrder returns the indices of nodes in the order the workers take
+// them: each bus, then the points along the lines that leave it, so that
+// faults judged in turn lie near one another.
+func (x *netIndex) visitOrder(nodes []node) []int {
+	order := make([]int, 0, len(nodes))
+	lineNodes := make([][]int, len(x.n.Lines))
+	for i, nd := range nodes {
+		if !nd.place.IsBus() {
+			lineNodes[nd.place.Branch] = append(lineNodes[nd.place.Branch], i)
+		}
+	}
+	for i, nd := range nodes {
+		if !nd.place.IsBus() {
+			continue
+		}
+		order = append(order, i)
+		for _, b := range x.adj[nd.place.Bus] {
+			if f, _ := x.n.BranchEnds(b); f == nd.place.Bus && b < len(lineNodes) {
+				order = append(order, lineNodes[b]...)
+				lineNodes[b] = nil
+			}
+		}
+	}
+	for _, ls := range lineNodes { // a line whose From end is no node's bus
+		order = append(order, ls...)
+	}
+	return order
+}
+
+// nodeChunk is how many consecutive fault nodes a worker takes at a time:
+// nodes numbered near one another lie near one another in the network, and
+// a worker that judges them in turn finds the impedance-matrix columns
+// they share still in its cache.
+const nodeChunk = 32
+
 // overNodes calls visit for every fault node of the study, on every CPU:
 // each worker has its own workspace and its own result (made by fresh),
 // and the results come back in worker order for the caller to merge. The
 // error of a node stops its worker; the first worker's error is returned.
 func overNodes[R any](x *netIndex, fresh func() R, visit func(ws *workspace, r R, i int, nd node) error) ([]R, error) {
 	nodes := x.nodes()
+	order := x.visitOrder(nodes)
 	workers := runtime.GOMAXPROCS(0)
 	results := make([]R, workers)
 	errs := make([]error, workers)
@@ -305,13 +341,15 @@ func overNodes[R any](x *netIndex, fresh func() R, visit func(ws *workspace, r R
 			r := fresh()
 			results[w] = r
 			for {
-				i := int(next.Add(1) - 1)
-				if i >= len(nodes) {
+				start := int(next.Add(nodeChunk) - nodeChunk)
+				if start >= len(nodes) {
 					return
 				}
-				if err := visit(ws, r, i, nodes[i]); err != nil {
-					errs[w] = err
-					return
+				for _, i := range order[start:min(start+nodeChunk, len(nodes))] {
+					if err := visit(ws, r, i, nodes[i]); err != nil {
+						errs[w] = err
+						return
+					}
 				}
 			}
 		}()
