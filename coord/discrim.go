@@ -474,6 +474,10 @@ type timing struct {
 	seen     Seen
 	undef    bool // the curve gives no time (a current that is not a number)
 	above    bool // a fuse above its tables: trip is an upper bound, the melting time unknown
+	// govA is the current that sets the device's time (timeTable.governA),
+	// once govSet.
+	govA   float64
+	govSet bool
 }
 
 func (x *netIndex) timeOf(d int, s Seen, band Band) timing {

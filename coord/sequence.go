@@ -111,12 +111,12 @@ func (x *netIndex) sequence(ws *workspace, t *tally, crit Criteria, v0 *view, tt
 	horizon = followFactor*horizon + crit.MarginS
 	for i, d := range tt0.ids {
 		if x.candidate(d, &tt0.rows[i]) && tt0.rows[i].up <= horizon {
-			st.touch(d, x.governA(d, tt0.rows[i].seen))
+			st.touch(d, tt0.governA(d))
 		}
 	}
 	for _, d := range cl0.must {
 		if !st.tracked(d) {
-			st.touch(d, x.governA(d, tt0.get(d).seen))
+			st.touch(d, tt0.governA(d))
 		}
 	}
 	var opening faults.Opening
@@ -214,7 +214,7 @@ func (x *netIndex) sequence(ws *workspace, t *tally, crit Criteria, v0 *view, tt
 				x.emitOpening(crit, d, &tt.get(d).seen, nextT, ne.place, key)
 			}
 			opening.Ends = append(opening.Ends, x.s.Devices[d].Point)
-			evs = append(evs, event{dev: d, atS: nextT, intactA: st.firstA[d], openA: x.governA(d, tt.get(d).seen)})
+			evs = append(evs, event{dev: d, atS: nextT, intactA: st.firstA[d], openA: tt.governA(d)})
 			lastDev = nextT
 			if first < 0 || d < first {
 				first = d
@@ -280,7 +280,7 @@ func (x *netIndex) sequence(ws *workspace, t *tally, crit Criteria, v0 *view, tt
 		tt, must, failed, own = nt, cl.must, cl.failed, cl.own
 		for i, d := range nt.ids {
 			if !st.tracked(d) && x.candidate(d, &nt.rows[i]) && (contains(must, d) || nt.rows[i].up <= T+horizon) {
-				st.touch(d, x.governA(d, tt0.get(d).seen))
+				st.touch(d, tt0.governA(d))
 			}
 		}
 		if len(must) == 0 && len(failed) == 0 && len(own) == 0 && len(cl.direct) > 0 {
@@ -356,8 +356,13 @@ func sortEvents(evs []event) {
 }
 
 // governA returns the current that sets device d's time for what it sees
-// (its phase current, or what its ground stages measure).
-func (x *netIndex) governA(d int, s Seen) float64 {
-	a, _ := x.timers[d].governingSeen(&s)
-	return a
+// in the table's fault (its phase current, or what its ground stages
+// measure), worked out once per timing.
+func (tt *timeTable) governA(d int) float64 {
+	tm := tt.get(d)
+	if !tm.govSet {
+		tm.govA, _ = tt.x.timers[d].governingSeen(&tm.seen)
+		tm.govSet = true
+	}
+	return tm.govA
 }

@@ -10,10 +10,11 @@ package sparse
 // vector methods", IEEE Trans. PAS 104(2), 1985). A Column belongs to one
 // goroutine.
 type Column struct {
-	f     *Factor
-	w     []complex128 // D⁻¹L⁻¹Peₖ, nonzero only on k's path
+	f *Factor
+	// z holds, on k's path, w = D⁻¹L⁻¹Peₖ until the entry is final (w is
+	// zero off the path), and the final entries of the column.
 	z     []complex128
-	wGen  []uint32 // w[j] is set when wGen[j] == gen, else 0
+	wGen  []uint32 // z[j] holds w[j] when wGen[j] == gen and zGen[j] != gen
 	zGen  []uint32 // z[j] is final when zGen[j] == gen
 	gen   uint32
 	stack []int32
@@ -22,7 +23,7 @@ type Column struct {
 
 // NewColumn returns an empty Column of f; Reset chooses its column.
 func (f *Factor) NewColumn() *Column {
-	return &Column{f: f, w: make([]complex128, f.n), z: make([]complex128, f.n),
+	return &Column{f: f, z: make([]complex128, f.n),
 		wGen: make([]uint32, f.n), zGen: make([]uint32, f.n)}
 }
 
@@ -40,18 +41,19 @@ func (c *Column) Reset(k int) {
 	}
 	c.set = true
 	start := f.pinv[k]
+	w := c.z
 	for j := start; j >= 0; j = f.parent[j] {
-		c.w[j], c.wGen[j] = 0, c.gen
+		w[j], c.wGen[j] = 0, c.gen
 	}
-	c.w[start] = 1
+	w[start] = 1
 	for j := start; j >= 0; j = f.parent[j] {
 		// The rows of column j are ancestors of j: on the path, and
 		// still to be finished, so w[j] is final here.
-		xj := c.w[j]
+		xj := w[j]
 		for q := f.colptr[j]; q < f.colptr[j+1]; q++ {
-			c.w[f.rowind[q]] -= f.lval[q] * xj
+			w[f.rowind[q]] -= f.lval[q] * xj
 		}
-		c.w[j] = xj * f.dinv[j]
+		w[j] = xj * f.dinv[j]
 	}
 }
 
@@ -70,7 +72,7 @@ func (c *Column) At(i int) complex128 {
 		j := st[t]
 		var zj complex128
 		if c.wGen[j] == c.gen {
-			zj = c.w[j]
+			zj = c.z[j] // w[j]; the ancestors read below are final
 		}
 		for q := f.colptr[j]; q < f.colptr[j+1]; q++ {
 			zj -= f.lval[q] * c.z[f.rowind[q]]
