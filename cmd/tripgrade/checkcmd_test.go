@@ -1,6 +1,7 @@
 package main
 
 import (
+	"bytes"
 	"encoding/csv"
 	"encoding/json"
 	"os"
@@ -154,5 +155,36 @@ func TestDemoMatchesCheck(t *testing.T) {
 	_, check, _ := runArgs("check", "../../examples/fenwick-quay.toml")
 	if demo != check {
 		t.Errorf("demo and check of the same study differ:\n%s", firstDiff(demo, check))
+	}
+}
+
+// Standard output is buffered; a table that cannot be written in full
+// (here into a pipe nobody reads) must not leave the verdict's exit
+// status behind: the command says so and exits 2.
+func TestUnwritableOutputIsAnError(t *testing.T) {
+	r, w, err := os.Pipe()
+	if err != nil {
+		t.Fatal(err)
+	}
+	r.Close()
+	defer w.Close()
+	var errOut bytes.Buffer
+	code := runBuffered([]string{"check", "../../examples/kestrel-park.toml"}, w, &errOut)
+	if code != exitUsage || !strings.Contains(errOut.String(), "writing the output") {
+		t.Fatalf("exit %d, stderr %q; want exit %d naming the failed write", code, errOut.String(), exitUsage)
+	}
+	var ok bytes.Buffer
+	f, err := os.CreateTemp(t.TempDir(), "out")
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	if code := runBuffered([]string{"check", "../../examples/kestrel-park.toml"}, f, &ok); code != exitOK {
+		t.Fatalf("into a file: exit %d, stderr %q; want %d", code, ok.String(), exitOK)
+	}
+	_, want, _ := runArgs("check", "../../examples/kestrel-park.toml")
+	got, err := os.ReadFile(f.Name())
+	if err != nil || string(got) != want {
+		t.Fatalf("into a file: %d bytes written (%v), want the %d of the table", len(got), err, len(want))
 	}
 }

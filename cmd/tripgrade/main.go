@@ -9,6 +9,7 @@
 package main
 
 import (
+	"bufio"
 	"fmt"
 	"io"
 	"os"
@@ -44,7 +45,22 @@ func commands() map[string]command {
 }
 
 func main() {
-	os.Exit(runGuarded(os.Args[1:], os.Stdout, os.Stderr))
+	os.Exit(runBuffered(os.Args[1:], os.Stdout, os.Stderr))
+}
+
+// runBuffered runs a command with its standard output buffered (a large
+// study's table has hundreds of thousands of lines, each otherwise a write
+// of its own). Output that cannot be written in full is an error: the
+// exit status is then 2, whatever the verdict, so that a pipeline gating
+// on it never takes a cut-off table for a pass.
+func runBuffered(args []string, stdout *os.File, stderr io.Writer) int {
+	out := bufio.NewWriterSize(stdout, 64<<10)
+	code := runGuarded(args, out, stderr)
+	if err := out.Flush(); err != nil {
+		fmt.Fprintf(stderr, "tripgrade: writing the output: %v\n", err)
+		return exitUsage
+	}
+	return code
 }
 
 // runGuarded is run with a last guard: a panic, which is a bug of

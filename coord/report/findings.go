@@ -4,7 +4,9 @@ import (
 	"fmt"
 	"math"
 	"strconv"
+	"runtime"
 	"strings"
+	"sync"
 
 	"tripgrade/coord"
 )
@@ -108,9 +110,7 @@ func NewFindings(s *coord.Study, r *coord.Result) *Findings {
 	for _, p := range r.Excluded {
 		f.Excluded = append(f.Excluded, PairRow{Upstream: name(p.Upstream), Downstream: name(p.Downstream)})
 	}
-	for _, x := range r.Findings {
-		f.Rows = append(f.Rows, newRow(x))
-	}
+	f.Rows = newRows(r.Findings)
 	f.Pass, f.Warn, f.Fail = r.Counts()
 	f.Accepted = r.Accepted()
 	f.Acceptances = s.Accepts
@@ -126,6 +126,29 @@ func (f *Findings) AddScenarioPairs(ps []coord.ScenarioPair) {
 		f.Pairs = append(f.Pairs, PairRow{Upstream: p.Upstream, Downstream: p.Downstream, Manual: p.Manual, Scenario: p.Scenario})
 	}
 }
+
+// newRows makes the rows of the findings, in their order, the share of
+// each CPU at once (a large study has hundreds of thousands).
+func newRows(fs []coord.Finding) []Row {
+	rows := make([]Row, len(fs))
+	workers := min(runtime.GOMAXPROCS(0), len(fs)/rowsPerWorker+1)
+	var wg sync.WaitGroup
+	per := (len(fs) + workers - 1) / workers
+	for lo := 0; lo < len(fs); lo += per {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := lo; i < min(lo+per, len(fs)); i++ {
+				rows[i] = newRow(fs[i])
+			}
+		}()
+	}
+	wg.Wait()
+	return rows
+}
+
+// rowsPerWorker is the least number of rows worth a worker of its own.
+const rowsPerWorker = 5000
 
 func newRow(x coord.Finding) Row {
 	r := Row{Finding: x, Measured: "-", Required: "-", Margin: "-"}
