@@ -33,9 +33,10 @@ type Source struct {
 }
 
 // origin says where a margin handed to a collector was judged: in which
-// scenario, and the place of its fault by name. nil: the study as drawn.
+// scenario, whose network names the fault's place. nil: the study as drawn.
 type origin struct {
-	scenario, where string
+	scenario string
+	net      *faults.Network // the scenario's network, which names the fault's place
 }
 
 // line is x_U ≥ K·x_D + B between two variables.
@@ -126,7 +127,7 @@ func (c *collector) marginIn(name string, st, s *coord.Study) func(*coord.Margin
 				return
 			}
 		}
-		c.marginFrom(&m, &origin{scenario: name, where: coord.PlaceName(st.Network, ms.Place)})
+		c.marginFrom(&m, &origin{scenario: name, net: st.Network})
 	}
 }
 
@@ -148,7 +149,7 @@ func source(ms *coord.MarginSample, upStage int, o *origin) *Source {
 	src := &Source{Check: ms.Check, Up: ms.Up, Down: ms.Down, UpStage: upStage, Kind: ms.Kind, Case: ms.Case, Place: ms.Place,
 		Scale: ms.Scale, Sequence: ms.Sequence, RequiredS: ms.RequiredS, MarginS: ms.MarginS}
 	if o != nil {
-		src.Scenario, src.Where = o.scenario, o.where
+		src.Scenario, src.Where = o.scenario, coord.PlaceName(o.net, ms.Place)
 	}
 	return src
 }
