@@ -483,7 +483,15 @@ type timing struct {
 func (x *netIndex) timeOf(d int, s Seen, band Band) timing {
 	tm := x.timers[d]
 	t := timing{trip: noTime, up: noTime, seen: s}
-	if tr, st := tm.OperateSeen(&s, band); st == curves.Operates {
+	var tr float64
+	var st curves.Status
+	if tm.Dev.Kind == Relay && band == Nominal {
+		tr, st, t.govA = tm.operateGoverning(&s)
+		t.govSet = true
+	} else {
+		tr, st = tm.OperateSeen(&s, band)
+	}
+	if st == curves.Operates {
 		t.trip = tr
 	} else if st == curves.Undefined {
 		if tm.Dev.Kind == Fuse && !math.IsNaN(s.PhaseA()) {

@@ -185,15 +185,21 @@ type Dirs struct {
 // whole phase (ground) current, directional stages on what their direction
 // sees.
 func (t *Timer) groups(phaseA, groundA float64, d Dirs, b Band, which int) (float64, curves.Status) {
+	ph, gr := t.groupRaces(phaseA, groundA, d, b, which)
+	return ph.join(gr).result()
+}
+
+// groupRaces times the relay's phase and its ground stages (those which
+// selects) as groups does, each kind in a race of its own.
+func (t *Timer) groupRaces(phaseA, groundA float64, d Dirs, b Band, which int) (ph, gr race) {
 	if !t.directional || !d.Known {
-		ph, gr := t.Phase[b], t.Ground[b]
-		if which&phaseStages == 0 {
-			ph = nil
+		if which&phaseStages != 0 {
+			ph.add(t.Phase[b], phaseA)
 		}
-		if which&groundStages == 0 {
-			gr = nil
+		if which&groundStages != 0 {
+			gr.add(t.Ground[b], groundA)
 		}
-		return fastest(ph, phaseA, gr, groundA)
+		return ph, gr
 	}
 	quantity := [3]float64{NonDirectional: phaseA, Forward: d.Fwd * phaseA, Reverse: d.Rev * phaseA}
 	var ground [3]float64
@@ -201,16 +207,37 @@ func (t *Timer) groups(phaseA, groundA float64, d Dirs, b Band, which int) (floa
 	if d.Ground != NonDirectional {
 		ground[d.Ground] = groundA
 	}
-	var r race
 	for dir := range quantity {
 		if which&phaseStages != 0 {
-			r.add(t.phaseDir[dir][b], quantity[dir])
+			ph.add(t.phaseDir[dir][b], quantity[dir])
 		}
 		if which&groundStages != 0 {
-			r.add(t.groundDir[dir][b], ground[dir])
+			gr.add(t.groundDir[dir][b], ground[dir])
 		}
 	}
-	return r.result()
+	return ph, gr
+}
+
+// operateGoverning returns the relay's nominal operating time for what it
+// sees (OperateSeen) and the current that governs it (governingSeen),
+// timing each stage once.
+func (t *Timer) operateGoverning(s *Seen) (float64, curves.Status, float64) {
+	phaseA, residualA := s.PhaseA(), s.groundA(t.Dev)
+	var d Dirs
+	if t.directional {
+		d = t.dirs(s, phaseA)
+	}
+	ph, gr := t.groupRaces(phaseA, residualA, d, Nominal, allStages)
+	x, st := ph.join(gr).result()
+	gov := phaseA
+	if t.Ground[Nominal] != nil {
+		tg, _ := gr.result()
+		tp, _ := ph.result()
+		if t.Phase[Nominal] == nil || tg < tp {
+			gov = residualA
+		}
+	}
+	return x, st, gov
 }
 
 // OperateDir is Operate for a relay whose elements decided d: directional
@@ -327,7 +354,19 @@ func (r *race) add(c curves.Characteristic, a float64) {
 	}
 }
 
-func (r *race) result() (float64, curves.Status) {
+// join returns the race of both races' characteristics.
+func (r race) join(o race) race {
+	out := r
+	if o.operates && (!r.operates || o.best < r.best) {
+		out.best = o.best
+	}
+	out.operates = r.operates || o.operates
+	out.noTrip = r.noTrip || o.noTrip
+	out.asked = r.asked || o.asked
+	return out
+}
+
+func (r race) result() (float64, curves.Status) {
 	switch {
 	case r.operates:
 		return r.best, curves.Operates
