@@ -3,8 +3,8 @@ package report
 import (
 	"fmt"
 	"math"
-	"strconv"
 	"runtime"
+	"strconv"
 	"strings"
 	"sync"
 
