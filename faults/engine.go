@@ -28,11 +28,15 @@ type Engine struct {
 // seqNet is one factored sequence network.
 type seqNet struct {
 	*seqData
-	row   []int32 // bus → matrix row; −1: no path to the reference in this sequence
-	fac   *sparse.Factor
-	diag  []complex128 // Z_kk by matrix row
-	paths []atomic.Pointer[sparse.Path]
-	ws    sync.Pool
+	row  []int32 // bus → matrix row; −1: no path to the reference in this sequence
+	fac  *sparse.Factor
+	diag []complex128 // Z_kk by matrix row
+	// ends holds, by branch, Z between the branch's two ends, where
+	// endsKnown (both ends have a row and the branch couples them).
+	ends      []complex128
+	endsKnown []bool
+	paths     []atomic.Pointer[sparse.Path]
+	ws        sync.Pool
 }
 
 // New checks the network, builds the positive, negative and zero sequence
@@ -212,7 +216,25 @@ func factorSeq(n *Network, d *seqData) (*seqNet, error) {
 	}
 	sn.fac = fac
 	sn.diag = make([]complex128, m)
-	fac.Diagonal(sn.diag)
+	// The transfer impedance between a branch's two ends (a line fault's
+	// Thevenin impedance needs it) lies on the pattern the diagonal is
+	// computed over.
+	var pairs [][2]int
+	var branches []int
+	for b, blk := range d.branch {
+		f, t := n.BranchEnds(b)
+		if rf, rt := int(sn.row[f]), int(sn.row[t]); blk.ft != 0 && rf >= 0 && rt >= 0 && rf != rt {
+			pairs = append(pairs, [2]int{rf, rt})
+			branches = append(branches, b)
+		}
+	}
+	zp, found := make([]complex128, len(pairs)), make([]bool, len(pairs))
+	fac.DiagonalAndPairs(sn.diag, pairs, zp, found)
+	sn.ends = make([]complex128, len(d.branch))
+	sn.endsKnown = make([]bool, len(d.branch))
+	for t, b := range branches {
+		sn.ends[b], sn.endsKnown[b] = zp[t], found[t]
+	}
 	sn.ws.New = func() any { return fac.NewWorkspace() }
 	return sn, nil
 }

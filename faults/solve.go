@@ -148,8 +148,13 @@ func (s *Solution) selfImpedance(q int) complex128 {
 		return sn.z(s.i, s.i)
 	}
 	p := complex(s.p, 0)
-	zl := sn.series[s.fault.Place.Branch]
-	return (1-p)*(1-p)*sn.z(s.i, s.i) + p*p*sn.z(s.j, s.j) + 2*p*(1-p)*sn.z(s.i, s.j) + p*(1-p)*zl
+	b := s.fault.Place.Branch
+	zl := sn.series[b]
+	zij := sn.ends[b]
+	if !sn.endsKnown[b] {
+		zij = sn.z(s.i, s.j)
+	}
+	return (1-p)*(1-p)*sn.z(s.i, s.i) + p*p*sn.z(s.j, s.j) + 2*p*(1-p)*zij + p*(1-p)*zl
 }
 
 // transfer returns Z_xf, the transfer impedance from bus x to the fault

@@ -21,6 +21,27 @@ package sparse
 // Size().
 func (f *Factor) Diagonal(dst []complex128) {
 	f.checkLen("Diagonal", len(dst))
+	f.inverseOnPattern(dst, nil, nil, nil)
+}
+
+// DiagonalAndPairs is Diagonal that also sets pairDst[t] to (A⁻¹)ᵢₖ for
+// each pair (i, k) of pairs (original indices) that lies on the pattern of
+// L, found[t] true: every pair whose entry of A is a nonzero (the two ends
+// of a branch) does, and comes at no cost beyond Diagonal's. It panics if
+// len(dst) != Size() or the pair slices differ in length.
+func (f *Factor) DiagonalAndPairs(dst []complex128, pairs [][2]int, pairDst []complex128, found []bool) {
+	f.checkLen("DiagonalAndPairs", len(dst))
+	if len(pairDst) != len(pairs) || len(found) != len(pairs) {
+		panic("sparse: DiagonalAndPairs: pairs, pairDst and found differ in length")
+	}
+	for _, pr := range pairs {
+		f.checkIndex("DiagonalAndPairs", pr[0])
+		f.checkIndex("DiagonalAndPairs", pr[1])
+	}
+	f.inverseOnPattern(dst, pairs, pairDst, found)
+}
+
+func (f *Factor) inverseOnPattern(dst []complex128, pairs [][2]int, pairDst []complex128, found []bool) {
 	zl := make([]complex128, len(f.lval)) // Zᵢⱼ for i ∈ Sⱼ, laid out like L
 	zd := make([]complex128, f.n)         // Zⱼⱼ
 	var acc []complex128                  // Zᵢⱼ being summed, i ∈ Sⱼ
@@ -55,6 +76,21 @@ func (f *Factor) Diagonal(dst []complex128) {
 	}
 	for k, i := range f.perm {
 		dst[i] = zd[k]
+	}
+	for t, pr := range pairs {
+		a, b := f.pinv[pr[0]], f.pinv[pr[1]]
+		if a == b {
+			pairDst[t], found[t] = zd[a], true
+			continue
+		}
+		lo, hi := min(a, b), max(a, b)
+		pairDst[t], found[t] = 0, false
+		for q := f.colptr[lo]; q < f.colptr[lo+1]; q++ {
+			if f.rowind[q] == hi {
+				pairDst[t], found[t] = zl[q], true
+				break
+			}
+		}
 	}
 }
 

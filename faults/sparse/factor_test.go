@@ -152,6 +152,47 @@ func TestDiagonalMatchesDense(t *testing.T) {
 	}
 }
 
+// Oracle: the same dense inverse. Every pair whose entry of the matrix is
+// a nonzero (a branch's two ends) lies on the pattern of L and is found;
+// the diagonal is Diagonal's, bit for bit.
+func TestDiagonalAndPairsMatchDense(t *testing.T) {
+	for _, tc := range testCases {
+		t.Run(tc.name, func(t *testing.T) {
+			f, d := tc.build(t, 7)
+			inv := newDenseLU(d).inverse()
+			var pairs [][2]int
+			for i := range d {
+				for k := range d[i] {
+					if i != k && d[i][k] != 0 {
+						pairs = append(pairs, [2]int{i, k})
+					}
+				}
+			}
+			diag := make([]complex128, tc.n)
+			got := make([]complex128, len(pairs))
+			found := make([]bool, len(pairs))
+			f.DiagonalAndPairs(diag, pairs, got, found)
+			only := make([]complex128, tc.n)
+			f.Diagonal(only)
+			for k := range diag {
+				if diag[k] != only[k] {
+					t.Fatalf("diagonal %d: %v, Diagonal gives %v", k, diag[k], only[k])
+				}
+			}
+			want := make([]complex128, len(pairs))
+			for p, pr := range pairs {
+				if !found[p] {
+					t.Fatalf("pair %v of a nonzero entry not found on the pattern", pr)
+				}
+				want[p] = inv[pr[0]][pr[1]]
+			}
+			if e := relErr(got, want); e > tolDense {
+				t.Errorf("pairs: relative error %.3g, want ≤ %g", e, tolDense)
+			}
+		})
+	}
+}
+
 func TestSingular(t *testing.T) {
 	const y = 4 - 12i // a series admittance
 	// healthy puts a shunted path on nodes [0, m).
