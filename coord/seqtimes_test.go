@@ -1,13 +1,10 @@
 package coord_test
 
 import (
-	"bytes"
 	"math"
 	"testing"
 
 	"tripgrade/coord"
-	"tripgrade/coord/study"
-	"tripgrade/coord/study/gen"
 )
 
 // A device that trips out of turn during an opening sequence is recorded
@@ -18,22 +15,7 @@ import (
 // 200-bus study reported relays operating at −17 s and −44 s. Every
 // time a finding gives must be a moment after the fault began.
 func TestSequenceTimesNeverPrecedeTheFault(t *testing.T) {
-	var b bytes.Buffer
-	if err := gen.Write(&b, gen.Options{Buses: 200, Seed: 1}); err != nil {
-		t.Fatal(err)
-	}
-	s, err := study.Parse("gen200.toml", b.Bytes(), nil)
-	if err != nil {
-		t.Fatal(err)
-	}
-	eng, topo, err := coord.Prepare(s)
-	if err != nil {
-		t.Fatal(err)
-	}
-	r, err := coord.Check(s, eng, topo)
-	if err != nil {
-		t.Fatal(err)
-	}
+	r := checkStudy(t, generatedStudy(t, 200, 1))
 	n := 0
 	for _, f := range r.Findings {
 		if f.Check != coord.Discrimination || f.Fault == nil {

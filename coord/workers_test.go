@@ -2,6 +2,7 @@ package coord_test
 
 import (
 	"bytes"
+	"fmt"
 	"runtime"
 	"testing"
 
@@ -17,26 +18,12 @@ import (
 // study (rings, parallel paths, every relay seeing faults from both sides)
 // is checked on 1 to 8 workers and must give the same table byte for byte.
 func TestCheckSameOnAnyNumberOfWorkers(t *testing.T) {
-	var src bytes.Buffer
-	if err := gen.Write(&src, gen.Options{Buses: 150, Seed: 3}); err != nil {
-		t.Fatal(err)
-	}
-	s, err := study.Parse("gen.toml", src.Bytes(), nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	s := generatedStudy(t, 150, 3)
 	defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(0))
 	var first string
 	for _, n := range []int{1, 2, 3, 8} {
 		runtime.GOMAXPROCS(n)
-		eng, topo, err := coord.Prepare(s)
-		if err != nil {
-			t.Fatal(err)
-		}
-		r, err := coord.Check(s, eng, topo)
-		if err != nil {
-			t.Fatal(err)
-		}
+		r := checkStudy(t, s)
 		var out bytes.Buffer
 		if err := report.NewFindings(s, r).WriteText(&out); err != nil {
 			t.Fatal(err)
@@ -52,4 +39,19 @@ func TestCheckSameOnAnyNumberOfWorkers(t *testing.T) {
 			t.Fatalf("%d workers give a table different from 1 worker's", n)
 		}
 	}
+}
+
+// generatedStudy is the seeded meshed study of coord/study/gen with the
+// given number of buses.
+func generatedStudy(t *testing.T, buses int, seed uint64) *coord.Study {
+	t.Helper()
+	var src bytes.Buffer
+	if err := gen.Write(&src, gen.Options{Buses: buses, Seed: seed}); err != nil {
+		t.Fatal(err)
+	}
+	s, err := study.Parse(fmt.Sprintf("gen%d.toml", buses), src.Bytes(), nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return s
 }
