@@ -3,6 +3,8 @@ package study
 import (
 	"reflect"
 	"testing"
+
+	"tripgrade/coord"
 )
 
 // TestNMinus1Outages: the sweep of lines and transformers of a small
@@ -15,26 +17,19 @@ func TestNMinus1Outages(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	var names, changes []string
+	var changes []string
 	for _, sc := range s.Scenarios {
-		names = append(names, sc.Name)
 		changes = append(changes, sc.Changes)
 		if !sc.Outage {
 			t.Errorf("%s: not marked an outage of the sweep", sc.Name)
 		}
 	}
-	if want := []string{"TB-AB out", "TB-BC out", "TB-CA out"}; !reflect.DeepEqual(names, want) {
-		t.Errorf("outages %q, want %q", names, want)
-	}
-	if want := []string{"line TB-AB out of service", "line TB-BC out of service", "line TB-CA out of service"}; !reflect.DeepEqual(changes, want) {
-		t.Errorf("changes %q, want %q", changes, want)
-	}
-	want := []string{
+	wantOutages(t, s, []string{"TB-AB out", "TB-BC out", "TB-CA out"}, []string{
 		"N-1 (line, transformer): 3 single outages",
 		"N-1: 2 outages left out because they leave part of the network with no source: TB-DE out, TB-T out",
-	}
-	if !reflect.DeepEqual(s.ScenarioNotes, want) {
-		t.Errorf("notes %q, want %q", s.ScenarioNotes, want)
+	})
+	if want := []string{"line TB-AB out of service", "line TB-BC out of service", "line TB-CA out of service"}; !reflect.DeepEqual(changes, want) {
+		t.Errorf("changes %q, want %q", changes, want)
 	}
 	// Each outage builds the study without its line and the relay on it
 	// (A-AB on TB-AB, A-CA on TB-CA; TB-BC has none), and nothing else.
@@ -104,18 +99,24 @@ x0_ohm = 0.3
 	if err != nil {
 		t.Fatal(err)
 	}
-	var names []string
-	for _, sc := range s.Scenarios {
-		names = append(names, sc.Name)
-	}
-	if want := []string{"line MILL out", "MILL-2 out", "generator MILL out"}; !reflect.DeepEqual(names, want) {
-		t.Errorf("outages %q, want %q", names, want)
-	}
-	want := []string{
+	wantOutages(t, s, []string{"line MILL out", "MILL-2 out", "generator MILL out"}, []string{
 		"N-1 (line, generator, source): 3 single outages",
 		"N-1: 1 outage left out because it leaves part of the network that a grid source feeds as drawn to embedded generators alone (write a [[scenario]] to check such an island): grid out",
+	})
+}
+
+// wantOutages compares a study's scenarios, by name, and its scenario
+// notes with those expected.
+func wantOutages(t *testing.T, s *coord.Study, names, notes []string) {
+	t.Helper()
+	var got []string
+	for _, sc := range s.Scenarios {
+		got = append(got, sc.Name)
 	}
-	if !reflect.DeepEqual(s.ScenarioNotes, want) {
-		t.Errorf("notes %q, want %q", s.ScenarioNotes, want)
+	if !reflect.DeepEqual(got, names) {
+		t.Errorf("outages %q, want %q", got, names)
+	}
+	if !reflect.DeepEqual(s.ScenarioNotes, notes) {
+		t.Errorf("notes %q, want %q", s.ScenarioNotes, notes)
 	}
 }
