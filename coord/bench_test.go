@@ -77,34 +77,43 @@ func BenchmarkCheck1000Devices(b *testing.B) { benchmarkCheck(b, 100, 10) }
 // fault-by-fault pass and every check) on generated meshed studies (package
 // study/gen: 33 and 11 kV loops, a relay with phase and ground stages at
 // every line end) of 1,000 and 10,000 buses; 50,000 with -benchtime 1x
-// and TRIPGRADE_BENCH_50K=1, as it takes minutes. Targets (issue 9):
-// 10,000 buses within 10 s and 500 MB for the whole command, 50,000 within
-// 90 s and 3 GB, on the 2-core build machine.
+// and TRIPGRADE_BENCH_50K=1, as it takes minutes. Each size is run with
+// the 33 kV meshing local (chords and second transformers within 8 places
+// along the ring, gen.Options.Reach, as in a real network) and drawn
+// anywhere on the ring (a random graph, whose elimination separators grow
+// with the network). Targets (issue 9): 10,000 buses within 10 s and
+// 500 MB for the whole command, 50,000 within 90 s and 3 GB, on the 2-core
+// build machine.
 func BenchmarkCheckMeshed(b *testing.B) {
 	sizes := []int{1000, 10000}
 	if os.Getenv("TRIPGRADE_BENCH_50K") != "" {
 		sizes = append(sizes, 50000)
 	}
 	for _, n := range sizes {
-		var buf bytes.Buffer
-		if err := gen.Write(&buf, gen.Options{Buses: n, Seed: 1}); err != nil {
-			b.Fatal(err)
-		}
-		s, err := study.Parse("big.toml", buf.Bytes(), nil)
-		if err != nil {
-			b.Fatal(err)
-		}
-		b.Run(fmt.Sprintf("buses=%d", n), func(b *testing.B) {
-			for b.Loop() {
-				eng, topo, err := coord.Prepare(s)
-				if err != nil {
-					b.Fatal(err)
-				}
-				if _, err := coord.Check(s, eng, topo); err != nil {
-					b.Fatal(err)
-				}
+		for _, mesh := range []struct {
+			name  string
+			reach int
+		}{{"local", 8}, {"random", 0}} {
+			var buf bytes.Buffer
+			if err := gen.Write(&buf, gen.Options{Buses: n, Seed: 1, Reach: mesh.reach}); err != nil {
+				b.Fatal(err)
 			}
-			b.ReportMetric(float64(len(s.Devices)), "devices")
-		})
+			s, err := study.Parse("big.toml", buf.Bytes(), nil)
+			if err != nil {
+				b.Fatal(err)
+			}
+			b.Run(fmt.Sprintf("buses=%d/meshing=%s", n, mesh.name), func(b *testing.B) {
+				for b.Loop() {
+					eng, topo, err := coord.Prepare(s)
+					if err != nil {
+						b.Fatal(err)
+					}
+					if _, err := coord.Check(s, eng, topo); err != nil {
+						b.Fatal(err)
+					}
+				}
+				b.ReportMetric(float64(len(s.Devices)), "devices")
+			})
+		}
 	}
 }

@@ -32,6 +32,13 @@ type Options struct {
 	// Ranges declares a pickup range and a multiplier range on every
 	// relay's inverse-time stage (for tripgrade propose --pickups).
 	Ranges bool
+	// Reach, when above 1, keeps the 33 kV meshing local: a chord joins
+	// buses at most Reach places apart along the ring, and a primary's
+	// second transformer comes from a 33 kV bus at most Reach places from
+	// its first, as lines join neighbouring substations in a real
+	// network. Zero (the default) draws both ends anywhere on the ring,
+	// which makes the 33 kV network behave like a random graph.
+	Reach int
 }
 
 // MinBuses is the smallest study Write generates: one 33 kV ring of three
@@ -83,6 +90,9 @@ type generator struct {
 	count map[string]int
 }
 
+// local reports whether the 33 kV meshing is kept local (Options.Reach).
+func (g *generator) local() bool { return g.o.Reach > 1 }
+
 func (g *generator) uniform(lo, hi float64) float64 { return lo + (hi-lo)*g.rng.Float64() }
 
 func (g *generator) name(prefix string) string {
@@ -120,7 +130,12 @@ func (g *generator) layout() {
 		g.addLine(ring[i], ring[(i+1)%n33], 33, false)
 	}
 	for i := 0; i < n33/6; i++ { // chords mesh the ring
-		a, b := g.rng.IntN(n33), g.rng.IntN(n33)
+		a, b := g.rng.IntN(n33), 0
+		if g.local() {
+			b = (a + 2 + g.rng.IntN(g.o.Reach-1)) % n33
+		} else {
+			b = g.rng.IntN(n33)
+		}
 		if a != b && (a+1)%n33 != b && (b+1)%n33 != a {
 			g.addLine(ring[a], ring[b], 33, false)
 		}
@@ -135,7 +150,11 @@ func (g *generator) layout() {
 		hv := ring[i%n33]
 		g.trs = append(g.trs, xfmr{g.name("T"), hv, prims[i], []float64{10, 15, 20}[g.rng.IntN(3)]})
 		if g.rng.Float64() < 0.2 { // a second transformer from another 33 kV bus
-			other := ring[(i+1+g.rng.IntN(n33-1))%n33]
+			span := n33 - 1
+			if g.local() {
+				span = min(span, g.o.Reach)
+			}
+			other := ring[(i+1+g.rng.IntN(span))%n33]
 			g.trs = append(g.trs, xfmr{g.name("T"), other, prims[i], g.trs[len(g.trs)-1].mva})
 		}
 	}

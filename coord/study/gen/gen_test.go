@@ -14,7 +14,7 @@ import (
 // buses asked for, is the same for the same seed, loads without a
 // problem, and its network builds.
 func TestGeneratedStudiesLoadAndSolve(t *testing.T) {
-	for _, o := range []gen.Options{{Buses: gen.MinBuses, Seed: 1}, {Buses: 500, Seed: 7}, {Buses: 500, Seed: 7, Fuses: true}} {
+	for _, o := range []gen.Options{{Buses: gen.MinBuses, Seed: 1}, {Buses: 500, Seed: 7}, {Buses: 500, Seed: 7, Fuses: true}, {Buses: 500, Seed: 7, Reach: 8}} {
 		var a, b bytes.Buffer
 		if err := gen.Write(&a, o); err != nil {
 			t.Fatal(err)
