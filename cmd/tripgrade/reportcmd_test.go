@@ -331,7 +331,7 @@ func TestChooseCharts(t *testing.T) {
 	for _, n := range names {
 		charts = append(charts, &tcc.Chart{Name: n})
 	}
-	rows := []report.Row{{Finding: coord.Finding{Verdict: coord.Pass}}, {Finding: coord.Finding{Verdict: coord.Fail}}, {Finding: coord.Finding{Verdict: coord.Accepted}}}
+	rows := []report.Row{{Finding: &coord.Finding{Verdict: coord.Pass}}, {Finding: &coord.Finding{Verdict: coord.Fail}}, {Finding: &coord.Finding{Verdict: coord.Accepted}}}
 	linked := []string{"path-a", "pair-y", "pair-x"}
 	got := chooseCharts(charts, nil, linked, rows, 2)
 	if len(got) != 2 || !got["pair-y"] || !got["pair-x"] {

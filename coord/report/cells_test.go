@@ -22,7 +22,7 @@ func hostile() *Findings {
 		Measured: math.NaN(), Required: 90, Margin: math.NaN(), Unit: "A", Relation: "≥", Valid: true,
 		Fault: &coord.FaultRef{Kind: faults.LG, Case: faults.Min, Place: "B", DeviceA: math.NaN()},
 		Note:  "not checked: the measured figure is NaN"}
-	return &Findings{Study: "s", Rows: []Row{newRow(x), newRow(y)}, Warn: 1, Fail: 1}
+	return &Findings{Study: "s", Rows: []Row{newRow(&x), newRow(&y)}, Warn: 1, Fail: 1}
 }
 
 func TestCSVNeutralisesFormulas(t *testing.T) {

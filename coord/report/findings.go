@@ -95,7 +95,9 @@ type PairRow struct {
 
 // Row is one finding with its figures formatted.
 type Row struct {
-	Finding coord.Finding
+	// Finding points into the checked result's findings, which the
+	// table does not copy (a large study has hundreds of thousands).
+	Finding *coord.Finding
 	// Text forms of the figures, for the text and Markdown tables.
 	Measured, Required, Margin, Fault, Detail string
 }
@@ -139,7 +141,7 @@ func newRows(fs []coord.Finding) []Row {
 		go func() {
 			defer wg.Done()
 			for i := lo; i < min(lo+per, len(fs)); i++ {
-				rows[i] = newRow(fs[i])
+				rows[i] = newRow(&fs[i])
 			}
 		}()
 	}
@@ -150,7 +152,7 @@ func newRows(fs []coord.Finding) []Row {
 // rowsPerWorker is the least number of rows worth a worker of its own.
 const rowsPerWorker = 5000
 
-func newRow(x coord.Finding) Row {
+func newRow(x *coord.Finding) Row {
 	r := Row{Finding: x, Measured: "-", Required: "-", Margin: "-"}
 	if x.Valid {
 		r.Measured, r.Required = quantity(x.Measured, x.Unit), x.Relation+" "+quantity(x.Required, x.Unit)
@@ -188,7 +190,7 @@ func current(a float64, q coord.Quantity) string {
 
 // detail gives the currents and times behind a figure, each current with
 // the device it belongs to.
-func detail(x coord.Finding) string {
+func detail(x *coord.Finding) string {
 	ft := x.Fault
 	switch x.Check {
 	case coord.Grading, coord.Discrimination:

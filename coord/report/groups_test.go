@@ -11,7 +11,7 @@ import (
 // other order are grouped the same way by copying.
 func TestGroupsInCheckOrder(t *testing.T) {
 	k := coord.CheckKinds
-	row := func(c coord.CheckKind, dev string) Row { return Row{Finding: coord.Finding{Check: c, Device: dev}} }
+	row := func(c coord.CheckKind, dev string) Row { return Row{Finding: &coord.Finding{Check: c, Device: dev}} }
 	ordered := &Findings{Rows: []Row{row(k[0], "a"), row(k[0], "b"), row(k[2], "c"), row(k[3], "d"), row(k[3], "e")}}
 	mixed := &Findings{Rows: []Row{row(k[3], "d"), row(k[0], "a"), row(k[2], "c"), row(k[0], "b"), row(k[3], "e")}}
 	want := [][]Row{{row(k[0], "a"), row(k[0], "b")}, {row(k[2], "c")}, {row(k[3], "d"), row(k[3], "e")}}

@@ -22,7 +22,7 @@ func backupRows() *Findings {
 		Measured: 0.4, Required: 0.3, Margin: 0.1, Unit: "s", Relation: "≥", Valid: true,
 		Fault: &coord.FaultRef{Kind: faults.LG, Case: faults.Max, Place: "F1 50 %", Interpolated: true, Scale: 0.625,
 			DeviceA: 380, DeviceQty: coord.Residual, OtherA: 0, OtherQty: coord.Residual, DeviceS: 0.2, OtherS: 0.6}}
-	return &Findings{Study: "q", Rows: []Row{newRow(x), newRow(y)}, Pass: 2}
+	return &Findings{Study: "q", Rows: []Row{newRow(&x), newRow(&y)}, Pass: 2}
 }
 
 // TestEveryCurrentNamesItsDevice: the detail of a backup-sensitivity row

@@ -16,7 +16,7 @@ func sample() *Findings {
 		Measured: 0.21, Required: 0.3, Margin: -0.09, Unit: "s", Relation: "≥", Valid: true,
 		Fault: &coord.FaultRef{Kind: faults.LL, Case: faults.Max, Place: "bus <B>", DeviceA: 5000, OtherA: 1700, DeviceS: 0.4, OtherS: 0.61}}
 	y := coord.Finding{Check: coord.LoadMargin, Device: "R2", Verdict: coord.Warn, Note: "not checked: no load"}
-	return &Findings{Study: "a | b <i>", Rows: []Row{newRow(x), newRow(y)}, Pass: 0, Warn: 1, Fail: 1}
+	return &Findings{Study: "a | b <i>", Rows: []Row{newRow(&x), newRow(&y)}, Pass: 0, Warn: 1, Fail: 1}
 }
 
 // TestMarkdownEscapesUserText: names from the study must not break the
