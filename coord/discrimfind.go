@@ -9,7 +9,7 @@ import (
 // discrimination judges every fault of the study one by one and returns
 // the findings of the fault-clearing and discrimination checks.
 func (c *checker) discrimination() ([]Finding, []string, error) {
-	x := newNetIndex(c.s, c.eng, c.topo.ratioKV)
+	x := newNetIndex(c.s, c.eng, c.topo.ratioKV, c.timers)
 	x.topo = c.topo
 	x.hook = c.hook
 	t, err := x.runPass(c.s.Criteria)

@@ -55,7 +55,9 @@ type pickupLimits struct {
 	cheap           bool
 }
 
-func newNetIndex(s *Study, eng *faults.Engine, ratio []float64) *netIndex {
+// newNetIndex indexes the study's network and devices for the pass; timers
+// are the devices' timers when the caller has them (nil: made here).
+func newNetIndex(s *Study, eng *faults.Engine, ratio []float64, timers []*Timer) *netIndex {
 	n := s.Network
 	x := &netIndex{s: s, eng: eng, n: n, ratio: ratio,
 		adj: make([][]int, len(n.Buses)), devAt: make([][2][]int, n.BranchCount())}
@@ -67,8 +69,13 @@ func newNetIndex(s *Study, eng *faults.Engine, ratio []float64) *netIndex {
 	for i := range s.Devices {
 		d := &s.Devices[i]
 		x.devAt[d.Point.Branch][d.Point.End] = append(x.devAt[d.Point.Branch][d.Point.End], i)
-		x.timers = append(x.timers, NewTimer(d))
+		if timers == nil {
+			x.timers = append(x.timers, NewTimer(d))
+		}
 		x.devBus = append(x.devBus, DeviceBus(n, *d))
+	}
+	if timers != nil {
+		x.timers = timers
 	}
 	x.limits = make([]pickupLimits, len(s.Devices))
 	for i := range s.Devices {

@@ -26,14 +26,21 @@ type Timer struct {
 	// Phase and Ground are the fastest of the relay's phase and ground
 	// stages (nil when it has none), per Band, whatever their direction.
 	Phase, Ground [3]curves.Characteristic
-	// phaseDir and groundDir are the fastest stages of each Direction, per
+	// dir holds the characteristics by direction of a relay with a
+	// directional stage (nil for the others, most of a large study).
+	dir         *timerDirs
+	directional bool
+}
+
+// timerDirs are a directional relay's characteristics by Direction.
+type timerDirs struct {
+	// phase and ground are the fastest stages of each Direction, per
 	// Band (nil where there are none).
-	phaseDir, groundDir [3][3]curves.Characteristic
+	phase, ground [3][3]curves.Characteristic
 	// towardPhase and towardGround are, per Direction of the current, the
 	// fastest of the stages that operate for it (the non-directional
 	// ones and those of that direction), per Band.
 	towardPhase, towardGround [3][3]curves.Characteristic
-	directional               bool
 }
 
 // Toward returns the relay's phase and ground characteristics for
@@ -44,7 +51,7 @@ func (t *Timer) Toward(dir Direction) (phase, ground [3]curves.Characteristic) {
 	if dir == NonDirectional || !t.directional {
 		return t.Phase, t.Ground
 	}
-	return t.towardPhase[dir], t.towardGround[dir]
+	return t.dir.towardPhase[dir], t.dir.towardGround[dir]
 }
 
 // NewTimer prepares a device's characteristics.
@@ -83,14 +90,19 @@ func NewTimer(d *Device) *Timer {
 	}
 	set(&t.Phase, ph)
 	set(&t.Ground, gr)
+	if !t.directional {
+		return t
+	}
+	td := &timerDirs{}
 	for dir := range phD {
-		set(&t.phaseDir[dir], phD[dir])
-		set(&t.groundDir[dir], grD[dir])
+		set(&td.phase[dir], phD[dir])
+		set(&td.ground[dir], grD[dir])
 	}
 	for _, dir := range []Direction{Forward, Reverse} {
-		set(&t.towardPhase[dir], append(append(curves.Fastest(nil), phD[NonDirectional]...), phD[dir]...))
-		set(&t.towardGround[dir], append(append(curves.Fastest(nil), grD[NonDirectional]...), grD[dir]...))
+		set(&td.towardPhase[dir], append(append(curves.Fastest(nil), phD[NonDirectional]...), phD[dir]...))
+		set(&td.towardGround[dir], append(append(curves.Fastest(nil), grD[NonDirectional]...), grD[dir]...))
 	}
+	t.dir = td
 	return t
 }
 
@@ -209,10 +221,10 @@ func (t *Timer) groupRaces(phaseA, groundA float64, d Dirs, b Band, which int) (
 	}
 	for dir := range quantity {
 		if which&phaseStages != 0 {
-			ph.add(t.phaseDir[dir][b], quantity[dir])
+			ph.add(t.dir.phase[dir][b], quantity[dir])
 		}
 		if which&groundStages != 0 {
-			gr.add(t.groundDir[dir][b], ground[dir])
+			gr.add(t.dir.ground[dir][b], ground[dir])
 		}
 	}
 	return ph, gr

@@ -109,7 +109,7 @@ func NewTopology(s *Study, eng *faults.Engine) (*Topology, error) {
 	}
 	t.adj = adj
 	t.ratioKV = n.RatioKV()
-	x := newNetIndex(s, eng, t.ratioKV)
+	x := newNetIndex(s, eng, t.ratioKV, nil)
 	rel, err := x.zonePass()
 	if err != nil {
 		return nil, err
