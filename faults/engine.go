@@ -256,6 +256,20 @@ func (s *seqNet) path(k int) *sparse.Path {
 	return s.paths[k].Load()
 }
 
+// ForgetPaths drops the factor paths the engine keeps for impedance
+// entries, which on a large network are most of its memory; entries asked
+// for later compute their paths again. It must not run while another
+// goroutine uses the engine.
+func (e *Engine) ForgetPaths() {
+	for c := range e.cases {
+		for _, sn := range e.cases[c] {
+			if sn != nil {
+				clear(sn.paths)
+			}
+		}
+	}
+}
+
 // z returns the bus impedance matrix entry Z_ab in per unit.
 func (s *seqNet) z(a, b int) complex128 {
 	if a == b {
