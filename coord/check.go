@@ -2,6 +2,7 @@ package coord
 
 import (
 	"runtime"
+	"slices"
 	"sync"
 	"sync/atomic"
 
@@ -39,7 +40,10 @@ func CheckWith(s *Study, eng *faults.Engine, t *Topology, o Options) (*Result, e
 	}
 	r := &Result{}
 	r.Pairs, r.Excluded = derivePairs(s, t)
-	add := func(fs ...Finding) { r.Findings = append(r.Findings, fs...) }
+	// The findings are gathered in parts and joined once at the end: a
+	// large study has hundreds of thousands.
+	var parts [][]Finding
+	add := func(fs ...Finding) { parts = append(parts, fs) }
 
 	fs, notes, err := c.discrimination()
 	if err != nil {
@@ -64,18 +68,19 @@ func CheckWith(s *Study, eng *faults.Engine, t *Topology, o Options) (*Result, e
 		if err != nil {
 			return nil, err
 		}
-		add(fs...)
+		parts = append(parts, fs...)
 	}
 	fs, err = c.damage()
 	if err != nil {
 		return nil, err
 	}
 	add(fs...)
-	fs, err = inParallel(nd, c.settingsAudit)
+	audit, err := inParallel(nd, c.settingsAudit)
 	if err != nil {
 		return nil, err
 	}
-	add(fs...)
+	parts = append(parts, audit...)
+	r.Findings = slices.Concat(parts...)
 	for i := range r.Findings {
 		settle(&r.Findings[i])
 	}
@@ -89,9 +94,9 @@ func optional(f Finding, ok bool) ([]Finding, error) {
 	return []Finding{f}, nil
 }
 
-// inParallel runs run(0..n−1) on every CPU and returns their findings in
-// index order, or the error of the lowest index that failed.
-func inParallel(n int, run func(i int) ([]Finding, error)) ([]Finding, error) {
+// inParallel runs run(0..n−1) on every CPU and returns their findings by
+// index, or the error of the lowest index that failed.
+func inParallel(n int, run func(i int) ([]Finding, error)) ([][]Finding, error) {
 	res := make([][]Finding, n)
 	errs := make([]error, n)
 	var next atomic.Int64
@@ -110,12 +115,10 @@ func inParallel(n int, run func(i int) ([]Finding, error)) ([]Finding, error) {
 		}()
 	}
 	wg.Wait()
-	var out []Finding
 	for i := range res {
 		if errs[i] != nil {
 			return nil, errs[i]
 		}
-		out = append(out, res[i]...)
 	}
-	return out, nil
+	return res, nil
 }

@@ -3,6 +3,7 @@ package coord
 import (
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 
 	"tripgrade/curves"
@@ -19,14 +20,18 @@ func LoadThrough(s *Study, t *Topology, i int) (a float64, declared bool) {
 	}
 	n := s.Network
 	bus := DeviceBus(n, *d)
-	beyond := map[int]bool{}
+	// The loads at the buses beyond, summed in the study's order (the
+	// order of the figures decides the last bits of the sum).
+	var loads []int
 	for _, b := range t.Beyond(i) {
-		beyond[b] = true
+		loads = append(loads, t.loadsAt[b]...)
 	}
-	for _, l := range s.Loads {
-		if beyond[l.Bus] {
-			a += t.ReferA(l.CurrentA, l.Bus, bus)
+	slices.Sort(loads)
+	for k, l := range loads {
+		if k > 0 && l == loads[k-1] {
+			continue
 		}
+		a += t.ReferA(s.Loads[l].CurrentA, s.Loads[l].Bus, bus)
 	}
 	return a, false
 }

@@ -51,6 +51,9 @@ type Topology struct {
 	// dist is each bus's electrical distance from the grid sources
 	// (faults.Engine.SourceDistance).
 	dist []float64
+	// loadsAt lists, per bus, the study's loads there (indices into
+	// Study.Loads, ascending).
+	loadsAt [][]int
 }
 
 // Above reports whether device u sits nearer the grid sources than
@@ -91,7 +94,10 @@ func (t *Topology) PairPlaces(u, d int) []faults.Place {
 // it does not feed through.
 func NewTopology(s *Study, eng *faults.Engine) (*Topology, error) {
 	n := s.Network
-	t := &Topology{Downstream: make([]faults.End, n.BranchCount())}
+	t := &Topology{Downstream: make([]faults.End, n.BranchCount()), loadsAt: make([][]int, len(n.Buses))}
+	for i, l := range s.Loads {
+		t.loadsAt[l.Bus] = append(t.loadsAt[l.Bus], i)
+	}
 	dist := eng.SourceDistance()
 	t.dist = dist
 	for b := range t.Downstream {
