@@ -59,15 +59,20 @@ func benchmarkCheck(b *testing.B, feeders, sections int) {
 	s := radialStudy(b, feeders, sections)
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
-		eng, topo, err := coord.Prepare(s)
-		if err != nil {
-			b.Fatal(err)
-		}
-		if _, err := coord.Check(s, eng, topo); err != nil {
-			b.Fatal(err)
-		}
+		prepareAndCheck(b, s)
 	}
 	b.ReportMetric(float64(len(s.Devices)), "devices")
+}
+
+// prepareAndCheck builds the engine and topology of s and checks it.
+func prepareAndCheck(b *testing.B, s *coord.Study) {
+	eng, topo, err := coord.Prepare(s)
+	if err != nil {
+		b.Fatal(err)
+	}
+	if _, err := coord.Check(s, eng, topo); err != nil {
+		b.Fatal(err)
+	}
 }
 
 func BenchmarkCheck100Devices(b *testing.B)  { benchmarkCheck(b, 20, 5) }
@@ -104,13 +109,7 @@ func BenchmarkCheckMeshed(b *testing.B) {
 			}
 			b.Run(fmt.Sprintf("buses=%d/meshing=%s", n, mesh.name), func(b *testing.B) {
 				for b.Loop() {
-					eng, topo, err := coord.Prepare(s)
-					if err != nil {
-						b.Fatal(err)
-					}
-					if _, err := coord.Check(s, eng, topo); err != nil {
-						b.Fatal(err)
-					}
+					prepareAndCheck(b, s)
 				}
 				b.ReportMetric(float64(len(s.Devices)), "devices")
 			})
