@@ -271,7 +271,7 @@ type workspace struct {
 // columnCacheSize is how many impedance-matrix columns a worker remembers:
 // the fault nodes and opened branch ends of the faults it judges in turn,
 // which lie near one another.
-const columnCacheSize = 24
+const columnCacheSize = 16
 
 // stateCacheSize is how many network states a worker remembers.
 const stateCacheSize = 4
