@@ -105,8 +105,8 @@ func checkLoaded(l loaded, o *checkOptions, stdout, stderr io.Writer) int {
 	run.showProgress(stderr, pick)
 	err = coord.CheckScenarios(l.study, l.engine, l.topo, pick, run.visit)
 	run.endProgress()
-	// What follows needs few impedance entries: free the memory of the
-	// checks' before the table is made.
+	// What follows needs few impedance entries: free the factor paths the
+	// checks kept before the table is made.
 	l.engine.ForgetPaths()
 	if err != nil {
 		run.abort()
