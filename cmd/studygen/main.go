@@ -31,7 +31,7 @@ func run(args []string, stdout, stderr io.Writer) int {
 	fs.Uint64Var(&o.Seed, "seed", 1, "random `seed`")
 	fs.BoolVar(&o.Fuses, "fuses", false, "fuses instead of relays on the 11 kV spurs")
 	fs.BoolVar(&o.Ranges, "ranges", false, "pickup and multiplier ranges on the relays' inverse-time stages (for propose --pickups)")
-	fs.IntVar(&o.Reach, "reach", 0, "keep 33 kV chords and second transformers within `n` places along the ring (0: anywhere)")
+	fs.IntVar(&o.Reach, "reach", 0, "keep 33 kV chords and second transformers within `n` places along the ring (0: anywhere; at least 2 otherwise)")
 	if err := fs.Parse(args); err != nil {
 		return 2
 	}

@@ -32,12 +32,13 @@ type Options struct {
 	// Ranges declares a pickup range and a multiplier range on every
 	// relay's inverse-time stage (for tripgrade propose --pickups).
 	Ranges bool
-	// Reach, when above 1, keeps the 33 kV meshing local: a chord joins
+	// Reach, when not zero, keeps the 33 kV meshing local: a chord joins
 	// buses at most Reach places apart along the ring, and a primary's
 	// second transformer comes from a 33 kV bus at most Reach places from
 	// its first, as lines join neighbouring substations in a real
-	// network. Zero (the default) draws both ends anywhere on the ring,
-	// which makes the 33 kV network behave like a random graph.
+	// network; it must be at least 2. Zero (the default) draws both ends
+	// anywhere on the ring, which makes the 33 kV network behave like a
+	// random graph.
 	Reach int
 }
 
@@ -49,6 +50,9 @@ const MinBuses = 8
 func Write(w io.Writer, o Options) error {
 	if o.Buses < MinBuses {
 		return fmt.Errorf("gen: %d buses requested, need at least %d", o.Buses, MinBuses)
+	}
+	if o.Reach < 0 || o.Reach == 1 {
+		return fmt.Errorf("gen: reach %d: a chord needs at least 2 places along the ring (0: anywhere)", o.Reach)
 	}
 	g := &generator{rng: rand.New(rand.NewPCG(o.Seed, 0x51ad)), o: o}
 	g.layout()
@@ -91,7 +95,7 @@ type generator struct {
 }
 
 // local reports whether the 33 kV meshing is kept local (Options.Reach).
-func (g *generator) local() bool { return g.o.Reach > 1 }
+func (g *generator) local() bool { return g.o.Reach > 0 }
 
 func (g *generator) uniform(lo, hi float64) float64 { return lo + (hi-lo)*g.rng.Float64() }
 

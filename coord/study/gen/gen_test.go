@@ -41,4 +41,9 @@ func TestGeneratedStudiesLoadAndSolve(t *testing.T) {
 	if err := gen.Write(&bytes.Buffer{}, gen.Options{Buses: gen.MinBuses - 1}); err == nil {
 		t.Errorf("a study below the minimum size was written")
 	}
+	for _, reach := range []int{-1, 1} {
+		if err := gen.Write(&bytes.Buffer{}, gen.Options{Buses: 100, Reach: reach}); err == nil {
+			t.Errorf("a study with reach %d was written", reach)
+		}
+	}
 }
