@@ -26,7 +26,8 @@ have charts of their own; a path whose currents would span more than about
 four decades on one axis is split at a transformer, each part referred to its
 own voltage by the transformers' winding ratios. One chart is written to
 FILE; several to FILE-phase and FILE-earth (FILE-phase-1, FILE-phase-2, ...
-when a device lies on several paths or parts), before the extension. The
+when a device lies on several paths or parts), before the extension; a FILE
+without an extension takes the format's. The
 files written are listed on standard output. Without --out the file is the
 device's name, made safe, with the format's extension, in the current folder.
 SVG text is drawn as outlines, so it shows the same on any machine. With
@@ -106,12 +107,16 @@ func plotFormat(format, out string) (tcc.Format, error) {
 }
 
 // plotFiles names the files of charts of the given kinds: out (or the
-// sanitised device name with the format's extension) for one chart; for
+// sanitised device name; either with the format's extension when it has
+// none) for one chart; for
 // several, "-phase" or "-earth" before the extension, with "-1", "-2", ...
 // after it when a kind has several charts.
 func plotFiles(out, device string, f tcc.Format, kinds []coord.Quantity) []string {
-	if out == "" {
+	switch {
+	case out == "":
 		out = tcc.Sanitise(device) + "." + f.Ext()
+	case filepath.Ext(out) == "":
+		out += "." + f.Ext() // a chart file a viewer knows by its name
 	}
 	if len(kinds) == 1 {
 		return []string{out}

@@ -124,6 +124,11 @@ func TestPlotDefaultOutIsTheSafeDeviceName(t *testing.T) {
 	if data, _ := os.ReadFile("chart.SVG"); code != exitOK || !bytes.Contains(data, []byte("<svg")) {
 		t.Errorf("--out chart.SVG: exit %d, stderr %q, want an SVG", code, stderr)
 	}
+	// A FILE without an extension takes the format's.
+	code, stdout, stderr = runArgs("plot", path, "--device", "R33", "--out", "plain")
+	if data, _ := os.ReadFile("plain.png"); code != exitOK || strings.TrimSpace(stdout) != "plain.png" || !bytes.HasPrefix(data, []byte("\x89PNG")) {
+		t.Errorf("--out plain: exit %d, stdout %q, stderr %q; want plain.png, a PNG", code, stdout, stderr)
+	}
 }
 
 // TestPlotDeviceOnNoChart: a relay whose only stage is a ground stage that
