@@ -8,6 +8,7 @@ import (
 	"os"
 	"sort"
 	"strings"
+	"time"
 
 	"tripgrade/coord"
 	"tripgrade/coord/report"
@@ -45,6 +46,7 @@ type scenarioRun struct {
 	// on one line that each count overwrites.
 	progress    io.Writer
 	done, total int
+	started     time.Time // when the first configuration was started
 }
 
 // scenarioChart is a failing pair's chart drawn in the scenario where it
@@ -146,7 +148,7 @@ func (r *scenarioRun) showProgress(w io.Writer, pick func(string) bool) {
 	}
 	if f, ok := w.(*os.File); ok && r.total > 1 {
 		if fi, err := f.Stat(); err == nil && fi.Mode()&os.ModeCharDevice != 0 {
-			r.progress = w
+			r.progress, r.started = w, time.Now()
 		}
 	}
 }
@@ -155,7 +157,7 @@ func (r *scenarioRun) showProgress(w io.Writer, pick func(string) bool) {
 func (r *scenarioRun) visit(c coord.Checked) error {
 	if r.progress != nil {
 		r.done++
-		fmt.Fprintf(r.progress, "\rchecked %d of %d configurations (%s)\x1b[K", r.done, r.total, c.Scenario)
+		fmt.Fprintf(r.progress, "\rchecked %d of %d configurations (%s)%s\x1b[K", r.done, r.total, c.Scenario, timeLeft(time.Since(r.started), r.done, r.total))
 	}
 	res := c.Result
 	r.acc.Apply(res)
@@ -316,6 +318,23 @@ func scenarioNames(s *coord.Study) []string {
 		out = append(out, sc.Name)
 	}
 	return out
+}
+
+// timeLeft estimates, for the progress line, the time the remaining
+// configurations take at the pace of those done so far: "" until a few
+// are done, or when none remain.
+func timeLeft(elapsed time.Duration, done, total int) string {
+	if done < 3 || done >= total {
+		return ""
+	}
+	left := time.Duration(float64(elapsed) / float64(done) * float64(total-done))
+	switch {
+	case left < time.Minute:
+		return fmt.Sprintf(", about %d s left", int(left.Seconds()+0.5))
+	case left < time.Hour:
+		return fmt.Sprintf(", about %d min left", int(left.Minutes()+0.5))
+	}
+	return fmt.Sprintf(", about %.1f h left", left.Hours())
 }
 
 // endProgress clears the progress line.

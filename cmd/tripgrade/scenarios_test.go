@@ -8,6 +8,7 @@ import (
 	"regexp"
 	"strings"
 	"testing"
+	"time"
 )
 
 const sameAsEdited = "../../testdata/scenarios/same-as-edited.toml"
@@ -536,5 +537,27 @@ func TestAshcombeRingExample(t *testing.T) {
 	}
 	if len(doc.Notes) != 3 || !strings.Contains(doc.Notes[2], "BF2-CABLE out, BF2-OHL out") {
 		t.Errorf("sweep notes %q", doc.Notes)
+	}
+}
+
+// TestTimeLeft: the progress line's estimate is the remaining share of the
+// time so far, in seconds, minutes or hours, and is left out until three
+// configurations are done and once all are.
+func TestTimeLeft(t *testing.T) {
+	for _, c := range []struct {
+		elapsed     time.Duration
+		done, total int
+		want        string
+	}{
+		{10 * time.Second, 2, 100, ""},
+		{10 * time.Second, 100, 100, ""},
+		{10 * time.Second, 5, 20, ", about 30 s left"},
+		{30 * time.Second, 10, 700, ", about 35 min left"},
+		{60 * time.Second, 10, 700, ", about 1.1 h left"},
+		{600 * time.Second, 10, 700, ", about 11.5 h left"},
+	} {
+		if got := timeLeft(c.elapsed, c.done, c.total); got != c.want {
+			t.Errorf("timeLeft(%v, %d, %d) = %q, want %q", c.elapsed, c.done, c.total, got, c.want)
+		}
 	}
 }
