@@ -294,7 +294,7 @@ func (t *Timer) Sees(s *Seen) bool {
 	}
 	var pd [3]Direction
 	var gd Direction
-	if t.directional {
+	if t.Directional() {
 		pd, gd = t.Directions(s)
 	}
 	for _, st := range t.Dev.Stages {

@@ -98,7 +98,7 @@ func marginRule(crit Criteria, u, d *Device, pairS float64) (alpha, beta, gamma 
 // dirsSeen says how a directional relay's elements decided for what it
 // sees (the zero Dirs for a relay without directional stages).
 func (t *Timer) dirsSeen(s *Seen) Dirs {
-	if !t.directional {
+	if !t.Directional() {
 		return Dirs{}
 	}
 	return t.dirs(s, s.PhaseA())
@@ -119,12 +119,12 @@ func (t *Timer) StageCurrentA(i int, at Operating) float64 {
 	st := t.Dev.Stages[i]
 	d := at.Dirs
 	if st.Measures == Residual {
-		if !t.directional || !d.Known || st.Direction == NonDirectional || st.Direction == d.Ground {
+		if !t.Directional() || !d.Known || st.Direction == NonDirectional || st.Direction == d.Ground {
 			return at.GroundA
 		}
 		return 0
 	}
-	if !t.directional || !d.Known {
+	if !t.Directional() || !d.Known {
 		return at.PhaseA
 	}
 	switch st.Direction {

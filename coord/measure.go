@@ -15,7 +15,7 @@ func (c *checker) measure(i int, sol faults.Solution) (phaseA, groundA float64, 
 	cur := sol.At(dev.Point)
 	phaseA, groundA = cur.PhaseMaxA(), cur.ResidualA()
 	t := c.timers[i]
-	if dev.NeutralCT == nil && !t.directional {
+	if dev.NeutralCT == nil && !t.Directional() {
 		return phaseA, groundA, d
 	}
 	bus := DeviceBus(c.s.Network, *dev)
@@ -27,7 +27,7 @@ func (c *checker) measure(i int, sol faults.Solution) (phaseA, groundA float64, 
 	if dev.Dir.ByCurrent {
 		s.Pol = neutralCurrent(sol, sol.At(dev.Dir.PolarisingPoint), dev.Dir.PolarisingPoint)
 	}
-	if !t.directional {
+	if !t.Directional() {
 		return phaseA, groundA, d
 	}
 	return phaseA, groundA, t.dirs(&s, phaseA)

@@ -28,8 +28,7 @@ type Timer struct {
 	Phase, Ground [3]curves.Characteristic
 	// dir holds the characteristics by direction of a relay with a
 	// directional stage (nil for the others, most of a large study).
-	dir         *timerDirs
-	directional bool
+	dir *timerDirs
 }
 
 // timerDirs are a directional relay's characteristics by Direction.
@@ -48,7 +47,7 @@ type timerDirs struct {
 // branch): the fastest of its non-directional stages and of those set
 // that way. For NonDirectional it returns Phase and Ground.
 func (t *Timer) Toward(dir Direction) (phase, ground [3]curves.Characteristic) {
-	if dir == NonDirectional || !t.directional {
+	if dir == NonDirectional || !t.Directional() {
 		return t.Phase, t.Ground
 	}
 	return t.dir.towardPhase[dir], t.dir.towardGround[dir]
@@ -61,6 +60,7 @@ func NewTimer(d *Device) *Timer {
 		return t
 	}
 	var ph, gr curves.Fastest
+	directional := false
 	var phD, grD [3]curves.Fastest
 	for _, s := range d.Stages {
 		if s.Measures == Phase {
@@ -71,7 +71,7 @@ func NewTimer(d *Device) *Timer {
 			grD[s.Direction] = append(grD[s.Direction], s.Curve)
 		}
 		if s.Direction != NonDirectional {
-			t.directional = true
+			directional = true
 		}
 	}
 	set := func(dst *[3]curves.Characteristic, f curves.Fastest) {
@@ -90,7 +90,7 @@ func NewTimer(d *Device) *Timer {
 	}
 	set(&t.Phase, ph)
 	set(&t.Ground, gr)
-	if !t.directional {
+	if !directional {
 		return t
 	}
 	td := &timerDirs{}
@@ -107,7 +107,7 @@ func NewTimer(d *Device) *Timer {
 }
 
 // Directional reports whether any stage of the device is directional.
-func (t *Timer) Directional() bool { return t.directional }
+func (t *Timer) Directional() bool { return t.dir != nil }
 
 // Directions returns the decisions of the relay's phase elements and of
 // its ground element for what it sees.
@@ -155,7 +155,7 @@ const (
 
 func (t *Timer) relaySeen(s *Seen, b Band, which int) (float64, curves.Status) {
 	phaseA, residualA := s.PhaseA(), s.groundA(t.Dev)
-	if !t.directional {
+	if !t.Directional() {
 		return t.groups(phaseA, residualA, Dirs{}, b, which)
 	}
 	return t.groups(phaseA, residualA, t.dirs(s, phaseA), b, which)
@@ -204,7 +204,7 @@ func (t *Timer) groups(phaseA, groundA float64, d Dirs, b Band, which int) (floa
 // groupRaces times the relay's phase and its ground stages (those which
 // selects) as groups does, each kind in a race of its own.
 func (t *Timer) groupRaces(phaseA, groundA float64, d Dirs, b Band, which int) (ph, gr race) {
-	if !t.directional || !d.Known {
+	if !t.Directional() || !d.Known {
 		if which&phaseStages != 0 {
 			ph.add(t.Phase[b], phaseA)
 		}
@@ -236,7 +236,7 @@ func (t *Timer) groupRaces(phaseA, groundA float64, d Dirs, b Band, which int) (
 func (t *Timer) operateGoverning(s *Seen) (float64, curves.Status, float64) {
 	phaseA, residualA := s.PhaseA(), s.groundA(t.Dev)
 	var d Dirs
-	if t.directional {
+	if t.Directional() {
 		d = t.dirs(s, phaseA)
 	}
 	ph, gr := t.groupRaces(phaseA, residualA, d, Nominal, allStages)
@@ -283,7 +283,7 @@ func (t *Timer) ClearingDir(phaseA, groundA float64, d Dirs, b Band) (float64, c
 // a group with a non-directional stage, else the current its directions
 // see (the larger, for stages of both directions).
 func (t *Timer) effective(phaseA, groundA float64, d Dirs) (float64, float64) {
-	if !t.directional || !d.Known {
+	if !t.Directional() || !d.Known {
 		return phaseA, groundA
 	}
 	ph, gr := 0.0, 0.0
