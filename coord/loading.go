@@ -27,10 +27,7 @@ func LoadThrough(s *Study, t *Topology, i int) (a float64, declared bool) {
 		loads = append(loads, t.loadsAt[b]...)
 	}
 	slices.Sort(loads)
-	for k, l := range loads {
-		if k > 0 && l == loads[k-1] {
-			continue
-		}
+	for _, l := range slices.Compact(loads) {
 		a += t.ReferA(s.Loads[l].CurrentA, s.Loads[l].Bus, bus)
 	}
 	return a, false

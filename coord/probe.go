@@ -69,14 +69,14 @@ func newNetIndex(s *Study, eng *faults.Engine, ratio []float64, timers []*Timer)
 	for i := range s.Devices {
 		d := &s.Devices[i]
 		x.devAt[d.Point.Branch][d.Point.End] = append(x.devAt[d.Point.Branch][d.Point.End], i)
-		if timers == nil {
-			x.timers = append(x.timers, NewTimer(d))
-		}
 		x.devBus = append(x.devBus, DeviceBus(n, *d))
 	}
-	if timers != nil {
-		x.timers = timers
+	if timers == nil {
+		for i := range s.Devices {
+			timers = append(timers, NewTimer(&s.Devices[i]))
+		}
 	}
+	x.timers = timers
 	x.limits = make([]pickupLimits, len(s.Devices))
 	for i := range s.Devices {
 		d := &s.Devices[i]
