@@ -32,6 +32,7 @@ func run(args []string, stdout, stderr io.Writer) int {
 	fs.BoolVar(&o.Fuses, "fuses", false, "fuses instead of relays on the 11 kV spurs")
 	fs.BoolVar(&o.Ranges, "ranges", false, "pickup and multiplier ranges on the relays' inverse-time stages (for propose --pickups)")
 	fs.IntVar(&o.Reach, "reach", 0, "keep 33 kV chords and second transformers within `n` places along the ring (0: anywhere; at least 2 otherwise)")
+	fs.BoolVar(&o.Practice, "practice", false, "lay the network and its protection out as in practice: 33 kV rings of five with a source each and directional relays, transformer relays, radial 11 kV feeders with open interconnectors, inverse ground stages")
 	if err := fs.Parse(args); err != nil {
 		return 2
 	}

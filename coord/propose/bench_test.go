@@ -17,19 +17,24 @@ import (
 // go test -run X -bench Propose -benchtime 1x ./coord/propose/
 //
 // With pickups, every phase stage declares a pickup range (gen.Options
-// Ranges) and the search chooses the pickups first.
+// Ranges) and the search chooses the pickups first. The practice study
+// is laid out as an engineer would protect it (gen.Options Practice: ring
+// mains with directional relays, transformer relays, radial feeders).
 func BenchmarkPropose(b *testing.B) {
 	for _, c := range []struct {
-		n       int
-		pickups bool
-	}{{1000, false}, {1000, true}} {
+		n                 int
+		pickups, practice bool
+	}{{1000, false, false}, {1000, true, false}, {1000, false, true}, {1000, true, true}} {
 		name := fmt.Sprintf("buses=%d", c.n)
+		if c.practice {
+			name += "/practice"
+		}
 		if c.pickups {
 			name += "/pickups"
 		}
 		b.Run(name, func(b *testing.B) {
 			var src bytes.Buffer
-			if err := gen.Write(&src, gen.Options{Buses: c.n, Seed: 1, Ranges: c.pickups}); err != nil {
+			if err := gen.Write(&src, gen.Options{Buses: c.n, Seed: 1, Ranges: c.pickups, Practice: c.practice}); err != nil {
 				b.Fatal(err)
 			}
 			s, err := study.Parse("gen.toml", src.Bytes(), nil)

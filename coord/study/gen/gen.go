@@ -10,7 +10,9 @@
 // loops close through transformers), radial 11 kV feeders tied into loops
 // by interconnectors, loads at most 11 kV buses, and a relay with a phase
 // and a ground stage at every line end (optionally a fuse instead of the
-// relay pair on the 11 kV spurs).
+// relay pair on the 11 kV spurs). Options.Practice lays the network and its
+// protection out instead as an engineer would: 33 kV ring mains with
+// directional relays, transformer protection and radial feeders.
 package gen
 
 import (
@@ -40,6 +42,20 @@ type Options struct {
 	// anywhere on the ring, which makes the 33 kV network behave like a
 	// random graph.
 	Reach int
+	// Practice lays the network and its protection out as an engineer
+	// would before grading it with overcurrent relays (for measuring
+	// tripgrade propose on a meshed network with directional relays):
+	// the 33 kV buses in closed rings of about five, each fed by a grid
+	// source of its own (ringMains), with forward-directional stages (67,
+	// 67N) at both ends of every 33 kV line; a primary's second
+	// transformer in parallel with its first; relays on every transformer
+	// (transformerRelays); 11 kV feeders of one to three lines, whose
+	// far-end relays look forward into their line, run radially with the
+	// interconnectors as normally open switches; and every ground stage
+	// inverse-time, so that the search sets its multiplier too. The
+	// settings are still drawn at random, not graded, and Reach has no
+	// meaning here.
+	Practice bool
 }
 
 // MinBuses is the smallest study Write generates: one 33 kV ring of three
@@ -53,6 +69,9 @@ func Write(w io.Writer, o Options) error {
 	}
 	if o.Reach < 0 || o.Reach == 1 {
 		return fmt.Errorf("gen: reach %d: a chord needs at least 2 places along the ring (0: anywhere)", o.Reach)
+	}
+	if o.Practice && o.Reach != 0 {
+		return fmt.Errorf("gen: reach %d: the 33 kV rings of a study laid out as in practice have no chords to keep local", o.Reach)
 	}
 	g := &generator{rng: rand.New(rand.NewPCG(o.Seed, 0x51ad)), o: o}
 	g.layout()
@@ -80,6 +99,8 @@ type xfmr struct {
 	name     string
 	from, to int
 	mva      float64
+	zPct     float64 // drawn when written
+	parallel bool    // another unit feeds the same primary (Practice)
 }
 
 type generator struct {
@@ -89,8 +110,9 @@ type generator struct {
 	buses []bus
 	lines []line
 	trs   []xfmr
-	srcs  []int // buses with a grid equivalent
-	loads []int // buses with a load
+	srcs  []int    // buses with a grid equivalent
+	ties  [][2]int // normally open points between feeder ends (Practice)
+	loads []int    // buses with a load
 	count map[string]int
 }
 
@@ -130,44 +152,39 @@ func (g *generator) layout() {
 	for i := range ring {
 		ring[i] = g.addBus("M33", 33)
 	}
-	for i := range ring {
-		g.addLine(ring[i], ring[(i+1)%n33], 33, false)
-	}
-	for i := 0; i < n33/6; i++ { // chords mesh the ring
-		a, b := g.rng.IntN(n33), 0
-		if g.local() {
-			b = (a + 2 + g.rng.IntN(g.o.Reach-1)) % n33
-		} else {
-			b = g.rng.IntN(n33)
-		}
-		if a != b && (a+1)%n33 != b && (b+1)%n33 != a {
-			g.addLine(ring[a], ring[b], 33, false)
-		}
-	}
-	nsrc := min(max(1, n/5000+1), 8)
-	for i := 0; i < nsrc; i++ {
-		g.srcs = append(g.srcs, ring[i*n33/nsrc])
+	if g.o.Practice {
+		g.ringMains(ring)
+	} else {
+		g.meshedRing(ring)
 	}
 	prims := make([]int, nPrim)
 	for i := range prims {
 		prims[i] = g.addBus("P11", 11)
 		hv := ring[i%n33]
-		g.trs = append(g.trs, xfmr{g.name("T"), hv, prims[i], []float64{10, 15, 20}[g.rng.IntN(3)]})
-		if g.rng.Float64() < 0.2 { // a second transformer from another 33 kV bus
+		g.trs = append(g.trs, xfmr{name: g.name("T"), from: hv, to: prims[i], mva: []float64{10, 15, 20}[g.rng.IntN(3)]})
+		if g.rng.Float64() < 0.2 { // a second transformer, from another 33 kV bus or in parallel
 			span := n33 - 1
 			if g.local() {
 				span = min(span, g.o.Reach)
 			}
 			other := ring[(i+1+g.rng.IntN(span))%n33]
-			g.trs = append(g.trs, xfmr{g.name("T"), other, prims[i], g.trs[len(g.trs)-1].mva})
+			if g.o.Practice { // parallel units of one substation
+				other = hv
+				g.trs[len(g.trs)-1].parallel = true
+			}
+			g.trs = append(g.trs, xfmr{name: g.name("T"), from: other, to: prims[i], mva: g.trs[len(g.trs)-1].mva, parallel: g.o.Practice})
 		}
 	}
-	// Feeders: chains of 2 to 8 buses from the primaries in turn, with a
-	// spur now and then, until the bus budget is spent.
+	// Feeders: chains of 2 to 8 buses (1 to 3 in practice) from the
+	// primaries in turn, with a spur now and then, until the bus budget is
+	// spent.
 	var feederEnds []int
 	for k := 0; len(g.buses) < n; k++ {
 		prev := prims[k%nPrim]
 		length := 2 + g.rng.IntN(7)
+		if g.o.Practice {
+			length = 1 + g.rng.IntN(3)
+		}
 		for j := 0; j < length && len(g.buses) < n; j++ {
 			b := g.addBus("F11", 11)
 			g.addLine(prev, b, 11, false)
@@ -183,7 +200,35 @@ func (g *generator) layout() {
 	}
 	// Interconnectors tie the ends of neighbouring feeders into loops.
 	for i := 0; i+1 < len(feederEnds); i += 3 {
+		if g.o.Practice {
+			g.ties = append(g.ties, [2]int{feederEnds[i], feederEnds[i+1]})
+			continue
+		}
 		g.addLine(feederEnds[i], feederEnds[i+1], 11, false)
+	}
+}
+
+// meshedRing closes the 33 kV buses into one ring, meshes it with chords
+// and puts the grid sources on it.
+func (g *generator) meshedRing(ring []int) {
+	n33 := len(ring)
+	for i := range ring {
+		g.addLine(ring[i], ring[(i+1)%n33], 33, false)
+	}
+	for i := 0; i < n33/6; i++ { // chords mesh the ring
+		a, b := g.rng.IntN(n33), 0
+		if g.local() {
+			b = (a + 2 + g.rng.IntN(g.o.Reach-1)) % n33
+		} else {
+			b = g.rng.IntN(n33)
+		}
+		if a != b && (a+1)%n33 != b && (b+1)%n33 != a {
+			g.addLine(ring[a], ring[b], 33, false)
+		}
+	}
+	nsrc := min(max(1, g.o.Buses/5000+1), 8)
+	for i := 0; i < nsrc; i++ {
+		g.srcs = append(g.srcs, ring[i*n33/nsrc])
 	}
 }
 
@@ -202,9 +247,10 @@ func (g *generator) write() {
 			i+1, g.buses[s].name, num(round(g.uniform(800, 1500), 0)), num(round(g.uniform(300, 600), 0)),
 			num(round(g.uniform(8, 15), 1)), num(round(g.uniform(0.8, 1.5), 2)))
 	}
-	for _, t := range g.trs {
+	for i, t := range g.trs {
+		g.trs[i].zPct = round(g.uniform(8, 12), 2)
 		p("[[transformer]]\nname = %q\nfrom = %q\nto = %q\nmva = %s\nkv_from = 33\nkv_to = 11\nz_pct = %s\nx_r = %s\nvector_group = \"Dyn11\"\nneutral_ohm_to = 12.7\n\n",
-			t.name, g.buses[t.from].name, g.buses[t.to].name, num(t.mva), num(round(g.uniform(8, 12), 2)), num(round(g.uniform(12, 20), 1)))
+			t.name, g.buses[t.from].name, g.buses[t.to].name, num(t.mva), num(g.trs[i].zPct), num(round(g.uniform(12, 20), 1)))
 	}
 	for _, l := range g.lines {
 		typ, r1, x1, r0, x0 := "cable", 0.16, 0.10, 0.64, 0.35
@@ -213,6 +259,9 @@ func (g *generator) write() {
 		}
 		p("[[line]]\nname = %q\nfrom = %q\nto = %q\ntype = %q\nlength_km = %s\nr1_ohm_per_km = %s\nx1_ohm_per_km = %s\nr0_ohm_per_km = %s\nx0_ohm_per_km = %s\n\n",
 			l.name, g.buses[l.from].name, g.buses[l.to].name, typ, num(round(l.km, 3)), num(r1), num(x1), num(r0), num(x0))
+	}
+	for i, t := range g.ties {
+		p("[[switch]]\nname = \"NOP-%d\"\nfrom = %q\nto = %q\nclosed = false\n\n", i+1, g.buses[t[0]].name, g.buses[t[1]].name)
 	}
 	for _, b := range g.loads {
 		p("[[load]]\nbus = %q\nmva = %s\n\n", g.buses[b].name, num(round(g.uniform(0.2, 1.5), 2)))
@@ -225,25 +274,46 @@ func (g *generator) write() {
 		g.relay(l, l.from)
 		g.relay(l, l.to)
 	}
+	if g.o.Practice {
+		for _, t := range g.trs {
+			g.transformerRelays(t)
+		}
+	}
 }
 
-// relay writes a relay with a phase and a ground stage at one end of l.
+// relay writes a relay with a phase and a ground stage at one end of l:
+// an inverse phase stage and a definite-time ground stage, or with
+// Options.Practice two inverse stages, forward-directional on 33 kV lines.
 func (g *generator) relay(l line, at int) {
 	ct, pickup, ground := 400.0, 300.0, 60.0
 	if l.kv > 20 {
 		ct, pickup, ground = 800, 600, 120
 	}
+	dir := ""
+	if g.o.Practice && (l.kv > 20 || at == l.to) {
+		dir = "  direction = \"forward\"\n"
+	}
+	// 0.1–2 × the CT's rating in steps of 0.025 × it; TMS 0.05–1 in steps
+	// of 0.01 (a numerical relay's usual ranges, invented).
+	ranges := fmt.Sprintf("  pickup_range_a = [%s, %s, %s]\n  multiplier_range = [0.05, 1, 0.01]\n", num(0.1*ct), num(2*ct), num(0.025*ct))
 	g.printf("[[relay]]\nname = %q\nbranch = %q\nat = %q\nct_primary_a = %s\nct_secondary_a = 1\nbreaker_s = 0.06\n",
 		g.name("R"), l.name, g.buses[at].name, num(ct))
-	g.printf("  [[relay.stage]]\n  measures = \"phase\"\n  curve = \"iec-si\"\n  pickup_a = %s\n  tms = %s\n",
-		num(pickup), num(round(g.uniform(0.05, 0.5), 2)))
+	g.printf("  [[relay.stage]]\n  measures = \"phase\"\n%s  curve = \"iec-si\"\n  pickup_a = %s\n  tms = %s\n",
+		dir, num(pickup), num(round(g.uniform(0.05, 0.5), 2)))
 	if g.o.Ranges {
-		// 0.1–2 × the CT's rating in steps of 0.025 × it; TMS 0.05–1 in
-		// steps of 0.01 (a numerical relay's usual ranges, invented).
-		g.printf("  pickup_range_a = [%s, %s, %s]\n  multiplier_range = [0.05, 1, 0.01]\n", num(0.1*ct), num(2*ct), num(0.025*ct))
+		g.printf("%s", ranges)
 	}
-	g.printf("  [[relay.stage]]\n  measures = \"ground\"\n  curve = \"definite\"\n  pickup_a = %s\n  delay_s = %s\n\n",
-		num(ground), num(round(g.uniform(0.2, 1.0), 2)))
+	if !g.o.Practice {
+		g.printf("  [[relay.stage]]\n  measures = \"ground\"\n  curve = \"definite\"\n  pickup_a = %s\n  delay_s = %s\n\n",
+			num(ground), num(round(g.uniform(0.2, 1.0), 2)))
+		return
+	}
+	g.printf("  [[relay.stage]]\n  measures = \"ground\"\n%s  curve = \"iec-si\"\n  pickup_a = %s\n  tms = %s\n",
+		dir, num(ground), num(round(g.uniform(0.05, 0.5), 2)))
+	if g.o.Ranges {
+		g.printf("%s", ranges)
+	}
+	g.printf("\n")
 }
 
 // fuse writes a 100 A fuse at the sending end of a spur, with invented

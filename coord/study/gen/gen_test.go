@@ -14,7 +14,7 @@ import (
 // buses asked for, is the same for the same seed, loads without a
 // problem, and its network builds.
 func TestGeneratedStudiesLoadAndSolve(t *testing.T) {
-	for _, o := range []gen.Options{{Buses: gen.MinBuses, Seed: 1}, {Buses: 500, Seed: 7}, {Buses: 500, Seed: 7, Fuses: true}, {Buses: 500, Seed: 7, Reach: 8}} {
+	for _, o := range []gen.Options{{Buses: gen.MinBuses, Seed: 1}, {Buses: 500, Seed: 7}, {Buses: 500, Seed: 7, Fuses: true}, {Buses: 500, Seed: 7, Reach: 8}, {Buses: gen.MinBuses, Seed: 2, Practice: true}, {Buses: 500, Seed: 7, Practice: true, Ranges: true}} {
 		var a, b bytes.Buffer
 		if err := gen.Write(&a, o); err != nil {
 			t.Fatal(err)
@@ -40,6 +40,9 @@ func TestGeneratedStudiesLoadAndSolve(t *testing.T) {
 	}
 	if err := gen.Write(&bytes.Buffer{}, gen.Options{Buses: gen.MinBuses - 1}); err == nil {
 		t.Errorf("a study below the minimum size was written")
+	}
+	if err := gen.Write(&bytes.Buffer{}, gen.Options{Buses: 100, Reach: 8, Practice: true}); err == nil {
+		t.Errorf("a study laid out as in practice was written with a reach")
 	}
 	for _, reach := range []int{-1, 1} {
 		if err := gen.Write(&bytes.Buffer{}, gen.Options{Buses: 100, Reach: reach}); err == nil {
