@@ -20,19 +20,24 @@ func (g *generator) transformerRelays(t xfmr) {
 	through := ratedHV / (t.zPct / 100)
 	tms := func() string { return num(round(g.uniform(0.05, 0.5), 2)) }
 	step := func(v, s float64) string { return num(math.Ceil(v/s) * s) }
-	g.printf("[[relay]]\nname = %q\nbranch = %q\nat = %q\nct_primary_a = 400\nct_secondary_a = 1\nbreaker_s = 0.08\nneutral_ct = %q\n",
-		t.name+"-HV", t.name, g.buses[t.from].name, t.name)
+	g.printf("[[relay]]\nname = %q\nbranch = %q\nat = %q\nct_primary_a = %s\nct_secondary_a = 1\nbreaker_s = 0.08\nneutral_ct = %q\n",
+		t.name+"-HV", t.name, g.buses[t.from].name, step(1.5*ratedHV, 100), t.name)
 	g.printf("  [[relay.stage]]\n  measures = \"phase\"\n  curve = \"iec-si\"\n  pickup_a = %s\n  tms = %s\n", step(1.5*ratedHV, 10), tms())
 	g.printf("  [[relay.stage]]\n  measures = \"phase\"\n  curve = \"instantaneous\"\n  pickup_a = %s\n", step(1.3*through, 100))
 	g.printf("  [[relay.stage]]\n  label = \"51NS\"\n  measures = \"ground\"\n  curve = \"iec-si\"\n  pickup_a = 60\n  tms = %s\n\n", tms())
-	ct := step(1.5*ratedLV, 200)
+	ctLV := math.Ceil(1.5*ratedLV/200) * 200
 	g.printf("[[relay]]\nname = %q\nbranch = %q\nat = %q\nct_primary_a = %s\nct_secondary_a = 1\nbreaker_s = 0.06\n",
-		t.name+"-LV", t.name, g.buses[t.to].name, ct)
+		t.name+"-LV", t.name, g.buses[t.to].name, num(ctLV))
 	g.printf("  [[relay.stage]]\n  measures = \"phase\"\n  curve = \"iec-si\"\n  pickup_a = %s\n  tms = %s\n", step(1.5*ratedLV, 10), tms())
-	g.printf("  [[relay.stage]]\n  measures = \"ground\"\n  curve = \"iec-si\"\n  pickup_a = 60\n  tms = %s\n", tms())
+	// The ground stages at a tenth of the CT's rating: within what its
+	// CT measures well (common practice: at least 5 %), and below the
+	// 11 kV earth-fault current through the 12.7 Ω neutral resistor
+	// and 10 Ω of fault resistance.
+	ground := step(0.1*ctLV, 10)
+	g.printf("  [[relay.stage]]\n  measures = \"ground\"\n  curve = \"iec-si\"\n  pickup_a = %s\n  tms = %s\n", ground, tms())
 	if t.parallel {
 		g.printf("  [[relay.stage]]\n  measures = \"phase\"\n  direction = \"forward\"\n  curve = \"definite\"\n  pickup_a = %s\n  delay_s = 0.25\n", step(0.5*ratedLV, 10))
-		g.printf("  [[relay.stage]]\n  measures = \"ground\"\n  direction = \"forward\"\n  curve = \"definite\"\n  pickup_a = 60\n  delay_s = 0.25\n")
+		g.printf("  [[relay.stage]]\n  measures = \"ground\"\n  direction = \"forward\"\n  curve = \"definite\"\n  pickup_a = %s\n  delay_s = 0.25\n", ground)
 	}
 	g.printf("\n")
 }
