@@ -29,11 +29,11 @@ func (g *generator) transformerRelays(t xfmr) {
 	g.printf("[[relay]]\nname = %q\nbranch = %q\nat = %q\nct_primary_a = %s\nct_secondary_a = 1\nbreaker_s = 0.06\n",
 		t.name+"-LV", t.name, g.buses[t.to].name, num(ctLV))
 	g.printf("  [[relay.stage]]\n  measures = \"phase\"\n  curve = \"iec-si\"\n  pickup_a = %s\n  tms = %s\n", step(1.5*ratedLV, 10), tms())
-	// The ground stages at a tenth of the CT's rating: within what its
-	// CT measures well (common practice: at least 5 %), and below the
-	// 11 kV earth-fault current through the 12.7 Ω neutral resistor
-	// and 10 Ω of fault resistance.
-	ground := step(0.1*ctLV, 10)
+	// The ground stages at 5 % of the CT's rating, the least its CT
+	// measures well (common practice), since parallel units share the
+	// 11 kV earth-fault current, which the 12.7 Ω neutral resistor and
+	// 10 Ω of fault resistance hold to about 280 A.
+	ground := step(0.05*ctLV, 10)
 	g.printf("  [[relay.stage]]\n  measures = \"ground\"\n  curve = \"iec-si\"\n  pickup_a = %s\n  tms = %s\n", ground, tms())
 	if t.parallel {
 		g.printf("  [[relay.stage]]\n  measures = \"phase\"\n  direction = \"forward\"\n  curve = \"definite\"\n  pickup_a = %s\n  delay_s = 0.25\n", step(0.5*ratedLV, 10))
