@@ -269,7 +269,7 @@ func (c *checker) damageOf(dev int, sub damageSubject) (Finding, error) {
 				dp, dr, dd := c.measure(dev, sol)
 				// The equipment current rides in the other's phase slot so
 				// that the sweep scales it with the device's currents.
-				pts = append(pts, sample{dp: dp, dr: dr, dd: dd, up: eqA, kind: k, cs: cs, place: PlaceName(c.s.Network, pl), scale: 1})
+				pts = append(pts, sample{dp: dp, dr: dr, dd: dd, up: eqA, kind: k, cs: cs, place: PlaceName(c.s.Network, pl), at: pl, scale: 1})
 			}
 		}
 	}
@@ -283,6 +283,7 @@ func (c *checker) damageOf(dev int, sub damageSubject) (Finding, error) {
 		s := all[i]
 		tc, stc := t.ClearingDir(s.dp, s.dr, s.dd, Nominal)
 		var tw float64
+		onCurve := false // tw is the withstand curve's time, not a cable's lower bound
 		if lim, cable := sub.withstand.(curves.I2tLimit); cable && s.up < lo {
 			// Beyond the adiabatic limit's 5 s validity the conductor
 			// loses heat while it carries the current, so I²t/I² is a
@@ -310,6 +311,7 @@ func (c *checker) damageOf(dev int, sub damageSubject) (Finding, error) {
 			if tw, ok = tl.withstandAt(sub.withstand, s.up); !ok {
 				continue
 			}
+			onCurve = true
 		}
 		switch stc {
 		case curves.NoTrip:
@@ -322,6 +324,9 @@ func (c *checker) damageOf(dev int, sub damageSubject) (Finding, error) {
 		case curves.Undefined:
 			tl.undefined.add(s.key())
 			continue
+		}
+		if c.hook != nil && onCurve {
+			c.emitDamage(dev, s, tc, tw, sub.name)
 		}
 		if m := tw - tc; worst == nil || m < worstMargin-tieTolerance {
 			worst, worstT, worstW, worstMargin = &all[i], tc, tw, m

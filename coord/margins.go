@@ -42,10 +42,12 @@ type Operating struct {
 // components Beta is 1 + (2·E_R + E_CT)/100; below an upstream fuse Alpha
 // is the fuse melt ratio and Gamma the downstream breaker time. A
 // clearing-time bound has Up −1, Alpha 0, Beta 1 and Gamma = breaker −
-// maximum clearing time (tDown + breaker ≤ maximum).
+// maximum clearing time (tDown + breaker ≤ maximum); a damage bound the
+// same with the equipment's withstand time at its current in place of the
+// maximum (tDown + breaker ≤ withstand).
 type MarginSample struct {
-	Check              CheckKind // Grading, Discrimination or Clearing
-	Up, Down           int       // device indices; Up −1 for a clearing bound
+	Check              CheckKind // Grading, Discrimination, Clearing or Damage
+	Up, Down           int       // device indices; Up −1 for a clearing or damage bound
 	Alpha, Beta, Gamma float64
 	// UpBand and DownBand are the tolerance bands the times are taken in.
 	UpBand, DownBand Band
@@ -65,9 +67,10 @@ type MarginSample struct {
 	Case         faults.Case
 	Place        faults.Place
 	Scale        float64 // 1 for a solved fault, the factor of a swept point
-	MarginS      float64 // the margin the checker found (for a clearing bound, the clearing time)
-	RequiredS    float64 // the margin it required (for a clearing bound, the maximum)
+	MarginS      float64 // the margin the checker found (for a clearing or damage bound, the clearing time)
+	RequiredS    float64 // the margin it required (for a clearing bound, the maximum; for a damage bound, the withstand time)
 	UpS0, DownS0 float64 // the two times the checker found
+	Equipment    string  // the equipment of a damage bound
 }
 
 // marginRule returns the linear form of the margin up must keep over
@@ -174,6 +177,20 @@ func (x *netIndex) emitClearing(crit Criteria, m int, sm *Seen, trip float64, pl
 		DownAt: x.timers[m].operatingSeen(sm), Beta: 1, Gamma: b - crit.MaxClearingS,
 		MarginS: trip + b, RequiredS: crit.MaxClearingS, DownS0: trip}
 	x.hook(&ms)
+}
+
+// emitDamage hands a through-fault of the damage check to the hook as a
+// bound: device dev, clearing in tc, clears it within the equipment's
+// withstand time tw at the equipment's current.
+func (c *checker) emitDamage(dev int, s sample, tc, tw float64, equipment string) {
+	b := 0.0
+	if d := &c.s.Devices[dev]; d.Kind == Relay {
+		b = d.BreakerS
+	}
+	ms := MarginSample{Check: Damage, Up: -1, Down: dev, Kind: s.kind, Case: s.cs, Place: s.at, Scale: s.scale,
+		DownAt: Operating{s.dp, s.dr, s.dd}, Beta: 1, Gamma: b - tw,
+		MarginS: tc, RequiredS: tw, DownS0: tc - b, Equipment: equipment}
+	c.hook(&ms)
 }
 
 // emitOpening hands the opening of must-clear device m in a fault's

@@ -2,6 +2,7 @@ package coord_test
 
 import (
 	"math"
+	"strings"
 	"sync"
 	"testing"
 
@@ -38,14 +39,17 @@ func TestMarginRuleMatchesChecks(t *testing.T) {
 			mu.Lock()
 			defer mu.Unlock()
 			seen[ms.Check]++
-			if ms.Check == coord.Clearing {
-				// tDown + breaker ≤ maximum: −tDown ≥ breaker − maximum.
+			if ms.Up < 0 {
+				// A clearing or damage bound: tDown + breaker ≤ the maximum
+				// clearing time or the withstand time, −tDown ≥ breaker −
+				// that time.
 				if d := -ms.Beta*ms.DownS0 - ms.Gamma - (ms.RequiredS - ms.MarginS); math.Abs(d) > 1e-9 && len(bad) < 5 {
-					bad = append(bad, "clearing rule")
+					bad = append(bad, ms.Check.String()+" rule")
 				}
-				return
-			}
-			if d := ms.Alpha*ms.UpS0 - ms.Beta*ms.DownS0 - ms.Gamma - (ms.MarginS - ms.RequiredS); math.Abs(d) > 1e-9 {
+				if ms.Check == coord.Damage && ms.Equipment == "" && len(bad) < 5 {
+					bad = append(bad, "damage bound without its equipment")
+				}
+			} else if d := ms.Alpha*ms.UpS0 - ms.Beta*ms.DownS0 - ms.Gamma - (ms.MarginS - ms.RequiredS); math.Abs(d) > 1e-9 {
 				if len(bad) < 5 {
 					bad = append(bad, ms.Check.String()+" rule: "+s.Devices[ms.Up].Name+" over "+s.Devices[ms.Down].Name)
 				}
@@ -53,12 +57,16 @@ func TestMarginRuleMatchesChecks(t *testing.T) {
 			if ms.Sequence || ms.UpBand != coord.Nominal {
 				return
 			}
-			for _, side := range []struct {
+			type side struct {
 				dev int
 				at  coord.Operating
 				t   float64
-				up  bool
-			}{{ms.Up, ms.UpAt, ms.UpS0, true}, {ms.Down, ms.DownAt, ms.DownS0, false}} {
+			}
+			sides := []side{{ms.Down, ms.DownAt, ms.DownS0}}
+			if ms.Up >= 0 {
+				sides = append(sides, side{ms.Up, ms.UpAt, ms.UpS0})
+			}
+			for _, side := range sides {
 				d := &s.Devices[side.dev]
 				if d.Kind != coord.Relay {
 					continue
@@ -80,7 +88,11 @@ func TestMarginRuleMatchesChecks(t *testing.T) {
 		for _, b := range bad {
 			t.Errorf("%s: %s disagrees with the checker", path, b)
 		}
-		for _, k := range []coord.CheckKind{coord.Grading, coord.Discrimination, coord.Clearing} {
+		kinds := []coord.CheckKind{coord.Grading, coord.Discrimination, coord.Clearing}
+		if strings.Contains(path, "kestrel") {
+			kinds = append(kinds, coord.Damage) // its transformers declare withstand
+		}
+		for _, k := range kinds {
 			if seen[k] == 0 {
 				t.Errorf("%s: no %s margin handed out", path, k)
 			}

@@ -25,6 +25,9 @@ type Source struct {
 	RequiredS, MarginS float64
 	// CurrentA is the inrush current of an inrush bound (Check Inrush).
 	CurrentA float64
+	// Equipment names the equipment of a damage bound; Element the bus or
+	// branch faulted, for a clearing bound.
+	Equipment, Element string
 	// Scenario names the operating scenario the margin was judged in (""
 	// for the study as drawn); Where then names the fault's place, which
 	// Place cannot (it indexes the scenario's own network), and Up and
@@ -145,11 +148,20 @@ func (c *collector) marginFrom(ms *coord.MarginSample, o *origin) {
 }
 
 // source describes the margin a kept constraint comes from.
-func source(ms *coord.MarginSample, upStage int, o *origin) *Source {
+func (c *collector) source(ms *coord.MarginSample, upStage int, o *origin) *Source {
 	src := &Source{Check: ms.Check, Up: ms.Up, Down: ms.Down, UpStage: upStage, Kind: ms.Kind, Case: ms.Case, Place: ms.Place,
-		Scale: ms.Scale, Sequence: ms.Sequence, RequiredS: ms.RequiredS, MarginS: ms.MarginS}
+		Scale: ms.Scale, Sequence: ms.Sequence, RequiredS: ms.RequiredS, MarginS: ms.MarginS, Equipment: ms.Equipment}
+	net := c.lin.s.Network
 	if o != nil {
-		src.Scenario, src.Where = o.scenario, coord.PlaceName(o.net, ms.Place)
+		net = o.net
+		src.Scenario, src.Where = o.scenario, coord.PlaceName(net, ms.Place)
+	}
+	if ms.Check == coord.Clearing {
+		if ms.Place.IsBus() {
+			src.Element = net.Buses[ms.Place.Bus].Name
+		} else {
+			src.Element = net.BranchName(ms.Place.Branch)
+		}
 	}
 	return src
 }
@@ -163,10 +175,10 @@ func (c *collector) add(k constraint, ms *coord.MarginSample, o *origin) {
 	hasU, hasD := k.u >= 0 && k.a > 0, k.d >= 0 && k.b > 0
 	switch {
 	case hasU && hasD:
-		c.addLine(k.u, k.d, line{k: k.b / k.a, b: k.c / k.a}, func() *Source { return source(ms, k.upStage, o) })
+		c.addLine(k.u, k.d, line{k: k.b / k.a, b: k.c / k.a}, func() *Source { return c.source(ms, k.upStage, o) })
 	case hasU:
-		if v := k.c / k.a; v > c.lower[k.u].v || v == c.lower[k.u].v && sourceLess(source(ms, k.upStage, o), c.lower[k.u].src) {
-			c.lower[k.u] = bound{v, source(ms, k.upStage, o)}
+		if v := k.c / k.a; v > c.lower[k.u].v || v == c.lower[k.u].v && sourceLess(c.source(ms, k.upStage, o), c.lower[k.u].src) {
+			c.lower[k.u] = bound{v, c.source(ms, k.upStage, o)}
 		}
 	case hasD:
 		// Bounds below the range cannot be met: the lowest of them is kept
@@ -175,16 +187,16 @@ func (c *collector) add(k constraint, ms *coord.MarginSample, o *origin) {
 		// Every source's lowest bound is kept: which of them the range
 		// (and the lower bounds) can meet is known only when all are in.
 		v, key := -k.c/k.b, upperKey{ms.Check, ms.Up, k.upStage}
-		if old, ok := c.upper[k.d][key]; !ok || v < old.v || v == old.v && sourceLess(source(ms, k.upStage, o), old.src) {
+		if old, ok := c.upper[k.d][key]; !ok || v < old.v || v == old.v && sourceLess(c.source(ms, k.upStage, o), old.src) {
 			if c.upper[k.d] == nil {
 				c.upper[k.d] = map[upperKey]bound{}
 			}
-			c.upper[k.d][key] = bound{v, source(ms, k.upStage, o)}
+			c.upper[k.d][key] = bound{v, c.source(ms, k.upStage, o)}
 		}
 	case k.c > feasTol:
 		key := fixedKey{ms.Check, ms.Up, ms.Down}
-		if m, ok := c.fixed[key]; !ok || k.c > m.shortS || k.c == m.shortS && sourceLess(source(ms, k.upStage, o), m.src) {
-			c.fixed[key] = fixedMiss{k.c, source(ms, k.upStage, o)}
+		if m, ok := c.fixed[key]; !ok || k.c > m.shortS || k.c == m.shortS && sourceLess(c.source(ms, k.upStage, o), m.src) {
+			c.fixed[key] = fixedMiss{k.c, c.source(ms, k.upStage, o)}
 		}
 	}
 }

@@ -258,22 +258,25 @@ func (p *problem) continuous() ([]float64, error) {
 
 // rounded returns the least multipliers on their steps at or above x.
 func (p *problem) rounded(x []float64) ([]float64, error) {
-	for i := range p.hi {
-		p.hi[i] = math.Min(p.hi[i], topStep(p.vars[i].Range))
-	}
 	r := make([]float64, len(x))
 	for i := range x {
-		r[i] = onStep(x[i], p.vars[i].Range)
-		if r[i] > p.hi[i]+feasTol*math.Max(1, p.hi[i]) {
+		rg := p.vars[i].Range
+		hi := math.Min(p.hi[i], topStep(rg))
+		r[i] = onStep(x[i], rg)
+		if r[i] > hi+feasTol*math.Max(1, hi) {
 			// Between the last step and the top of the range, or above an
 			// upper bound that lies between two steps.
 			chain := []*Source{p.hiSrc[i]}
 			if p.hiSrc[i] == nil {
 				chain = nil
 			}
-			p.conflicts = append(p.conflicts, Conflict{Var: i, NeedX: r[i], LimitX: p.hi[i], Chain: chain, Rounding: true})
-			r[i] = math.Max(p.lo[i], floorStep(p.hi[i], p.vars[i].Range))
+			p.conflicts = append(p.conflicts, Conflict{Var: i, NeedX: r[i], LimitX: hi, Chain: chain, Rounding: true})
+			r[i] = floorStep(hi, rg)
 		}
+		// A multiplier the rounds push to its top stops at the highest
+		// step within the range and its upper bound: a relay is set on
+		// its steps, and the bound (a clearing time) is kept.
+		p.hi[i] = floorStep(hi, rg)
 	}
 	round := func(i int, v float64) float64 { return onStep(v, p.vars[i].Range) }
 	_, err := p.least(r, round)
@@ -334,6 +337,8 @@ func sourceLess(a, b *Source) bool {
 		return a.RequiredS < b.RequiredS
 	case a.MarginS != b.MarginS:
 		return a.MarginS < b.MarginS
+	case a.Equipment != b.Equipment:
+		return a.Equipment < b.Equipment
 	}
 	return a.CurrentA < b.CurrentA
 }

@@ -56,6 +56,13 @@ func floorStep5(x, lo, step float64) float64 { return lo + math.Floor((x-lo)/ste
 
 func proposeFile(t *testing.T, path string, edit func(string) string) (*coord.Study, *Proposal) {
 	t.Helper()
+	return proposeFileWith(t, path, edit, Settings{Pickups: true})
+}
+
+// proposeFileWith proposes settings for the study file at path, edited,
+// with the search's settings o.
+func proposeFileWith(t *testing.T, path string, edit func(string) string, o Settings) (*coord.Study, *Proposal) {
+	t.Helper()
 	src, err := os.ReadFile(path)
 	if err != nil {
 		t.Fatal(err)
@@ -72,7 +79,7 @@ func proposeFile(t *testing.T, path string, edit func(string) string) (*coord.St
 	if err != nil {
 		t.Fatal(err)
 	}
-	pr, err := Propose(s, eng, topo, Settings{Pickups: true})
+	pr, err := Propose(s, eng, topo, o)
 	if err != nil {
 		t.Fatal(err)
 	}

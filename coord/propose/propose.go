@@ -296,42 +296,72 @@ func sameFailure(fs []coord.Finding, f coord.Finding) bool {
 }
 
 // explains reports whether a conflict accounts for a failing finding:
-// one of its margins is between the finding's two devices (for a
-// clearing finding, names its device).
+// one of its margins is between the finding's two devices, or the device
+// that must wait has its multiplier held below what margins ask of it (an
+// inrush finding: its own device); for a clearing or damage finding, a
+// conflict bounds its device's times or the times at that element's
+// faults, or holds its multiplier at the top.
 func (pr *Proposal) explains(f coord.Finding, in conflictIndex) bool {
 	switch f.Check {
-	case coord.Grading, coord.Discrimination:
-		return in.pairs[[2]string{f.Device, f.Other}] || in.pairs[[2]string{f.Other, f.Device}]
+	case coord.Grading:
+		// The finding names the downstream device, then the upstream one.
+		return in.pairs[[2]string{f.Device, f.Other}] || in.pairs[[2]string{f.Other, f.Device}] || in.held[f.Other]
+	case coord.Discrimination:
+		// The finding names the device that operates, then the one that
+		// must clear.
+		return in.pairs[[2]string{f.Device, f.Other}] || in.pairs[[2]string{f.Other, f.Device}] || in.held[f.Device]
 	case coord.Clearing:
+		if in.elements[f.Device] {
+			return true
+		}
 		for _, n := range strings.Split(f.Other, ", ") {
 			if in.clearing[n] {
 				return true
 			}
 		}
+	case coord.Damage:
+		return in.clearing[f.Device]
+	case coord.Inrush:
+		// Held below what its margins ask, the inrush bound among them.
+		return in.held[f.Device]
 	}
 	return false
 }
 
 // conflictIndex holds the device pairs (by name) of every margin in a
-// conflict, and the devices of conflicting clearing times.
+// conflict, the devices of conflicting clearing times and the elements
+// whose faults they are (a device that opens later in a fault's sequence
+// is not among the devices its finding names), and the devices whose
+// multipliers margins push past the top of their ranges.
 type conflictIndex struct {
-	pairs    map[[2]string]bool
-	clearing map[string]bool
+	pairs                    map[[2]string]bool
+	clearing, elements, held map[string]bool
 }
 
 func (pr *Proposal) conflictIndex() conflictIndex {
-	in := conflictIndex{pairs: map[[2]string]bool{}, clearing: map[string]bool{}}
+	in := conflictIndex{pairs: map[[2]string]bool{}, clearing: map[string]bool{}, elements: map[string]bool{}, held: map[string]bool{}}
 	for _, c := range pr.Conflicts {
-		if c.Var >= 0 && !c.Below && !c.Rounding {
-			// A multiplier held at the top of its range by a margin it
-			// cannot meet: the clearing times of its device follow.
-			in.clearing[pr.Study.Devices[pr.Vars[c.Var].Device].Name] = true
+		if c.Var >= 0 && !c.Below {
+			// A multiplier held below what margins ask of it, at the top
+			// of its range or bound or on the step below a bound: those
+			// margins (the first named, the others counted) follow, and
+			// at the top of its range, the clearing times of its device.
+			name := pr.Study.Devices[pr.Vars[c.Var].Device].Name
+			in.held[name] = true
+			if !c.Rounding {
+				in.clearing[name] = true
+			}
 		}
 		for _, src := range c.Chain {
 			switch {
 			case src == nil, isInrush(src):
 			case src.Up < 0:
 				in.clearing[pr.Study.Devices[src.Down].Name] = true
+				if src.Element != "" && !c.Rounding {
+					// A bound no setting meets: the fault of that element
+					// is cleared late (a rounding conflict keeps the bound).
+					in.elements[src.Element] = true
+				}
 			default:
 				in.pairs[[2]string{pr.Study.Devices[src.Up].Name, pr.Study.Devices[src.Down].Name}] = true
 			}
@@ -365,6 +395,9 @@ func Describe(s *coord.Study, src *Source) string {
 		fault += " (in its opening sequence)"
 	}
 	down := s.Devices[src.Down].Name
+	if src.Check == coord.Damage {
+		return fmt.Sprintf("damage: %s clears within %s's withstand time, %.3g s, %s", down, src.Equipment, src.RequiredS, fault)
+	}
 	if src.Up < 0 {
 		return fmt.Sprintf("clearing by %s within %.3g s, %s", down, src.RequiredS, fault)
 	}
