@@ -2,6 +2,7 @@ package coord
 
 import (
 	"fmt"
+	"math/cmplx"
 
 	"tripgrade/faults"
 )
@@ -76,15 +77,35 @@ func (s *placeSet) add(p faults.Place) {
 }
 
 // FaultLevels summarises the currents every device sees over the faults of
-// its own zone ahead of it (see Ahead), both cases, every fault kind.
+// its own zone ahead of it (see Ahead), both cases, every fault kind. The
+// ground extremes of a relay on a neutral CT are of the neutral current its
+// ground stages measure, not of the residual current at its own point.
 func FaultLevels(s *Study, eng *faults.Engine, t *Topology) ([]faults.PointSummary, error) {
 	pts := make([]faults.Point, len(s.Devices))
 	for i, d := range s.Devices {
 		pts[i] = d.Point
 	}
-	return eng.AllPoints(pts, func(i int) []faults.Place {
+	places := func(i int) []faults.Place {
 		return t.Ahead(s.Network, s.Devices[i], t.Places(t.Zones[i], s.Network, s.Faults))
-	})
+	}
+	out, err := eng.AllPoints(pts, places)
+	if err != nil {
+		return nil, err
+	}
+	for i, d := range s.Devices {
+		if d.NeutralCT == nil {
+			continue
+		}
+		npt := *d.NeutralCT
+		sum, err := eng.SummarisePointWith(pts[i], places(i), func(sol faults.Solution, _ faults.Currents) float64 {
+			return cmplx.Abs(neutralCurrent(sol, sol.At(npt), npt))
+		})
+		if err != nil {
+			return nil, err
+		}
+		out[i].ResidualMax, out[i].ResidualMin = sum.ResidualMax, sum.ResidualMin
+	}
+	return out, nil
 }
 
 // Ahead keeps the fault places that lie ahead of device d, away from the

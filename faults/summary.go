@@ -89,6 +89,21 @@ func (e *Engine) Reach(pt Point) []Place {
 // SummarisePoint solves every fault kind at every place in both cases and
 // keeps the extremes seen at pt.
 func (e *Engine) SummarisePoint(pt Point, places []Place) (PointSummary, error) {
+	return e.SummarisePointWith(pt, places, nil)
+}
+
+// GroundFunc gives the current a ground element measures for a solved
+// earth fault, the currents at its point given: the residual current 3I0
+// there unless its element measures something else (a transformer's
+// neutral current).
+type GroundFunc func(sol Solution, at Currents) float64
+
+// SummarisePointWith is SummarisePoint with the residual extremes taken of
+// ground (nil: the residual current at pt).
+func (e *Engine) SummarisePointWith(pt Point, places []Place, ground GroundFunc) (PointSummary, error) {
+	if ground == nil {
+		ground = func(_ Solution, at Currents) float64 { return at.ResidualA() }
+	}
 	s := PointSummary{Point: pt}
 	// Solution responses are exactly zero where a point carries no current
 	// of a sequence (rounding residue is cut off there: negligibleShare).
@@ -114,10 +129,10 @@ func (e *Engine) SummarisePoint(pt Point, places []Place) (PointSummary, error) 
 				case cs == Max:
 					s.PhaseMax.offer(c.PhaseMaxA(), f, c, v, true)
 					if k.Earth() {
-						s.ResidualMax.offer(c.ResidualA(), f, c, v, true)
+						s.ResidualMax.offer(ground(sol, c), f, c, v, true)
 					}
 				case k.Earth():
-					if r := c.ResidualA(); r > floor {
+					if r := ground(sol, c); r > floor {
 						s.ResidualMin.offer(r, f, c, v, false)
 					}
 				default:

@@ -216,7 +216,7 @@ func (t *FaultTables) WriteText(w io.Writer) error {
 	for _, c := range t.Cases {
 		fmt.Fprintf(ew, "  %s\n", c)
 	}
-	fmt.Fprintf(ew, "\nCurrents each device sees for faults in its own zone (primary A; ground = residual 3I0)\n")
+	fmt.Fprintf(ew, "\nCurrents each device sees for faults in its own zone (primary A; ground = residual 3I0, or the neutral current of a relay on a neutral CT)\n")
 	tw := tabwriter.NewWriter(ew, 0, 0, 2, ' ', 0)
 	fmt.Fprintln(tw, "device\tbranch\tat\tkV\tphase max\tfault\tphase min\tfault\tground max\tfault\tground min\tfault")
 	for _, p := range t.Points {

@@ -16,7 +16,7 @@ func (t *FaultTables) WriteMarkdown(w io.Writer) error {
 	for _, c := range t.Cases {
 		fmt.Fprintf(ew, "- %s\n", md(c))
 	}
-	fmt.Fprintf(ew, "\n## Currents each device sees for faults in its own zone\n\nPrimary amperes; ground = residual current 3I0.\n\n")
+	fmt.Fprintf(ew, "\n## Currents each device sees for faults in its own zone\n\nPrimary amperes; ground = residual current 3I0, or the neutral current of a relay on a neutral CT.\n\n")
 	fmt.Fprintln(ew, "| device | branch | at | kV | phase max | fault | phase min | fault | ground max | fault | ground min | fault |")
 	fmt.Fprintln(ew, "| --- | --- | --- | ---: | ---: | --- | ---: | --- | ---: | --- | ---: | --- |")
 	for _, p := range t.Points {

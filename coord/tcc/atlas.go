@@ -134,9 +134,22 @@ func (a *Atlas) bus(i int) int {
 	return coord.DeviceBus(a.in.Study.Network, a.in.Study.Devices[i])
 }
 
-// kvOf returns the nominal voltage of the bus where device i sits.
-func (a *Atlas) kvOf(i int) float64 {
-	return a.in.Study.Network.Buses[a.bus(i)].KV
+// busFor returns the bus whose voltage device i's currents of quantity q
+// are at: its own bus, but for the ground stages of a relay on a
+// transformer's neutral CT the star-side bus of that transformer, whose
+// earth faults drive the neutral current they measure.
+func (a *Atlas) busFor(i int, q coord.Quantity) int {
+	d := &a.in.Study.Devices[i]
+	if q == coord.Residual && d.NeutralCT != nil {
+		return coord.DeviceBus(a.in.Study.Network, coord.Device{Point: *d.NeutralCT})
+	}
+	return a.bus(i)
+}
+
+// kvOf returns the nominal voltage of device i's currents of quantity q
+// (busFor).
+func (a *Atlas) kvOf(i int, q coord.Quantity) float64 {
+	return a.in.Study.Network.Buses[a.busFor(i, q)].KV
 }
 
 // hasPhase reports whether device i answers to phase current: a fuse, or

@@ -141,9 +141,9 @@ func (c *Chart) Failing() int {
 	return n
 }
 
-// factor returns the ratio that refers device i's currents to the chart's
-// bus, by the transformers' rated winding ratios.
-func (c *Chart) factor(i int) float64 { return c.atlas.refer(i, c.refBus) }
+// factor returns the ratio that refers device i's currents of quantity q
+// to the chart's bus, by the transformers' rated winding ratios.
+func (c *Chart) factor(i int, q coord.Quantity) float64 { return c.atlas.refer(i, q, c.refBus) }
 
 // axisLabel names the current axis: the voltage, and how currents of other
 // voltages were brought to it.
@@ -164,10 +164,10 @@ func fmtKV(kv float64) string { return strconv.FormatFloat(kv, 'g', 4, 64) }
 func (c *Chart) build() {
 	c.once.Do(func() {
 		a := c.atlas
-		c.refBus = a.bus(c.Devices[0])
+		c.refBus = a.busFor(c.Devices[0], c.Kind)
 		c.refKV = a.in.Topology.RatioKV(c.refBus)
 		for _, i := range c.spec.members(a) {
-			if a.bus(i) != c.refBus && a.in.Topology.RatioKV(a.bus(i)) != c.refKV {
+			if b := a.busFor(i, c.Kind); b != c.refBus && a.in.Topology.RatioKV(b) != c.refKV {
 				c.referred = true
 			}
 		}

@@ -117,7 +117,7 @@ func (c *Chart) faultLevels() []level {
 			continue
 		}
 		for _, x := range c.atlas.levelsOf(i, c.Kind) {
-			l := level{device: i, max: x.max, deviceA: x.a, a: x.a * c.factor(i)}
+			l := level{device: i, max: x.max, deviceA: x.a, a: x.a * c.factor(i, c.Kind)}
 			if !c.within(l.a) {
 				c.offAxis = append(c.offAxis, fmt.Sprintf("%s %s %s (%s on this axis)", s.Devices[i].Name, c.levelWord(x.max), fmtA(x.a), fmtA(l.a)))
 				continue
@@ -170,7 +170,7 @@ func (c *Chart) loadLines() []vline {
 		if !(la > 0) {
 			continue
 		}
-		a := la * c.factor(i)
+		a := la * c.factor(i, coord.Phase)
 		var g *group
 		for _, h := range gs {
 			if math.Abs(h.a/a-1) < 0.005 {
@@ -253,7 +253,7 @@ func (c *Chart) inrushMarks() []inrushMark {
 		if len(names) > 2 {
 			what = fmt.Sprintf("%d transformers", len(names))
 		}
-		a := ia * c.factor(i)
+		a := ia * c.factor(i, coord.Phase)
 		text := fmt.Sprintf("inrush %s %s", what, fmtA(a))
 		if !c.within(a) {
 			c.offAxis = append(c.offAxis, text)
@@ -344,7 +344,7 @@ func (c *Chart) marginMarks() []margin {
 		m := margin{pair: p, f: gradingFinding(in.Result, in.Study, p)}
 		if m.f != nil && m.f.Valid && m.f.Fault != nil {
 			r := m.f.Fault
-			m.dA, m.uA = r.DeviceA*c.factor(p.Downstream), r.OtherA*c.factor(p.Upstream)
+			m.dA, m.uA = r.DeviceA*c.factor(p.Downstream, r.DeviceQty), r.OtherA*c.factor(p.Upstream, r.OtherQty)
 			m.dS, m.uS = r.DeviceS, r.OtherS
 			m.drawable = m.dA > 0 && m.uA > 0 && m.dS >= 0 && m.uS >= 0 &&
 				!math.IsNaN(m.dS) && !math.IsNaN(m.uS) && !math.IsInf(m.dS, 0) && !math.IsInf(m.uS, 0) &&

@@ -150,7 +150,7 @@ func (c *Chart) panelRows(scale, width vg.Length, lay *layout) []row {
 		if d.Kind == coord.Fuse {
 			kind = fmt.Sprintf("fuse %g A", d.RatingA)
 		}
-		add(fmt.Sprintf("%s  %s at %g kV", d.Name, kind, c.atlas.kvOf(i)), name, swatchW, 3*scale, c.deviceSwatch(i))
+		add(fmt.Sprintf("%s  %s at %g kV", d.Name, kind, c.atlas.kvOf(i, coord.Phase)), name, swatchW, 3*scale, c.deviceSwatch(i))
 		for _, line := range settingsLines(d, c.Kind, c.atlas.facing(i)) {
 			add(line, plain, swatchW, 0, nil)
 		}
@@ -327,7 +327,11 @@ func (c *Chart) ownLevels(i int) string {
 	if len(parts) == 0 {
 		parts = []string{"none"}
 	}
-	return fmt.Sprintf("faults seen (A at %g kV): %s", c.atlas.kvOf(i), strings.Join(parts, ", "))
+	seen := "faults seen"
+	if c.Kind == coord.Residual && c.atlas.in.Study.Devices[i].NeutralCT != nil {
+		seen = "its neutral CT sees"
+	}
+	return fmt.Sprintf("%s (A at %g kV): %s", seen, c.atlas.kvOf(i, c.Kind), strings.Join(parts, ", "))
 }
 
 // qtyA formats a device's current at a fault, marking a residual one.

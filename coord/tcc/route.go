@@ -124,12 +124,36 @@ func starDelta(n *faults.Network, b int) bool {
 // zero-sequence current.
 func (a *Atlas) zeroBlocked(u, d int) bool {
 	n := a.in.Study.Network
-	for _, b := range a.transformersBetween(u, d) {
-		if !passesZero(n, b) {
+	for _, b := range a.earthRoute(u, d) {
+		if n.IsTransformer(b) && !passesZero(n, b) {
 			return true
 		}
 	}
 	return false
+}
+
+// earthRoute returns the branches between the residual currents of
+// upstream device u and downstream device d: route(u, d), but from or to
+// the star-side bus of the transformer whose neutral current a relay on a
+// neutral CT measures (busFor).
+func (a *Atlas) earthRoute(u, d int) []int {
+	s := a.in.Study
+	if s.Devices[u].NeutralCT == nil && s.Devices[d].NeutralCT == nil {
+		return a.route(u, d)
+	}
+	var first []int
+	start := a.busFor(u, coord.Residual)
+	if du := s.Devices[u]; du.NeutralCT == nil && a.in.Topology.IntoBranch(du.Point) {
+		b := du.Point.Branch
+		first, start = []int{b}, endBus(s.Network, b, a.in.Topology.Downstream[b])
+	}
+	target := a.busFor(d, coord.Residual)
+	for _, downOnly := range []bool{true, false} {
+		if r, ok := a.walk(start, target, downOnly); ok {
+			return append(first, r...)
+		}
+	}
+	return nil
 }
 
 // starDeltaBetween returns the first star–delta transformer between u and

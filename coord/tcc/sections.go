@@ -289,7 +289,7 @@ func (a *Atlas) axisSpan(kind coord.Quantity, devs []int, overlapTop bool, ref i
 		}
 	}
 	for k, i := range devs {
-		f := a.refer(i, ref)
+		f := a.refer(i, kind, ref)
 		see(a.in.Study.Devices[i].Pickup(kind) * f)
 		if overlapTop && k == len(devs)-1 && k > 0 {
 			continue
@@ -312,8 +312,8 @@ func (a *Atlas) axisSpan(kind coord.Quantity, devs []int, overlapTop bool, ref i
 	return lo, hi
 }
 
-// refer returns the factor that refers device i's currents to bus ref by
-// the transformers' rated winding ratios.
-func (a *Atlas) refer(i, ref int) float64 {
-	return a.in.Topology.ReferA(1, a.bus(i), ref)
+// refer returns the factor that refers device i's currents of quantity q
+// to bus ref by the transformers' rated winding ratios.
+func (a *Atlas) refer(i int, q coord.Quantity, ref int) float64 {
+	return a.in.Topology.ReferA(1, a.busFor(i, q), ref)
 }

@@ -51,7 +51,7 @@ func (c *Chart) seenCurves() []seenCurve {
 			continue
 		}
 		lo, hi := c.seenRange(m)
-		runs := c.sample(ch, c.factor(u)/k, breaks, floored, lo, hi)
+		runs := c.sample(ch, c.factor(u, m.f.Fault.OtherQty)/k, breaks, floored, lo, hi)
 		if len(runs) == 0 {
 			continue
 		}
@@ -112,7 +112,7 @@ func (c *Chart) seenRange(m margin) (lo, hi float64) {
 	d := m.pair.Downstream
 	lo, hi = m.dA/2, m.dA*2
 	for _, x := range c.atlas.levelsOf(d, m.f.Fault.DeviceQty) {
-		a := x.a * c.factor(d)
+		a := x.a * c.factor(d, m.f.Fault.DeviceQty)
 		lo, hi = math.Min(lo, a/1.5), math.Max(hi, a*1.5)
 	}
 	lo, hi = math.Max(lo, m.dA/3), math.Min(hi, m.dA*3)

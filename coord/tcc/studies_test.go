@@ -561,3 +561,53 @@ func TestGlyphsOfEveryLabel(t *testing.T) {
 		}
 	}
 }
+
+// TestNeutralCTOnItsWindingsEarthChart: a standby earth-fault stage on a
+// transformer's neutral CT (Kestrel Park's T1-HV, 51NS) measures the
+// neutral current of the 11 kV winding, so it is drawn on the 11 kV
+// earth-fault charts with the relays it backs up, unreferred, and its
+// fault levels are neutral currents: for an earth fault on the 11 kV
+// busbar the two identical units in parallel each carry half of the fault
+// current a feeder sees close in (the current divider), and its curve
+// there gives the IEC 60255-151 standard inverse time, 0.6 × 0.14 /
+// ((I/60)^0.02 − 1).
+func TestNeutralCTOnItsWindingsEarthChart(t *testing.T) {
+	a := studyAtlas(t, kestrelPark)
+	hv, lv, f1 := a.Device("T1-HV"), a.Device("T1-LV"), a.Device("F1")
+	charts := 0
+	for _, c := range a.Charts() {
+		if c.Kind != coord.Residual || !slices.Contains(c.Devices, hv) {
+			continue
+		}
+		charts++
+		if got := c.axisLabel(); got != "current (A at 11 kV)" {
+			t.Errorf("%s: axis %q, want the 11 kV winding's unreferred", c.Name, got)
+		}
+		if !slices.Contains(c.Devices, lv) {
+			t.Errorf("%s: T1-HV's standby earth fault drawn without the LV incomer it backs up: %s", c.Name, a.deviceNames(c.Devices))
+		}
+	}
+	if charts == 0 {
+		t.Fatal("T1-HV's neutral-CT stage is on no earth-fault chart")
+	}
+	c := chartNamed(t, a, "path-ML-R--F1--T1-LV--T1-HV-earth")
+	c.build()
+	maxOf := func(dev int) float64 {
+		for _, l := range c.levels {
+			if l.device == dev && l.max {
+				return l.a
+			}
+		}
+		t.Fatalf("%s: no maximum level of %s", c.Name, a.in.Study.Devices[dev].Name)
+		return 0
+	}
+	neutral, bus := maxOf(hv), maxOf(f1)
+	if math.Abs(neutral/(bus/2)-1) > 1e-9 {
+		t.Errorf("T1-HV's largest neutral current %.6g A, want half of F1's close-in earth fault, %.6g A", neutral, bus/2)
+	}
+	want := 0.6 * 0.14 / (math.Pow(neutral/60, 0.02) - 1)
+	// The trace is sampled and interpolated between its samples.
+	if got, _ := traceOf(t, c, hv, GroundCurve).TimeAt(neutral); math.Abs(got/want-1) > 1e-3 {
+		t.Errorf("T1-HV's 51NS at %.1f A on the axis: %.6g s, want %.6g s", neutral, got, want)
+	}
+}

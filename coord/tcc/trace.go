@@ -107,7 +107,7 @@ func (a *Atlas) facing(i int) coord.Direction {
 // declared tolerance or between a fuse's two curves.
 func (c *Chart) deviceTraces(i int) ([]Trace, []band) {
 	d := &c.atlas.in.Study.Devices[i]
-	f := c.factor(i)
+	f := c.factor(i, c.Kind)
 	var pickups []float64
 	for _, s := range d.Stages {
 		if s.Measures == c.Kind {
