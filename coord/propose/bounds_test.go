@@ -65,6 +65,9 @@ func TestDamageBoundsTheMultiplier(t *testing.T) {
 	if got := Describe(s, bound.Chain[0]); !strings.HasPrefix(got, "damage: R1 clears within AB's withstand time") {
 		t.Errorf("the bound reads %q", got)
 	}
+	if got := BindingText(s, pr.Binding[r1]); !strings.HasPrefix(got, "damage: R1 clears within AB's withstand time") || !strings.Contains(got, "an upper bound below what its margins ask") {
+		t.Errorf("R1's multiplier reads as bound by %q", got)
+	}
 	if !pr.Verified() {
 		t.Errorf("not verified: %d unresolved findings", len(pr.Unresolved))
 	}

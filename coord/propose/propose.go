@@ -58,6 +58,11 @@ type Proposal struct {
 type Binding struct {
 	Src   *Source // nil: the bottom of the range (or a fixed lower bound's Source in LowSrc)
 	NeedX float64 // the multiplier it asks for, before rounding
+	// Held is true when a conflict holds the multiplier below what its
+	// margins ask: at the top of its range (Limit nil) or at the upper
+	// bound Limit (a clearing or withstand time, a fixed stage's margin).
+	Held  bool
+	Limit *Source
 }
 
 // Verified reports whether the checker passes every margin the proposal
@@ -214,14 +219,37 @@ func (p *problem) size() int {
 // binding records what holds each proposed multiplier.
 func (pr *Proposal) binding(p *problem) {
 	edges, need := p.binding(pr.X)
+	held := map[int]bool{}
+	for _, c := range pr.Conflicts {
+		if c.Var >= 0 && !c.Below {
+			held[c.Var] = true
+		}
+	}
 	pr.Binding = make([]Binding, len(pr.X))
 	for i := range pr.X {
-		b := Binding{NeedX: need[i], Src: p.loSrc[i]}
+		b := Binding{NeedX: need[i], Src: p.loSrc[i], Held: held[i], Limit: p.hiSrc[i]}
 		if edges[i] >= 0 {
 			b.Src = p.edges[edges[i]].src
 		}
 		pr.Binding[i] = b
 	}
+}
+
+// BindingText says what holds a multiplier, for a reader: the margin that
+// binds it (or the bottom of its range) and, when a conflict holds it
+// below what its margins ask, the limit that holds it there.
+func BindingText(s *coord.Study, b Binding) string {
+	limit := "the top of its range"
+	if b.Limit != nil {
+		limit = Describe(s, b.Limit)
+	}
+	switch {
+	case !b.Held:
+		return Describe(s, b.Src)
+	case b.Src == nil:
+		return limit + ", an upper bound below what its margins ask (see the conflicts)"
+	}
+	return Describe(s, b.Src) + "; held below it by " + limit + " (see the conflicts)"
 }
 
 // findingKey matches findings of two runs.

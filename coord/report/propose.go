@@ -79,7 +79,7 @@ func NewProposal(pr *propose.Proposal) *Proposal {
 		d := s.Devices[v.Device]
 		st := d.Stages[v.Stage]
 		ps := ProposedSetting{Device: d.Name, Stage: st.Label, Name: st.Shape.MultiplierName(), Old: v.Was, New: pr.X[i],
-			Least: pr.Continuous[i], Range: v.Range, Declared: v.Declared, Binding: propose.Describe(s, pr.Binding[i].Src)}
+			Least: pr.Continuous[i], Range: v.Range, Declared: v.Declared, Binding: propose.BindingText(s, pr.Binding[i])}
 		out.Settings = append(out.Settings, ps)
 	}
 	out.Margins = marginChanges(pr.Before, pr.After)
