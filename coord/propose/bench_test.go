@@ -1,12 +1,9 @@
 package propose
 
 import (
-	"bytes"
 	"fmt"
 	"testing"
 
-	"tripgrade/coord"
-	"tripgrade/coord/study"
 	"tripgrade/coord/study/gen"
 )
 
@@ -33,18 +30,7 @@ func BenchmarkPropose(b *testing.B) {
 			name += "/pickups"
 		}
 		b.Run(name, func(b *testing.B) {
-			var src bytes.Buffer
-			if err := gen.Write(&src, gen.Options{Buses: c.n, Seed: 1, Ranges: c.pickups, Practice: c.practice}); err != nil {
-				b.Fatal(err)
-			}
-			s, err := study.Parse("gen.toml", src.Bytes(), nil)
-			if err != nil {
-				b.Fatal(err)
-			}
-			eng, topo, err := coord.Prepare(s)
-			if err != nil {
-				b.Fatal(err)
-			}
+			s, eng, topo := generated(b, gen.Options{Buses: c.n, Seed: 1, Ranges: c.pickups, Practice: c.practice})
 			b.ResetTimer()
 			for b.Loop() {
 				pr, err := Propose(s, eng, topo, Settings{Pickups: c.pickups})

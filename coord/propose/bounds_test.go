@@ -1,13 +1,11 @@
 package propose
 
 import (
-	"bytes"
 	"math"
 	"strings"
 	"testing"
 
 	"tripgrade/coord"
-	"tripgrade/coord/study"
 	"tripgrade/coord/study/gen"
 )
 
@@ -93,18 +91,7 @@ func TestDamageBoundsTheMultiplier(t *testing.T) {
 // upper bound between two steps, and the checker's settings audit finds
 // none off its steps.
 func TestProposalOnSteps(t *testing.T) {
-	var src bytes.Buffer
-	if err := gen.Write(&src, gen.Options{Buses: 40, Seed: 5, Practice: true, Ranges: true}); err != nil {
-		t.Fatal(err)
-	}
-	s, err := study.Parse("gen.toml", src.Bytes(), nil)
-	if err != nil {
-		t.Fatal(err)
-	}
-	eng, topo, err := coord.Prepare(s)
-	if err != nil {
-		t.Fatal(err)
-	}
+	s, eng, topo := generated(t, gen.Options{Buses: 40, Seed: 5, Practice: true, Ranges: true})
 	pr, err := Propose(s, eng, topo, Settings{})
 	if err != nil {
 		t.Fatal(err)

@@ -8,7 +8,28 @@ import (
 
 	"tripgrade/coord"
 	"tripgrade/coord/study"
+	"tripgrade/coord/study/gen"
+	"tripgrade/faults"
 )
+
+// generated writes the study gen.Write makes of o, reads it and prepares
+// its engine and topology.
+func generated(tb testing.TB, o gen.Options) (*coord.Study, *faults.Engine, *coord.Topology) {
+	tb.Helper()
+	var src bytes.Buffer
+	if err := gen.Write(&src, o); err != nil {
+		tb.Fatal(err)
+	}
+	s, err := study.Parse("gen.toml", src.Bytes(), nil)
+	if err != nil {
+		tb.Fatal(err)
+	}
+	eng, topo, err := coord.Prepare(s)
+	if err != nil {
+		tb.Fatal(err)
+	}
+	return s, eng, topo
+}
 
 // problemOf loads a study from text, runs the checker with the
 // collector at the study's settings and returns the constraint set.

@@ -1,7 +1,6 @@
 package propose
 
 import (
-	"bytes"
 	"fmt"
 	"math"
 	"math/cmplx"
@@ -337,18 +336,7 @@ func TestLevels(t *testing.T) {
 // although the checker hands its margins out from several goroutines
 // and many of them ask exactly the same (rings, definite-time stages).
 func TestProposeDeterministic(t *testing.T) {
-	var src bytes.Buffer
-	if err := gen.Write(&src, gen.Options{Buses: 60, Seed: 4, Ranges: true}); err != nil {
-		t.Fatal(err)
-	}
-	s, err := study.Parse("gen.toml", src.Bytes(), nil)
-	if err != nil {
-		t.Fatal(err)
-	}
-	eng, topo, err := coord.Prepare(s)
-	if err != nil {
-		t.Fatal(err)
-	}
+	s, eng, topo := generated(t, gen.Options{Buses: 60, Seed: 4, Ranges: true})
 	describe := func() string {
 		pr, err := Propose(s, eng, topo, Settings{Pickups: true})
 		if err != nil {
