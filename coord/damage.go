@@ -325,7 +325,7 @@ func (c *checker) damageOf(dev int, sub damageSubject) (Finding, error) {
 			tl.undefined.add(s.key())
 			continue
 		}
-		if c.hook != nil && onCurve {
+		if c.hook != nil && onCurve && finite(tc) && finite(tw) {
 			c.emitDamage(dev, s, tc, tw, sub.name)
 		}
 		if m := tw - tc; worst == nil || m < worstMargin-tieTolerance {
