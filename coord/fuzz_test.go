@@ -7,6 +7,7 @@ import (
 	"testing"
 
 	"tripgrade/coord"
+	"tripgrade/coord/propose"
 	"tripgrade/curves"
 	"tripgrade/faults"
 	"tripgrade/faults/randnet"
@@ -124,4 +125,35 @@ func addDevices(s *coord.Study, r *rand.Rand, extreme bool) {
 	for range r.IntN(3) {
 		s.Loads = append(s.Loads, coord.Load{Bus: r.IntN(len(n.Buses)), CurrentA: span(50, 1e-300, math.MaxFloat64)})
 	}
+}
+
+// FuzzPropose runs the multiplier search (coord/propose), with the
+// checker's margins handed to it, on random meshed networks with random
+// relays and fuses of typical figures: it never panics, and every
+// multiplier it proposes lies on a step of its range, within the range.
+func FuzzPropose(f *testing.F) {
+	for seed := range uint64(4) {
+		f.Add(seed, uint8(4+seed), seed*5)
+	}
+	f.Fuzz(func(t *testing.T, seed uint64, size uint8, devSeed uint64) {
+		n, set := randnet.Network(randnet.Options{Buses: 2 + int(size)%8, Seed: seed})
+		s := &coord.Study{Name: "fuzz", Network: n, Faults: set, Criteria: coord.DefaultCriteria(),
+			Equipment: make([]*coord.Equipment, n.BranchCount())}
+		addDevices(s, rand.New(rand.NewPCG(devSeed, 0xc0de)), false)
+		eng, topo, err := coord.Prepare(s)
+		if err != nil {
+			return // the engine refuses the network: FuzzEngine's concern
+		}
+		pr, err := propose.Propose(s, eng, topo, propose.Settings{MaxRounds: 2})
+		if err != nil {
+			return // nothing to search, or the search did not settle: said to the user
+		}
+		for i, v := range pr.Vars {
+			x, r := pr.X[i], v.Range
+			k := (x - r.Min) / r.Step
+			if x < r.Min || x > r.Max+1e-12 || math.Abs(k-math.Round(k)) > 1e-6 {
+				t.Errorf("%s stage %d: proposed multiplier %v, range %v:%v:%v", s.Devices[v.Device].Name, v.Stage, x, r.Min, r.Max, r.Step)
+			}
+		}
+	})
 }
