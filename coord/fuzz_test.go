@@ -26,12 +26,8 @@ func FuzzCheck(f *testing.F) {
 		f.Add(seed, uint8(3+seed), seed%3 == 0, seed*7)
 	}
 	f.Fuzz(func(t *testing.T, seed uint64, size uint8, extreme bool, devSeed uint64) {
-		n, set := randnet.Network(randnet.Options{Buses: 2 + int(size)%10, Seed: seed, Extreme: extreme})
-		s := &coord.Study{Name: "fuzz", Network: n, Faults: set, Criteria: coord.DefaultCriteria(),
-			Equipment: make([]*coord.Equipment, n.BranchCount())}
-		addDevices(s, rand.New(rand.NewPCG(devSeed, 0xc0de)), extreme)
-		eng, topo, err := coord.Prepare(s)
-		if err != nil {
+		s, eng, topo, ok := fuzzStudy(seed, 2+int(size)%10, devSeed, extreme)
+		if !ok {
 			return // the engine refuses the network: FuzzEngine's concern
 		}
 		r, err := coord.Check(s, eng, topo)
@@ -44,6 +40,18 @@ func FuzzCheck(f *testing.F) {
 			}
 		}
 	})
+}
+
+// fuzzStudy builds a random meshed network of the given size (package
+// randnet) with random devices (addDevices) and prepares it; ok is false
+// when the engine refuses the network.
+func fuzzStudy(seed uint64, buses int, devSeed uint64, extreme bool) (s *coord.Study, eng *faults.Engine, topo *coord.Topology, ok bool) {
+	n, set := randnet.Network(randnet.Options{Buses: buses, Seed: seed, Extreme: extreme})
+	s = &coord.Study{Name: "fuzz", Network: n, Faults: set, Criteria: coord.DefaultCriteria(),
+		Equipment: make([]*coord.Equipment, n.BranchCount())}
+	addDevices(s, rand.New(rand.NewPCG(devSeed, 0xc0de)), extreme)
+	eng, topo, err := coord.Prepare(s)
+	return s, eng, topo, err == nil
 }
 
 // nonFiniteFigure names a figure of x that is not a finite number.
@@ -136,12 +144,8 @@ func FuzzPropose(f *testing.F) {
 		f.Add(seed, uint8(4+seed), seed*5)
 	}
 	f.Fuzz(func(t *testing.T, seed uint64, size uint8, devSeed uint64) {
-		n, set := randnet.Network(randnet.Options{Buses: 2 + int(size)%8, Seed: seed})
-		s := &coord.Study{Name: "fuzz", Network: n, Faults: set, Criteria: coord.DefaultCriteria(),
-			Equipment: make([]*coord.Equipment, n.BranchCount())}
-		addDevices(s, rand.New(rand.NewPCG(devSeed, 0xc0de)), false)
-		eng, topo, err := coord.Prepare(s)
-		if err != nil {
+		s, eng, topo, ok := fuzzStudy(seed, 2+int(size)%8, devSeed, false)
+		if !ok {
 			return // the engine refuses the network: FuzzEngine's concern
 		}
 		pr, err := propose.Propose(s, eng, topo, propose.Settings{MaxRounds: 2})
