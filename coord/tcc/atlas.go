@@ -35,7 +35,7 @@ type Atlas struct {
 	slots   []int // look per device (see assignStyles)
 	timers  []*coord.Timer
 	mu      sync.Mutex // guards routes, which charts fill as they are drawn
-	routes  map[[2]int][]int
+	routes  map[routeKey][]int
 }
 
 // NewAtlas prepares the charts of a study. It reports inputs that do not
@@ -56,7 +56,7 @@ func NewAtlas(in Input) (*Atlas, error) {
 			return nil, fmt.Errorf("tcc: pair %d→%d names a device outside the study's %d", p.Upstream, p.Downstream, n)
 		}
 	}
-	a := &Atlas{in: in, routes: map[[2]int][]int{}}
+	a := &Atlas{in: in, routes: map[routeKey][]int{}}
 	for i := range in.Study.Devices {
 		a.timers = append(a.timers, coord.NewTimer(&in.Study.Devices[i]))
 	}
@@ -141,7 +141,7 @@ func (a *Atlas) bus(i int) int {
 func (a *Atlas) busFor(i int, q coord.Quantity) int {
 	d := &a.in.Study.Devices[i]
 	if q == coord.Residual && d.NeutralCT != nil {
-		return coord.DeviceBus(a.in.Study.Network, coord.Device{Point: *d.NeutralCT})
+		return endBus(a.in.Study.Network, d.NeutralCT.Branch, d.NeutralCT.End)
 	}
 	return a.bus(i)
 }

@@ -11,29 +11,41 @@ import (
 // route that only runs downstream (the way the fault current flows) and
 // falls back to any route; nil when none joins them. Routes are found
 // breadth first in branch order, so the same study gives the same route.
-func (a *Atlas) route(u, d int) []int {
+func (a *Atlas) route(u, d int) []int { return a.routeOf(u, d, coord.Phase) }
+
+// routeOf is route between the two devices' currents of quantity q: for
+// the ground stages of a relay on a neutral CT, from or to the star-side
+// bus of its transformer (busFor).
+func (a *Atlas) routeOf(u, d int, q coord.Quantity) []int {
 	a.mu.Lock()
 	defer a.mu.Unlock()
-	if r, ok := a.routes[[2]int{u, d}]; ok {
+	key := routeKey{u, d, q}
+	if r, ok := a.routes[key]; ok {
 		return r
 	}
-	r := a.findRoute(u, d)
-	a.routes[[2]int{u, d}] = r
+	r := a.findRoute(u, d, q)
+	a.routes[key] = r
 	return r
 }
 
-func (a *Atlas) findRoute(u, d int) []int {
+// routeKey names a route: its two devices and the quantity it joins.
+type routeKey struct {
+	u, d int
+	q    coord.Quantity
+}
+
+func (a *Atlas) findRoute(u, d int, q coord.Quantity) []int {
 	s, t := a.in.Study, a.in.Topology
 	n := s.Network
-	du, dd := s.Devices[u], s.Devices[d]
-	start := coord.DeviceBus(n, du)
+	du := s.Devices[u]
+	start := a.busFor(u, q)
 	var first []int
-	if t.IntoBranch(du.Point) {
+	if neutral := q == coord.Residual && du.NeutralCT != nil; !neutral && t.IntoBranch(du.Point) {
 		b := du.Point.Branch
 		first = []int{b}
 		start = endBus(n, b, t.Downstream[b])
 	}
-	target := coord.DeviceBus(n, dd)
+	target := a.busFor(d, q)
 	for _, downOnly := range []bool{true, false} {
 		if r, ok := a.walk(start, target, downOnly); ok {
 			return append(append([]int(nil), first...), r...)
@@ -124,36 +136,12 @@ func starDelta(n *faults.Network, b int) bool {
 // zero-sequence current.
 func (a *Atlas) zeroBlocked(u, d int) bool {
 	n := a.in.Study.Network
-	for _, b := range a.earthRoute(u, d) {
+	for _, b := range a.routeOf(u, d, coord.Residual) {
 		if n.IsTransformer(b) && !passesZero(n, b) {
 			return true
 		}
 	}
 	return false
-}
-
-// earthRoute returns the branches between the residual currents of
-// upstream device u and downstream device d: route(u, d), but from or to
-// the star-side bus of the transformer whose neutral current a relay on a
-// neutral CT measures (busFor).
-func (a *Atlas) earthRoute(u, d int) []int {
-	s := a.in.Study
-	if s.Devices[u].NeutralCT == nil && s.Devices[d].NeutralCT == nil {
-		return a.route(u, d)
-	}
-	var first []int
-	start := a.busFor(u, coord.Residual)
-	if du := s.Devices[u]; du.NeutralCT == nil && a.in.Topology.IntoBranch(du.Point) {
-		b := du.Point.Branch
-		first, start = []int{b}, endBus(s.Network, b, a.in.Topology.Downstream[b])
-	}
-	target := a.busFor(d, coord.Residual)
-	for _, downOnly := range []bool{true, false} {
-		if r, ok := a.walk(start, target, downOnly); ok {
-			return append(first, r...)
-		}
-	}
-	return nil
 }
 
 // starDeltaBetween returns the first star–delta transformer between u and
