@@ -173,12 +173,21 @@ const feasTol = 1e-9
 // add files one constraint A·x_U − B·x_D ≥ C of margin ms.
 func (c *collector) add(k constraint, ms *coord.MarginSample, o *origin) {
 	hasU, hasD := k.u >= 0 && k.a > 0, k.d >= 0 && k.b > 0
+	// The source is described only when the constraint is kept or ties,
+	// and once.
+	var src *Source
+	describe := func() *Source {
+		if src == nil {
+			src = c.source(ms, k.upStage, o)
+		}
+		return src
+	}
 	switch {
 	case hasU && hasD:
-		c.addLine(k.u, k.d, line{k: k.b / k.a, b: k.c / k.a}, func() *Source { return c.source(ms, k.upStage, o) })
+		c.addLine(k.u, k.d, line{k: k.b / k.a, b: k.c / k.a}, describe)
 	case hasU:
-		if v := k.c / k.a; v > c.lower[k.u].v || v == c.lower[k.u].v && sourceLess(c.source(ms, k.upStage, o), c.lower[k.u].src) {
-			c.lower[k.u] = bound{v, c.source(ms, k.upStage, o)}
+		if v := k.c / k.a; v > c.lower[k.u].v || v == c.lower[k.u].v && sourceLess(describe(), c.lower[k.u].src) {
+			c.lower[k.u] = bound{v, describe()}
 		}
 	case hasD:
 		// Bounds below the range cannot be met: the lowest of them is kept
@@ -187,16 +196,16 @@ func (c *collector) add(k constraint, ms *coord.MarginSample, o *origin) {
 		// Every source's lowest bound is kept: which of them the range
 		// (and the lower bounds) can meet is known only when all are in.
 		v, key := -k.c/k.b, upperKey{ms.Check, ms.Up, k.upStage}
-		if old, ok := c.upper[k.d][key]; !ok || v < old.v || v == old.v && sourceLess(c.source(ms, k.upStage, o), old.src) {
+		if old, ok := c.upper[k.d][key]; !ok || v < old.v || v == old.v && sourceLess(describe(), old.src) {
 			if c.upper[k.d] == nil {
 				c.upper[k.d] = map[upperKey]bound{}
 			}
-			c.upper[k.d][key] = bound{v, c.source(ms, k.upStage, o)}
+			c.upper[k.d][key] = bound{v, describe()}
 		}
 	case k.c > feasTol:
 		key := fixedKey{ms.Check, ms.Up, ms.Down}
-		if m, ok := c.fixed[key]; !ok || k.c > m.shortS || k.c == m.shortS && sourceLess(c.source(ms, k.upStage, o), m.src) {
-			c.fixed[key] = fixedMiss{k.c, c.source(ms, k.upStage, o)}
+		if m, ok := c.fixed[key]; !ok || k.c > m.shortS || k.c == m.shortS && sourceLess(describe(), m.src) {
+			c.fixed[key] = fixedMiss{k.c, describe()}
 		}
 	}
 }

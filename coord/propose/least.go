@@ -76,6 +76,12 @@ type Conflict struct {
 	More int
 }
 
+// holds reports whether the conflict holds its multiplier below what
+// margins ask of it: at the top of its range or of an upper bound, or on
+// the step below a bound (not a bound below its range, where the
+// multiplier stays at what the margins below ask).
+func (c Conflict) holds() bool { return c.Var >= 0 && !c.Below }
+
 // build turns the collected constraints into a problem.
 func build(c *collector) *problem {
 	n := len(c.vars)

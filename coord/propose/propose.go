@@ -221,7 +221,7 @@ func (pr *Proposal) binding(p *problem) {
 	edges, need := p.binding(pr.X)
 	held := map[int]bool{}
 	for _, c := range pr.Conflicts {
-		if c.Var >= 0 && !c.Below {
+		if c.holds() {
 			held[c.Var] = true
 		}
 	}
@@ -369,11 +369,10 @@ type conflictIndex struct {
 func (pr *Proposal) conflictIndex() conflictIndex {
 	in := conflictIndex{pairs: map[[2]string]bool{}, clearing: map[string]bool{}, elements: map[string]bool{}, held: map[string]bool{}}
 	for _, c := range pr.Conflicts {
-		if c.Var >= 0 && !c.Below {
-			// A multiplier held below what margins ask of it, at the top
-			// of its range or bound or on the step below a bound: those
-			// margins (the first named, the others counted) follow, and
-			// at the top of its range, the clearing times of its device.
+		if c.holds() {
+			// Those margins (the first named, the others counted)
+			// follow, and at the top of its range or bound, the
+			// clearing times of its device.
 			name := pr.Study.Devices[pr.Vars[c.Var].Device].Name
 			in.held[name] = true
 			if !c.Rounding {
