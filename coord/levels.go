@@ -88,24 +88,16 @@ func FaultLevels(s *Study, eng *faults.Engine, t *Topology) ([]faults.PointSumma
 	places := func(i int) []faults.Place {
 		return t.Ahead(s.Network, s.Devices[i], t.Places(t.Zones[i], s.Network, s.Faults))
 	}
-	out, err := eng.AllPoints(pts, places)
-	if err != nil {
-		return nil, err
-	}
-	for i, d := range s.Devices {
-		if d.NeutralCT == nil {
-			continue
+	ground := func(i int) faults.GroundFunc {
+		npt := s.Devices[i].NeutralCT
+		if npt == nil {
+			return nil
 		}
-		npt := *d.NeutralCT
-		sum, err := eng.SummarisePointWith(pts[i], places(i), func(sol faults.Solution, _ faults.Currents) float64 {
-			return cmplx.Abs(neutralCurrent(sol, sol.At(npt), npt))
-		})
-		if err != nil {
-			return nil, err
+		return func(sol faults.Solution, _ faults.Currents) float64 {
+			return cmplx.Abs(neutralCurrent(sol, sol.At(*npt), *npt))
 		}
-		out[i].ResidualMax, out[i].ResidualMin = sum.ResidualMax, sum.ResidualMin
 	}
-	return out, nil
+	return eng.AllPointsWith(pts, places, ground)
 }
 
 // Ahead keeps the fault places that lie ahead of device d, away from the

@@ -192,12 +192,21 @@ func (e *Engine) AllBuses() ([]BusSummary, error) {
 // AllPoints summarises measuring points over the places that places(i)
 // gives for pts[i] (Engine.Reach when places is nil), using every CPU.
 func (e *Engine) AllPoints(pts []Point, places func(i int) []Place) ([]PointSummary, error) {
+	return e.AllPointsWith(pts, places, nil)
+}
+
+// AllPointsWith is AllPoints with the residual extremes of point i taken
+// of ground(i) (nil, or a nil GroundFunc: the residual current there).
+func (e *Engine) AllPointsWith(pts []Point, places func(i int) []Place, ground func(i int) GroundFunc) ([]PointSummary, error) {
+	if ground == nil {
+		ground = func(int) GroundFunc { return nil }
+	}
 	if places == nil {
 		places = func(i int) []Place { return e.Reach(pts[i]) }
 	}
 	out := make([]PointSummary, len(pts))
 	err := parallel(len(out), func(i int) (err error) {
-		out[i], err = e.SummarisePoint(pts[i], places(i))
+		out[i], err = e.SummarisePointWith(pts[i], places(i), ground(i))
 		return err
 	})
 	return out, err
