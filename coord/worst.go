@@ -17,7 +17,7 @@ import (
 // finding per key, so its memory does not grow with the number of
 // scenarios.
 type Worst struct {
-	index    map[string]int // key and occurrence → position in findings
+	index    map[worstKey]int // key and occurrence → position in findings
 	findings []Finding
 	first    *Result // the first result added: its pairs and notes
 	pairs    map[[2]string]bool
@@ -88,7 +88,7 @@ type ScenarioPair struct {
 
 // NewWorst returns an empty gathering.
 func NewWorst() *Worst {
-	return &Worst{index: map[string]int{}, pairs: map[[2]string]bool{}, notes: map[string]bool{}, shapes: map[string]*addedNote{}}
+	return &Worst{index: map[worstKey]int{}, pairs: map[[2]string]bool{}, notes: map[string]bool{}, shapes: map[string]*addedNote{}}
 }
 
 // Add takes the result r of study s (in one scenario, its findings
@@ -135,11 +135,12 @@ func (w *Worst) Add(s *Study, r *Result) []int {
 		}
 	}
 	var changed []int
-	count := map[string]int{}
+	count := map[worstKey]int{}
 	for _, f := range r.Findings {
 		k := findingKey(f)
-		k = fmt.Sprintf("%s#%d", k, count[k])
-		count[findingKey(f)]++
+		n := count[k]
+		count[k] = n + 1
+		k.n = n
 		i, ok := w.index[k]
 		switch {
 		case !ok:
@@ -189,12 +190,20 @@ func (w *Worst) ExtraPairs() []ScenarioPair { return w.extra }
 // alone: the devices that clear it (its Other) are a result, which
 // differs from one scenario to the next, so its worst over the
 // scenarios is one finding per element.
-func findingKey(f Finding) string {
+func findingKey(f Finding) worstKey {
 	other := f.Other
 	if f.Check == Clearing {
 		other = ""
 	}
-	return fmt.Sprintf("%q %q %q %q", f.Check.Slug(), f.Device, other, f.Stage)
+	return worstKey{check: f.Check, device: f.Device, other: other, stage: f.Stage}
+}
+
+// worstKey is a finding's findingKey and, for a key that several findings
+// of one result share, which of them it is (0 for the first).
+type worstKey struct {
+	check                CheckKind
+	device, other, stage string
+	n                    int
 }
 
 // severity orders verdicts for Worst: a pass, an accepted finding, a
