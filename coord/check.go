@@ -21,6 +21,7 @@ type checker struct {
 	places  [][]faults.Place       // fault places of each device's zone
 	atPoint map[faults.Point][]int // devices at each branch end
 	hook    func(*MarginSample)    // Options.Margins
+	names   *placeNames
 }
 
 // Check runs every check on a study and returns the backup pairs and the
@@ -32,7 +33,8 @@ func Check(s *Study, eng *faults.Engine, t *Topology) (*Result, error) {
 
 // CheckWith is Check with options.
 func CheckWith(s *Study, eng *faults.Engine, t *Topology, o Options) (*Result, error) {
-	c := &checker{s: s, eng: eng, topo: t, sol: newSolver(eng), atPoint: map[faults.Point][]int{}, hook: o.Margins}
+	c := &checker{s: s, eng: eng, topo: t, sol: newSolver(eng), atPoint: map[faults.Point][]int{}, hook: o.Margins,
+		names: newPlaceNames(s.Network, s.Faults.Fractions())}
 	for i := range s.Devices {
 		c.timers = append(c.timers, NewTimer(&s.Devices[i]))
 		c.places = append(c.places, t.Places(t.Zones[i], s.Network, s.Faults))

@@ -269,7 +269,7 @@ func (c *checker) damageOf(dev int, sub damageSubject) (Finding, error) {
 				dp, dr, dd := c.measure(dev, sol)
 				// The equipment current rides in the other's phase slot so
 				// that the sweep scales it with the device's currents.
-				pts = append(pts, sample{dp: dp, dr: dr, dd: dd, up: eqA, kind: k, cs: cs, place: PlaceName(c.s.Network, pl), at: pl, scale: 1})
+				pts = append(pts, sample{dp: dp, dr: dr, dd: dd, up: eqA, kind: k, cs: cs, place: c.names.name(pl), at: pl, scale: 1})
 			}
 		}
 	}

@@ -430,7 +430,10 @@ func (x *netIndex) judgeNode(ws *workspace, t *tally, crit Criteria, ni int, nd 
 // breaker.
 func (x *netIndex) elementView(ws *workspace, p *probe, sol faults.Solution, ne nodeElem, cs faults.Case) (*view, error) {
 	eng := x.eng
-	v := &view{p: p, buf: ws.search, el: ne.el, cs: cs}
+	// One view per worker, overwritten for each element: an element's
+	// view is used only while its faults are judged.
+	v := &ws.elem
+	*v = view{p: p, buf: ws.search, el: ne.el, cs: cs}
 	if !ne.place.IsBus() && (ne.place.Frac == 0 || ne.place.Frac == 1) {
 		ci, err := eng.Solve(eng.CaseFault(ne.place, faults.LLL, cs))
 		if err != nil {

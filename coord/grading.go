@@ -265,7 +265,6 @@ func (c *checker) pairPlaces(p Pair) []faults.Place {
 // samples solves every fault of the given places of kind k in case cs and
 // returns what devices d (downstream) and u (upstream) see.
 func (c *checker) samples(places []faults.Place, u, d int, k faults.Kind, cs faults.Case) ([]sample, error) {
-	n := c.s.Network
 	var out []sample
 	for _, pl := range places {
 		sol, err := c.sol.solve(pl, k, cs)
@@ -280,7 +279,7 @@ func (c *checker) samples(places []faults.Place, u, d int, k faults.Kind, cs fau
 		if dp == 0 && dr == 0 {
 			continue
 		}
-		out = append(out, sample{dp: dp, dr: dr, up: up, ur: ur, dd: dd, ud: ud, kind: k, cs: cs, place: PlaceName(n, pl), at: pl, scale: 1})
+		out = append(out, sample{dp: dp, dr: dr, up: up, ur: ur, dd: dd, ud: ud, kind: k, cs: cs, place: c.names.name(pl), at: pl, scale: 1})
 	}
 	return out, nil
 }

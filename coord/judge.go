@@ -3,6 +3,7 @@ package coord
 import (
 	"math"
 	"math/cmplx"
+	"slices"
 	"sort"
 
 	"tripgrade/curves"
@@ -255,7 +256,8 @@ func (x *netIndex) judgeOthers(ws *workspace, t *tally, crit Criteria, v *view, 
 			}
 			ws.swept[sk] = true
 		}
-		for j, s := range sweepScales(x, d, m, &sd, &sm, v.sweepTo[k]) {
+		ws.scales = sweepScales(x, d, m, &sd, &sm, v.sweepTo[k], ws.scales[:0])
+		for j, s := range ws.scales {
 			kk := key
 			kk.sweep = j + 1
 			sds, sms := scaleSeen(sd, s), scaleSeen(sm, s)
@@ -358,10 +360,10 @@ func (t *Timer) governingSeen(s *Seen) (float64, Quantity) {
 // every stage pickup, definite-time knee and maximum-multiple point of
 // both devices in that range. The same fault through a fault impedance
 // of the Thevenin impedance's angle scales every current by one factor,
-// so every point is a fault the network can give.
-func sweepScales(x *netIndex, d, m int, sd, sm *Seen, floor float64) []float64 {
+// so every point is a fault the network can give. The shares are
+// appended to out (a worker's buffer), largest first.
+func sweepScales(x *netIndex, d, m int, sd, sm *Seen, floor float64, out []float64) []float64 {
 	const steps = 16
-	var out []float64
 	lowest := 1.0
 	for _, st := range x.s.Devices[m].Stages {
 		if a := quantityOf(sm, st.Measures, &x.s.Devices[m]); a > 0 {
@@ -396,7 +398,8 @@ func sweepScales(x *netIndex, d, m int, sd, sm *Seen, floor float64) []float64 {
 	}
 	knees(d, sd)
 	knees(m, sm)
-	sort.Sort(sort.Reverse(sort.Float64Slice(out)))
+	slices.Sort(out)
+	slices.Reverse(out)
 	return out
 }
 

@@ -150,3 +150,45 @@ func PlaceName(n *faults.Network, p faults.Place) string {
 	}
 	return fmt.Sprintf("%s %.0f %%", name, p.Frac*100)
 }
+
+// placeNames names the fault places of one study as PlaceName does, from
+// names made once: the grading and damage checks name every fault they
+// solve, a thousand times over on a large study.
+type placeNames struct {
+	n     *faults.Network
+	ends  [][2]string // a branch's close-in faults, at its From and To ends
+	fracs []float64   // the study's line positions
+	along [][]string  // a line's faults at those positions
+}
+
+func newPlaceNames(n *faults.Network, fracs []float64) *placeNames {
+	p := &placeNames{n: n, ends: make([][2]string, n.BranchCount()), fracs: fracs, along: make([][]string, len(n.Lines))}
+	for b := range p.ends {
+		p.ends[b] = [2]string{PlaceName(n, faults.OnBranch(b, 0)), PlaceName(n, faults.OnBranch(b, 1))}
+	}
+	for b := range p.along {
+		for _, f := range fracs {
+			p.along[b] = append(p.along[b], PlaceName(n, faults.OnBranch(b, f)))
+		}
+	}
+	return p
+}
+
+// name is PlaceName(n, pl).
+func (p *placeNames) name(pl faults.Place) string {
+	switch {
+	case pl.IsBus():
+		return p.n.Buses[pl.Bus].Name
+	case pl.Frac == 0:
+		return p.ends[pl.Branch][0]
+	case pl.Frac == 1:
+		return p.ends[pl.Branch][1]
+	case pl.Branch < len(p.along):
+		for i, f := range p.fracs {
+			if f == pl.Frac {
+				return p.along[pl.Branch][i]
+			}
+		}
+	}
+	return PlaceName(p.n, pl)
+}

@@ -261,6 +261,10 @@ type workspace struct {
 	search *searchBuf
 	// devs holds the devices of the node being judged.
 	devs []int
+	// elem is the view of the element being judged (elementView).
+	elem view
+	// scales holds the shares of a sweep (sweepScales).
+	scales []float64
 	// states remember the network states (open branch ends) the sequences
 	// of one element's faults reach: the four fault kinds usually open the
 	// same devices, and a state's responses serve them all.
