@@ -22,6 +22,8 @@ type checker struct {
 	atPoint map[faults.Point][]int // devices at each branch end
 	hook    func(*MarginSample)    // Options.Margins
 	names   *placeNames
+	keep    *reusable // the items' findings, recorded for the outages' checks
+	region  *region   // the part of the network an outage changes (nil: all)
 }
 
 // Check runs every check on a study and returns the backup pairs and the
@@ -33,8 +35,15 @@ func Check(s *Study, eng *faults.Engine, t *Topology) (*Result, error) {
 
 // CheckWith is Check with options.
 func CheckWith(s *Study, eng *faults.Engine, t *Topology, o Options) (*Result, error) {
+	return checkWith(s, eng, t, o, nil, nil)
+}
+
+// checkWith is CheckWith that, with keep, records every item's findings
+// for the checks of the study's outages, and with g, checks only the
+// items in region g and takes every other item's findings from g.prior.
+func checkWith(s *Study, eng *faults.Engine, t *Topology, o Options, keep *reusable, g *region) (*Result, error) {
 	c := &checker{s: s, eng: eng, topo: t, sol: newSolver(eng), atPoint: map[faults.Point][]int{}, hook: o.Margins,
-		names: newPlaceNames(s.Network, s.Faults.Fractions())}
+		names: newPlaceNames(s.Network, s.Faults.Fractions()), keep: keep, region: g}
 	for i := range s.Devices {
 		c.timers = append(c.timers, NewTimer(&s.Devices[i]))
 		c.places = append(c.places, t.Places(t.Zones[i], s.Network, s.Faults))
@@ -45,47 +54,69 @@ func CheckWith(s *Study, eng *faults.Engine, t *Topology, o Options) (*Result, e
 	// The findings are gathered in parts and joined once at the end: a
 	// large study has hundreds of thousands.
 	var parts [][]Finding
-	add := func(fs ...Finding) { parts = append(parts, fs) }
 
 	fs, notes, err := c.discrimination()
 	if err != nil {
 		return nil, err
 	}
 	r.Notes = notes
-	add(fs...)
+	parts = append(parts, fs)
 	nd, np := len(s.Devices), len(r.Pairs)
-	steps := []struct {
-		n   int
-		run func(i int) ([]Finding, error)
-	}{
-		{np, func(i int) ([]Finding, error) { f, err := c.grading(r.Pairs[i]); return []Finding{f}, err }},
-		{nd, c.primarySensitivity},
-		{np, func(i int) ([]Finding, error) { return c.backupSensitivity(r.Pairs[i]) }},
-		{nd, func(i int) ([]Finding, error) { return optional(c.loadMargin(i)) }},
-		{nd, c.instantaneousReach},
-		{nd, func(i int) ([]Finding, error) { return optional(c.inrush(i)) }},
+	device := func(i int) (string, bool) { return s.Devices[i].Name, g.device(s, i) }
+	pair := func(i int) (string, bool) {
+		p := r.Pairs[i]
+		return s.Devices[p.Downstream].Name + "\x00" + s.Devices[p.Upstream].Name, g.device(s, p.Downstream)
 	}
-	for _, st := range steps {
-		fs, err := inParallel(st.n, st.run)
+	steps := []struct {
+		part part
+		n    int
+		item func(i int) (string, bool)
+		run  func(i int) ([]Finding, error)
+	}{
+		{partGrading, np, pair, func(i int) ([]Finding, error) { f, err := c.grading(r.Pairs[i]); return []Finding{f}, err }},
+		{partPrimary, nd, device, c.primarySensitivity},
+		{partBackup, np, pair, func(i int) ([]Finding, error) { return c.backupSensitivity(r.Pairs[i]) }},
+		{partLoad, nd, device, func(i int) ([]Finding, error) { return optional(c.loadMargin(i)) }},
+		{partReach, nd, device, c.instantaneousReach},
+		{partInrush, nd, device, func(i int) ([]Finding, error) { return optional(c.inrush(i)) }},
+	}
+	run := func(p part, n int, item func(int) (string, bool), run func(int) ([]Finding, error)) error {
+		fs, err := inParallel(n, func(i int) ([]Finding, error) {
+			if name, in := item(i); !in {
+				return g.prior.get(p, name), nil
+			}
+			fs, err := run(i)
+			for j := range fs {
+				settle(&fs[j])
+			}
+			return fs, err
+		})
 		if err != nil {
-			return nil, err
+			return err
+		}
+		if keep != nil {
+			for i := range fs {
+				name, _ := item(i)
+				keep.put(p, name, fs[i])
+			}
 		}
 		parts = append(parts, fs...)
+		return nil
+	}
+	for _, st := range steps {
+		if err := run(st.part, st.n, st.item, st.run); err != nil {
+			return nil, err
+		}
 	}
 	fs, err = c.damage()
 	if err != nil {
 		return nil, err
 	}
-	add(fs...)
-	audit, err := inParallel(nd, c.settingsAudit)
-	if err != nil {
+	parts = append(parts, fs)
+	if err := run(partAudit, nd, device, c.settingsAudit); err != nil {
 		return nil, err
 	}
-	parts = append(parts, audit...)
 	r.Findings = slices.Concat(parts...)
-	for i := range r.Findings {
-		settle(&r.Findings[i])
-	}
 	return r, nil
 }
 

@@ -50,51 +50,61 @@ func (c *checker) damage() ([]Finding, error) {
 		if eq == nil || (eq.Damage[0] == nil && eq.Cable == nil) {
 			continue
 		}
-		name := n.BranchName(b)
-		dev := own[b]
-		if dev < 0 {
-			f := unchecked(Damage, "no device's zone holds it: it is unprotected in this study")
-			f.Device, f.Other = "-", name
-			out = append(out, f)
-			continue
-		}
-		down := c.topo.Downstream[b]
-		sub := damageSubject{name: name}
-		if eq.Damage[0] != nil {
-			var err error
-			var nc *noWithstand
-			sub, err = c.transformerSubject(b, eq, dev)
-			if errors.As(err, &nc) {
-				f := unchecked(Damage, nc.Error())
-				f.Device, f.Other = c.s.Devices[dev].Name, name
-				out = append(out, f)
-				continue
-			}
-			if err != nil {
-				return nil, err
-			}
-		} else {
-			sub.withstand = eq.Cable
-			sub.places = c.places[dev]
-			sub.at = faults.Point{Branch: b, End: otherEnd(down)}
-		}
-		f, err := c.damageOf(dev, sub)
+		fs, err := c.item(partDamage, n.BranchName(b), c.region.branch(n, b), func() ([]Finding, error) {
+			f, err := c.damageOfBranch(b, eq, own[b])
+			return []Finding{f}, err
+		})
 		if err != nil {
 			return nil, err
 		}
-		out = append(out, f)
+		out = append(out, fs...)
 	}
 	// Three-winding transformers have no through-fault withstand curve
 	// here: say so rather than let their absence read as checked.
 	for i := range n.Transformers3 {
-		f := unchecked(Damage, "no through-fault withstand curve for a three-winding transformer: check its windings by hand")
-		f.Device, f.Other = "-", n.Transformers3[i].Name
-		if dev := own[n.StarBranch(i, faults.HV)]; dev >= 0 {
-			f.Device = c.s.Devices[dev].Name
-		}
-		out = append(out, f)
+		hv := n.StarBranch(i, faults.HV)
+		fs, _ := c.item(partDamage, n.Transformers3[i].Name, c.region.branch(n, hv), func() ([]Finding, error) {
+			f := unchecked(Damage, "no through-fault withstand curve for a three-winding transformer: check its windings by hand")
+			f.Device, f.Other = "-", n.Transformers3[i].Name
+			if dev := own[hv]; dev >= 0 {
+				f.Device = c.s.Devices[dev].Name
+			}
+			return []Finding{f}, nil
+		})
+		out = append(out, fs...)
 	}
 	return out, nil
+}
+
+// damageOfBranch judges the protected equipment eq of branch b, whose
+// zone is device dev's (−1: no device's).
+func (c *checker) damageOfBranch(b int, eq *Equipment, dev int) (Finding, error) {
+	name := c.s.Network.BranchName(b)
+	if dev < 0 {
+		f := unchecked(Damage, "no device's zone holds it: it is unprotected in this study")
+		f.Device, f.Other = "-", name
+		return f, nil
+	}
+	down := c.topo.Downstream[b]
+	sub := damageSubject{name: name}
+	if eq.Damage[0] != nil {
+		var err error
+		var nc *noWithstand
+		sub, err = c.transformerSubject(b, eq, dev)
+		if errors.As(err, &nc) {
+			f := unchecked(Damage, nc.Error())
+			f.Device, f.Other = c.s.Devices[dev].Name, name
+			return f, nil
+		}
+		if err != nil {
+			return Finding{}, err
+		}
+	} else {
+		sub.withstand = eq.Cable
+		sub.places = c.places[dev]
+		sub.at = faults.Point{Branch: b, End: otherEnd(down)}
+	}
+	return c.damageOf(dev, sub)
 }
 
 // noWithstand is a transformer with no through-fault withstand curve to

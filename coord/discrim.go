@@ -43,6 +43,9 @@ func (x *netIndex) nodes() []node {
 		if n.Buses[k].Internal {
 			continue // a three-winding transformer's star point: no node of the plant
 		}
+		if !x.region.bus(k) {
+			continue
+		}
 		nd := node{place: faults.AtBus(k), elems: []nodeElem{{el: element{bus: k, branch: -1}, place: faults.AtBus(k), index: k}}}
 		for _, b := range x.adj[k] {
 			frac := 0.0
@@ -54,6 +57,9 @@ func (x *netIndex) nodes() []node {
 		out = append(out, nd)
 	}
 	for b := range n.Lines {
+		if !x.region.branch(n, b) {
+			continue
+		}
 		for _, f := range x.s.Faults.Fractions() {
 			out = append(out, node{place: faults.OnBranch(b, f), elems: []nodeElem{{el: element{bus: -1, branch: b}, place: faults.OnBranch(b, f), index: nb + b}}})
 		}

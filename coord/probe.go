@@ -25,6 +25,9 @@ type netIndex struct {
 	// current·kV below which a branch there leads to no device that could
 	// operate (see explore).
 	tauPhase, tauGround []float64
+	// region, when not nil, is the part of the network whose faults the
+	// pass judges (an outage's island: see reusable).
+	region *region
 	// infeed lists the sources and generators in service at each bus, per
 	// case.
 	infeed [2][][]infeedRef

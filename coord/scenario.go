@@ -24,6 +24,11 @@ type Scenario struct {
 	// Outage is true for a scenario the study's N-1 sweep added: the
 	// single outage of one element.
 	Outage bool
+	// Out names the network elements an outage of the sweep takes out of
+	// service, when that is all it changes: its check then works out only
+	// the island of the network they are in, and takes the findings of
+	// every other island from the study as drawn (see reusable).
+	Out []string
 	// Build returns the study in this configuration, with no scenarios of
 	// its own. The study loader provides it; each call builds afresh, so
 	// the studies of many scenarios need never be held at once.
@@ -78,25 +83,31 @@ func CheckScenariosWith(s *Study, eng *faults.Engine, t *Topology, pick func(nam
 		return opts(name, st)
 	}
 	tag := len(s.Scenarios) > 0
-	if pick == nil || pick(AsDrawn) {
-		r, err := CheckWith(s, eng, t, optsOf(AsDrawn, s))
+	var list []Scenario
+	var keep *reusable
+	for _, sc := range s.Scenarios {
+		if pick == nil || pick(sc.Name) {
+			list = append(list, sc)
+			if len(sc.Out) > 0 && opts == nil {
+				keep = newReusable()
+			}
+		}
+	}
+	if pick == nil || pick(AsDrawn) || keep != nil {
+		r, err := checkWith(s, eng, t, optsOf(AsDrawn, s), keep, nil)
 		if err != nil {
 			return err
 		}
 		if tag {
 			r.Tag(AsDrawn)
 		}
-		if err := visit(Checked{Scenario: AsDrawn, Study: s, Engine: eng, Topology: t, Result: r}); err != nil {
-			return err
+		if pick == nil || pick(AsDrawn) {
+			if err := visit(Checked{Scenario: AsDrawn, Study: s, Engine: eng, Topology: t, Result: r}); err != nil {
+				return err
+			}
 		}
 	}
-	var list []Scenario
-	for _, sc := range s.Scenarios {
-		if pick == nil || pick(sc.Name) {
-			list = append(list, sc)
-		}
-	}
-	return pipeline(list, optsOf, visit)
+	return pipeline(list, func(sc Scenario) (Checked, error) { return checkScenario(s, sc, optsOf, keep) }, visit)
 }
 
 // pipeline checks the scenarios of list on every CPU, several at a time,
@@ -104,7 +115,7 @@ func CheckScenariosWith(s *Study, eng *faults.Engine, t *Topology, pick func(nam
 // until visit has taken it, and no more than one per CPU are under way or
 // waiting, so memory does not grow with the number of scenarios. The
 // first error, in list order, stops it.
-func pipeline(list []Scenario, opts func(string, *Study) Options, visit func(Checked) error) error {
+func pipeline(list []Scenario, check func(Scenario) (Checked, error), visit func(Checked) error) error {
 	type outcome struct {
 		c   Checked
 		err error
@@ -130,7 +141,7 @@ func pipeline(list []Scenario, opts func(string, *Study) Options, visit func(Che
 			wg.Add(1)
 			go func() {
 				defer wg.Done()
-				c, err := checkScenario(sc, opts)
+				c, err := check(sc)
 				if err != nil {
 					err = &ScenarioError{Scenario: sc.Name, Err: err}
 				} else {
@@ -153,8 +164,10 @@ func pipeline(list []Scenario, opts func(string, *Study) Options, visit func(Che
 	return nil
 }
 
-// checkScenario builds, prepares and checks one scenario.
-func checkScenario(sc Scenario, opts func(string, *Study) Options) (Checked, error) {
+// checkScenario builds, prepares and checks one scenario of study s.
+// With the record of the study as drawn (keep), an outage's check takes
+// over the findings of the islands it leaves as drawn.
+func checkScenario(s *Study, sc Scenario, opts func(string, *Study) Options, keep *reusable) (Checked, error) {
 	st, err := sc.Build()
 	if err != nil {
 		return Checked{}, err
@@ -163,7 +176,11 @@ func checkScenario(sc Scenario, opts func(string, *Study) Options) (Checked, err
 	if err != nil {
 		return Checked{}, err
 	}
-	r, err := CheckWith(st, eng, t, opts(sc.Name, st))
+	var g *region
+	if keep != nil && len(sc.Out) > 0 {
+		g = changedRegion(s.Network, st.Network, sc.Out, keep)
+	}
+	r, err := checkWith(st, eng, t, opts(sc.Name, st), nil, g)
 	if err != nil {
 		return Checked{}, err
 	}

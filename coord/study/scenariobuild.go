@@ -3,6 +3,7 @@ package study
 import (
 	"fmt"
 	"io/fs"
+	"sort"
 	"strings"
 
 	"tripgrade/coord"
@@ -18,6 +19,12 @@ func (b *builder) scenarios(defs []scenarioDef, dir fs.FS) ErrorList {
 	var errs ErrorList
 	for _, d := range defs {
 		sc := coord.Scenario{Name: d.name, Changes: strings.Join(d.changes, "; "), Outage: d.outage, Build: b.scenarioBuild(d, dir)}
+		if d.outage && len(d.switches) == 0 && len(d.running) == 0 && len(d.sources) == 0 {
+			for e := range d.out {
+				sc.Out = append(sc.Out, e.name)
+			}
+			sort.Strings(sc.Out)
+		}
 		if !d.outage {
 			if _, err := sc.Build(); err != nil {
 				if list, ok := err.(ErrorList); ok {

@@ -1,0 +1,171 @@
+package coord_test
+
+import (
+	"bytes"
+	"fmt"
+	"os"
+	"regexp"
+	"strings"
+	"testing"
+
+	"tripgrade/coord"
+	"tripgrade/coord/study"
+	"tripgrade/coord/study/gen"
+)
+
+// islandStudy joins studies of the repository into one study file of
+// several islands: the first whole (its [study] table sets the N-1
+// sweep), the element tables of the others after it with every name
+// they define prefixed, so that nothing of one refers to another. The
+// islands between them hold parallel transformers, a ring, a generator
+// with its own protection, fuses, a three-winding transformer and
+// directional stages.
+func islandStudy(t *testing.T, first string, others ...string) []byte {
+	t.Helper()
+	src, err := os.ReadFile(first)
+	if err != nil {
+		t.Fatal(err)
+	}
+	out := append([]byte(nil), src...)
+	header := regexp.MustCompile(`^\[[a-z_0-9]+\]\s*$`)
+	defined := regexp.MustCompile(`(?m)^\s*name\s*=\s*"([^"]*)"`)
+	quoted := regexp.MustCompile(`"([^"]*)"`)
+	for i, path := range others {
+		src, err := os.ReadFile(path)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var keep []string
+		in := false
+		for _, line := range strings.Split(string(src), "\n") {
+			switch {
+			case strings.HasPrefix(line, "[["):
+				in = true
+			case header.MatchString(line):
+				in = false
+			}
+			if in {
+				keep = append(keep, line)
+			}
+		}
+		body := strings.Join(keep, "\n")
+		names := map[string]bool{}
+		for _, m := range defined.FindAllStringSubmatch(body, -1) {
+			names[m[1]] = true
+		}
+		prefix := fmt.Sprintf("i%d-", i+2)
+		body = quoted.ReplaceAllStringFunc(body, func(q string) string {
+			if n := q[1 : len(q)-1]; names[n] {
+				return `"` + prefix + n + `"`
+			}
+			return q
+		})
+		out = append(append(out, "\n\n"...), body...)
+	}
+	return out
+}
+
+// resultText prints everything of a result, every figure to the last
+// bit (%v of a float64 is the shortest text that reads back to it).
+func resultText(r *coord.Result) string {
+	var b strings.Builder
+	fmt.Fprintf(&b, "pairs %+v\nexcluded %+v\nnotes %q\n", r.Pairs, r.Excluded, r.Notes)
+	for _, f := range r.Findings {
+		ref, acc := f.Fault, f.Acceptance
+		f.Fault, f.Acceptance = nil, nil
+		fmt.Fprintf(&b, "%+v", f)
+		if ref != nil {
+			fmt.Fprintf(&b, " fault %+v", *ref)
+		}
+		if acc != nil {
+			fmt.Fprintf(&b, " accepted %+v", *acc)
+		}
+		b.WriteByte('\n')
+	}
+	return b.String()
+}
+
+// TestOutageReusesUntouchedIslands checks every outage of the N-1 sweep
+// of two studies of several islands, as CheckScenarios checks it (the
+// outage's island worked out, every other island's findings taken from
+// the study as drawn), against the whole check of the study in that
+// configuration (the scenario's study built afresh, as if edited by
+// hand): the two agree in every finding, figure, note and pair. It also
+// asks that each outage works out only part of the network, so that the
+// comparison is of the two ways and not of one with itself.
+func TestOutageReusesUntouchedIslands(t *testing.T) {
+	var practice bytes.Buffer
+	if err := gen.Write(&practice, gen.Options{Buses: 180, Seed: 4, Practice: true}); err != nil {
+		t.Fatal(err)
+	}
+	studies := map[string][]byte{
+		"joined": islandStudy(t, "../testdata/scenarios/ashcombe-ring.toml", "../testdata/scenarios/n1-mesh.toml",
+			"../examples/kestrel-park.toml", "../testdata/machines/three-winding.toml"),
+		"practice": bytes.Replace(practice.Bytes(), []byte("[study]\n"), []byte("[study]\nn_minus_1 = [\"line\", \"transformer\"]\n"), 1),
+	}
+	for _, name := range []string{"joined", "practice"} {
+		t.Run(name, func(t *testing.T) {
+			s, err := study.Parse(name+".toml", studies[name], os.DirFS("../testdata/machines"))
+			if err != nil {
+				t.Fatal(err)
+			}
+			eng, topo, err := coord.Prepare(s)
+			if err != nil {
+				t.Fatal(err)
+			}
+			byName := map[string]coord.Scenario{}
+			for _, sc := range s.Scenarios {
+				byName[sc.Name] = sc
+			}
+			outages := 0
+			err = coord.CheckScenarios(s, eng, topo, nil, func(c coord.Checked) error {
+				sc, ok := byName[c.Scenario]
+				if !ok || !sc.Outage {
+					return nil // the study as drawn, or a scenario of its own
+				}
+				if len(sc.Out) == 0 {
+					t.Errorf("%s: the outage names no element", sc.Name)
+					return nil
+				}
+				outages++
+				st, err := sc.Build()
+				if err != nil {
+					return err
+				}
+				if in, total := coord.RegionShare(s, sc, st); !(in > 0 && in < total) {
+					t.Errorf("%s: works out %d of %d buses: nothing taken over", sc.Name, in, total)
+				}
+				e2, t2, err := coord.Prepare(st)
+				if err != nil {
+					return err
+				}
+				whole, err := coord.Check(st, e2, t2)
+				if err != nil {
+					return err
+				}
+				whole.Tag(sc.Name)
+				if got, want := resultText(c.Result), resultText(whole); got != want {
+					t.Errorf("%s: the sweep's check differs from the whole check of the edited study:\n%s", sc.Name, firstDiff(got, want))
+				}
+				return nil
+			})
+			if err != nil {
+				t.Fatal(err)
+			}
+			if outages < 5 {
+				t.Errorf("%d outages checked, want at least 5", outages)
+			}
+		})
+	}
+}
+
+// firstDiff shows the first line where two texts differ.
+func firstDiff(got, want string) string {
+	g, w := strings.Split(got, "\n"), strings.Split(want, "\n")
+	for i := 0; i < min(len(g), len(w)); i++ {
+		if g[i] != w[i] {
+			return fmt.Sprintf("line %d\n got: %s\nwant: %s", i+1, g[i], w[i])
+		}
+	}
+	return fmt.Sprintf("%d lines, want %d", len(g), len(w))
+}
