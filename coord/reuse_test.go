@@ -6,11 +6,13 @@ import (
 	"os"
 	"regexp"
 	"strings"
+	"sync"
 	"testing"
 
 	"tripgrade/coord"
 	"tripgrade/coord/study"
 	"tripgrade/coord/study/gen"
+	"tripgrade/faults"
 )
 
 // islandStudy joins studies of the repository into one study file of
@@ -168,4 +170,104 @@ func firstDiff(got, want string) string {
 		}
 	}
 	return fmt.Sprintf("%d lines, want %d", len(g), len(w))
+}
+
+// marginSet gathers margin samples (coord.Options.Margins) as text, by
+// device and place names, every figure to the last bit.
+type marginSet struct {
+	mu  sync.Mutex
+	n   map[string]int
+	all int
+}
+
+func newMarginSet() *marginSet { return &marginSet{n: map[string]int{}} }
+
+// hook returns the receiver of the margins of a check of st.
+func (m *marginSet) hook(st *coord.Study) func(*coord.MarginSample) {
+	return func(ms *coord.MarginSample) {
+		c := *ms
+		up := "-"
+		if c.Up >= 0 {
+			up = st.Devices[c.Up].Name
+		}
+		down := st.Devices[c.Down].Name
+		where := coord.PlaceName(st.Network, c.Place)
+		c.Up, c.Down, c.Place = 0, 0, faults.Place{}
+		k := fmt.Sprintf("%s %s %s %+v", up, down, where, c)
+		m.mu.Lock()
+		m.n[k]++
+		m.all++
+		m.mu.Unlock()
+	}
+}
+
+// TestOutageMarginsTakenOverAreTheStudys checks what propose relies on
+// when the sweep takes islands over: every margin the whole check of an
+// outage judges is either one the sweep's check of that outage hands on
+// too, or one the check of the study as drawn hands on, figure for
+// figure (propose keeps, of equal constraints, the one of the study as
+// drawn). So dropping those margins loses no constraint.
+func TestOutageMarginsTakenOverAreTheStudys(t *testing.T) {
+	src := islandStudy(t, "../testdata/scenarios/ashcombe-ring.toml", "../testdata/scenarios/n1-mesh.toml",
+		"../examples/kestrel-park.toml", "../testdata/machines/three-winding.toml")
+	s, err := study.Parse("joined.toml", src, os.DirFS("../testdata/machines"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	eng, topo, err := coord.Prepare(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	sweep := map[string]*marginSet{}
+	var mu sync.Mutex
+	opts := func(name string, st *coord.Study) coord.Options {
+		m := newMarginSet()
+		mu.Lock()
+		sweep[name] = m
+		mu.Unlock()
+		return coord.Options{Margins: m.hook(st)}
+	}
+	err = coord.CheckScenariosWith(s, eng, topo, nil, opts, func(coord.Checked) error { return nil })
+	if err != nil {
+		t.Fatal(err)
+	}
+	drawn := sweep[coord.AsDrawn]
+	outages := 0
+	for _, sc := range s.Scenarios {
+		if !sc.Outage {
+			continue
+		}
+		outages++
+		st, err := sc.Build()
+		if err != nil {
+			t.Fatal(err)
+		}
+		e2, t2, err := coord.Prepare(st)
+		if err != nil {
+			t.Fatal(err)
+		}
+		whole := newMarginSet()
+		if _, err := coord.CheckWith(st, e2, t2, coord.Options{Margins: whole.hook(st)}); err != nil {
+			t.Fatal(err)
+		}
+		got := sweep[sc.Name]
+		if got.all == 0 || got.all >= whole.all {
+			t.Errorf("%s: the sweep hands on %d margins, the whole check %d: nothing taken over", sc.Name, got.all, whole.all)
+		}
+		for k, n := range got.n {
+			if whole.n[k] < n {
+				t.Errorf("%s: the sweep hands on a margin the whole check does not judge: %s", sc.Name, k)
+				break
+			}
+		}
+		for k, n := range whole.n {
+			if got.n[k] < n && drawn.n[k] == 0 {
+				t.Errorf("%s: a margin of the whole check is neither handed on by the sweep nor judged as drawn: %s", sc.Name, k)
+				break
+			}
+		}
+	}
+	if outages < 5 {
+		t.Errorf("%d outages, want at least 5", outages)
+	}
 }

@@ -88,7 +88,7 @@ func CheckScenariosWith(s *Study, eng *faults.Engine, t *Topology, pick func(nam
 	for _, sc := range s.Scenarios {
 		if pick == nil || pick(sc.Name) {
 			list = append(list, sc)
-			if len(sc.Out) > 0 && opts == nil {
+			if len(sc.Out) > 0 {
 				keep = newReusable()
 			}
 		}
