@@ -74,37 +74,6 @@ type region struct {
 	in    []bool // by bus of the scenario's network
 }
 
-// islandsOf labels every bus of a network with the lowest bus index of its
-// island.
-func islandsOf(n *faults.Network) []int {
-	parent := make([]int, len(n.Buses))
-	for i := range parent {
-		parent[i] = i
-	}
-	var find func(int) int
-	find = func(i int) int {
-		for parent[i] != i {
-			parent[i] = parent[parent[i]]
-			i = parent[i]
-		}
-		return i
-	}
-	for b := 0; b < n.BranchCount(); b++ {
-		f, t := n.BranchEnds(b)
-		rf, rt := find(f), find(t)
-		if rf < rt {
-			parent[rt] = rf
-		} else if rt < rf {
-			parent[rf] = rt
-		}
-	}
-	out := make([]int, len(n.Buses))
-	for i := range out {
-		out[i] = find(i)
-	}
-	return out
-}
-
 // elementBuses returns the buses of the network elements of the given
 // names: the ends of lines and transformers (all windings of a
 // three-winding one), the buses of sources, generators and motors.
@@ -159,7 +128,7 @@ func changedRegion(drawn, st *faults.Network, out []string, prior *reusable) *re
 	if len(at) == 0 || len(drawn.Buses) != len(st.Buses) {
 		return nil
 	}
-	isl := islandsOf(drawn)
+	isl := drawn.PartLabels()
 	changed := map[int]bool{}
 	for _, k := range at {
 		changed[isl[k]] = true

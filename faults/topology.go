@@ -153,6 +153,13 @@ func components(n *Network, link func(b int) bool) []int {
 	return label
 }
 
+// PartLabels labels every bus with the lowest index of the buses its
+// branches connect it to: buses of one label make one connected part of
+// the network, and no current passes between parts.
+func (n *Network) PartLabels() []int {
+	return components(n, func(int) bool { return true })
+}
+
 // Islands returns, for every connected part of the network (through all
 // branches) that has no source and no generator, the sorted names of its
 // buses. The parts are ordered by their first bus name.
