@@ -124,9 +124,16 @@ func elementBuses(n *faults.Network, names []string) []int {
 // returns nil when an element is not found or a bus of one network is not
 // in the other: then nothing is taken over.
 func changedRegion(drawn, st *faults.Network, out []string, prior *reusable) *region {
-	at := elementBuses(drawn, out)
-	if len(at) == 0 || len(drawn.Buses) != len(st.Buses) {
+	if len(out) == 0 || len(drawn.Buses) != len(st.Buses) {
 		return nil
+	}
+	var at []int
+	for _, name := range out {
+		ks := elementBuses(drawn, []string{name})
+		if len(ks) == 0 {
+			return nil
+		}
+		at = append(at, ks...)
 	}
 	isl := drawn.PartLabels()
 	changed := map[int]bool{}
