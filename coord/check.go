@@ -68,10 +68,10 @@ func checkWith(s *Study, eng *faults.Engine, t *Topology, o Options, keep *reusa
 		return s.Devices[p.Downstream].Name + "\x00" + s.Devices[p.Upstream].Name, g.device(s, p.Downstream)
 	}
 	steps := []struct {
-		part part
-		n    int
-		item func(i int) (string, bool)
-		run  func(i int) ([]Finding, error)
+		part  part
+		n     int
+		which func(i int) (string, bool) // the item's name, and whether it lies in the region
+		run   func(i int) ([]Finding, error)
 	}{
 		{partGrading, np, pair, func(i int) ([]Finding, error) { f, err := c.grading(r.Pairs[i]); return []Finding{f}, err }},
 		{partPrimary, nd, device, c.primarySensitivity},
@@ -80,23 +80,17 @@ func checkWith(s *Study, eng *faults.Engine, t *Topology, o Options, keep *reusa
 		{partReach, nd, device, c.instantaneousReach},
 		{partInrush, nd, device, func(i int) ([]Finding, error) { return optional(c.inrush(i)) }},
 	}
-	run := func(p part, n int, item func(int) (string, bool), run func(int) ([]Finding, error)) error {
+	run := func(p part, n int, which func(int) (string, bool), run func(int) ([]Finding, error)) error {
 		fs, err := inParallel(n, func(i int) ([]Finding, error) {
-			if name, in := item(i); !in {
-				return g.prior.get(p, name), nil
-			}
-			fs, err := run(i)
-			for j := range fs {
-				settle(&fs[j])
-			}
-			return fs, err
+			name, in := which(i)
+			return item(g, nil, p, name, in, func() ([]Finding, error) { return run(i) })
 		})
 		if err != nil {
 			return err
 		}
 		if keep != nil {
 			for i := range fs {
-				name, _ := item(i)
+				name, _ := which(i)
 				keep.put(p, name, fs[i])
 			}
 		}
@@ -104,7 +98,7 @@ func checkWith(s *Study, eng *faults.Engine, t *Topology, o Options, keep *reusa
 		return nil
 	}
 	for _, st := range steps {
-		if err := run(st.part, st.n, st.item, st.run); err != nil {
+		if err := run(st.part, st.n, st.which, st.run); err != nil {
 			return nil, err
 		}
 	}

@@ -50,7 +50,7 @@ func (c *checker) damage() ([]Finding, error) {
 		if eq == nil || (eq.Damage[0] == nil && eq.Cable == nil) {
 			continue
 		}
-		fs, err := c.item(partDamage, n.BranchName(b), c.region.branch(n, b), func() ([]Finding, error) {
+		fs, err := item(c.region, c.keep, partDamage, n.BranchName(b), c.region.branch(n, b), func() ([]Finding, error) {
 			f, err := c.damageOfBranch(b, eq, own[b])
 			return []Finding{f}, err
 		})
@@ -63,7 +63,7 @@ func (c *checker) damage() ([]Finding, error) {
 	// here: say so rather than let their absence read as checked.
 	for i := range n.Transformers3 {
 		hv := n.StarBranch(i, faults.HV)
-		fs, _ := c.item(partDamage, n.Transformers3[i].Name, c.region.branch(n, hv), func() ([]Finding, error) {
+		fs, _ := item(c.region, c.keep, partDamage, n.Transformers3[i].Name, c.region.branch(n, hv), func() ([]Finding, error) {
 			f := unchecked(Damage, "no through-fault withstand curve for a three-winding transformer: check its windings by hand")
 			f.Device, f.Other = "-", n.Transformers3[i].Name
 			if dev := own[hv]; dev >= 0 {

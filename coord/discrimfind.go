@@ -96,18 +96,7 @@ func (x *netIndex) names(ds []int) string {
 func (x *netIndex) clearingFindings(t *tally, keep *reusable) []Finding {
 	var out []Finding
 	for i := range t.clears {
-		var fs []Finding
-		if !x.elementIn(i) {
-			fs = x.region.prior.get(partClearing, x.elementKey(i))
-		} else {
-			fs = x.clearingFinding(t, i)
-			for j := range fs {
-				settle(&fs[j])
-			}
-		}
-		if keep != nil {
-			keep.put(partClearing, x.elementKey(i), fs)
-		}
+		fs, _ := item(x.region, keep, partClearing, x.elementKey(i), x.elementIn(i), func() ([]Finding, error) { return x.clearingFinding(t, i), nil })
 		out = append(out, fs...)
 	}
 	return out
@@ -117,7 +106,6 @@ func (x *netIndex) clearingFindings(t *tally, keep *reusable) []Finding {
 func (x *netIndex) clearingFinding(t *tally, i int) []Finding {
 	crit := x.s.Criteria
 	r := t.clears[i]
-	var out []Finding
 	if names := t.outside[i]; len(names) > 0 {
 		f := unchecked(Clearing, fmt.Sprintf("faults on it are fed by %s with no device of the study between: their clearing is left to protection outside the study (declare own_protection on a source or generator whose own protection removes its infeed)",
 			strings.Join(names, ", ")))
@@ -125,11 +113,10 @@ func (x *netIndex) clearingFinding(t *tally, i int) []Finding {
 		if r.valid {
 			f.Other = x.names(r.must)
 		}
-		out = append(out, f)
-		return out
+		return []Finding{f}
 	}
 	if !r.valid && r.unjudged == 0 && r.declared == 0 {
-		return out
+		return nil
 	}
 	name := x.elementName(i)
 	var gaps []string
@@ -152,8 +139,7 @@ func (x *netIndex) clearingFinding(t *tally, i int) []Finding {
 		} else {
 			f.Other = x.s.Devices[r.declaredBy-1].Name
 		}
-		out = append(out, f)
-		return out
+		return []Finding{f}
 	}
 	ref := &FaultRef{Kind: r.key.kind, Case: r.key.cs, Place: PlaceName(x.n, r.place)}
 	var f Finding
@@ -179,7 +165,7 @@ func (x *netIndex) clearingFinding(t *tally, i int) []Finding {
 		}
 	}
 	f.Device, f.Other = name, x.names(r.must)
-	return append(out, f)
+	return []Finding{f}
 }
 
 func orNone(s string) string {
@@ -247,21 +233,10 @@ func (x *netIndex) sequenceText(evs []event) string {
 func (x *netIndex) discriminationFindings(t *tally, keep *reusable) []Finding {
 	var out []Finding
 	for d := range x.s.Devices {
-		name := x.s.Devices[d].Name
-		if !x.region.device(x.s, d) {
-			fs := x.region.prior.get(partDiscrimination, name)
-			out = append(out, fs...)
-			if keep != nil {
-				keep.put(partDiscrimination, name, fs)
-			}
-			continue
-		}
-		f := x.discriminationFinding(t, d)
-		settle(&f)
-		if keep != nil {
-			keep.put(partDiscrimination, name, []Finding{f})
-		}
-		out = append(out, f)
+		fs, _ := item(x.region, keep, partDiscrimination, x.s.Devices[d].Name, x.region.device(x.s, d), func() ([]Finding, error) {
+			return []Finding{x.discriminationFinding(t, d)}, nil
+		})
+		out = append(out, fs...)
 	}
 	return out
 }

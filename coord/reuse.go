@@ -197,14 +197,15 @@ func (g *region) infeed(n *faults.Network, name string) bool {
 	return false
 }
 
-// item gives one item's findings in a check: in the region, those run
-// makes (settled); outside it, those the study as drawn gave. With a
-// record to keep, the item's findings are kept in it. It is not safe for
-// concurrent use while the check keeps a record.
-func (c *checker) item(p part, name string, in bool, run func() ([]Finding, error)) ([]Finding, error) {
+// item gives one item's findings in a check: in region g (every item
+// when g is nil), those run makes, settled; outside it, those the study
+// as drawn gave. With keep, the item's findings are recorded there (keep
+// is not safe for concurrent use: a caller on several goroutines passes
+// nil and records afterwards).
+func item(g *region, keep *reusable, p part, name string, in bool, run func() ([]Finding, error)) ([]Finding, error) {
 	var fs []Finding
 	if !in {
-		fs = c.region.prior.get(p, name)
+		fs = g.prior.get(p, name)
 	} else {
 		var err error
 		if fs, err = run(); err != nil {
@@ -214,8 +215,8 @@ func (c *checker) item(p part, name string, in bool, run func() ([]Finding, erro
 			settle(&fs[i])
 		}
 	}
-	if c.keep != nil {
-		c.keep.put(p, name, fs)
+	if keep != nil {
+		keep.put(p, name, fs)
 	}
 	return fs, nil
 }
