@@ -68,7 +68,10 @@ func (e *ScenarioError) Unwrap() error { return e.Err }
 // different scenarios are never held at once. pick chooses the
 // scenarios to check by name (AsDrawn for the study as drawn); nil picks
 // them all. When the study has scenarios, every finding is tagged with
-// the name of the one it was made in.
+// the name of the one it was made in. An outage of the N-1 sweep takes
+// the findings of the islands it leaves alone from the check of the study
+// as drawn, which is made (and not handed to visit) also when pick leaves
+// it out.
 func CheckScenarios(s *Study, eng *faults.Engine, t *Topology, pick func(name string) bool, visit func(Checked) error) error {
 	return CheckScenariosWith(s, eng, t, pick, nil, visit)
 }
@@ -88,7 +91,7 @@ func CheckScenariosWith(s *Study, eng *faults.Engine, t *Topology, pick func(nam
 	for _, sc := range s.Scenarios {
 		if pick == nil || pick(sc.Name) {
 			list = append(list, sc)
-			if len(sc.Out) > 0 {
+			if len(sc.Out) > 0 && keep == nil {
 				keep = newReusable()
 			}
 		}
